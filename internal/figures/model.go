@@ -1,0 +1,247 @@
+// Package figures holds the figures model: every number a pack shows,
+// computed once from the dataset and the brief. Charts, tables and
+// commentary read this model and nothing else; the figures file
+// (`--figures FILE`) is this model written out row by row.
+package figures
+
+import (
+	"strconv"
+	"strings"
+
+	"peerpack/internal/dataset"
+	"peerpack/internal/stats"
+)
+
+// Sections of the model, as they appear in the figures file.
+const (
+	SectionDistribution = "distribution"
+	SectionPosition     = "position"
+	SectionTrend        = "trend"
+	SectionCorrelation  = "correlation"
+	SectionGroup        = "group"
+	SectionPopulation   = "population"
+	SectionComposite    = "composite"
+	SectionPeers        = "peers"
+	SectionRecords      = "records"
+	SectionCommentary   = "commentary"
+)
+
+// Key names one figure. It is the figures file's first six columns and is
+// what a sentence of commentary cites.
+type Key struct {
+	Section     string
+	Group       string
+	Indicator   string
+	Institution string
+	Year        int // 0 when the figure has no year
+	Measure     string
+}
+
+// String renders the key as section/group/indicator/institution/year/measure
+// with empty parts kept, for citing in text and tests.
+func (k Key) String() string {
+	y := ""
+	if k.Year != 0 {
+		y = strconv.Itoa(k.Year)
+	}
+	return strings.Join([]string{k.Section, k.Group, k.Indicator, k.Institution, y, k.Measure}, "/")
+}
+
+// Row is one line of the figures file: a number, or a text for commentary
+// and labels.
+type Row struct {
+	Key
+	Value float64
+	Text  string
+	// IsText marks rows whose value is Text.
+	IsText bool
+}
+
+// Model is the figures model for one brief.
+type Model struct {
+	Data *dataset.Dataset
+	// Focus is the register position of the focus institution; FocusID its id.
+	Focus   int
+	FocusID string
+	// Named are register positions of further institutions whose positions
+	// are recorded (the focus first).
+	Named []int
+	Year  int
+	// Span is the trend span [First, Last]; Years lists every year in it
+	// present in the data.
+	First, Last int
+	Years       []int
+	// Method is the quantile definition used.
+	Method stats.QuantileMethod
+
+	// Groups are the resolved comparison groups in brief order ("each"
+	// groups expanded in place).
+	Groups []*Group
+
+	dist  map[distKey]*Distribution
+	pos   map[posKey]*Position
+	trend map[trendKey]*Trend
+	// Correlations between indicator pairs over a group in the brief year.
+	Correlations []Correlation
+	// Extra holds rows from later stages (composite, peers, records,
+	// commentary), appended through Add.
+	extra []Row
+	index map[Key]Row
+}
+
+// Group is a resolved comparison group.
+type Group struct {
+	Name string
+	// Kind says how the group was defined: where, members, nearest or each.
+	Kind string
+	// Members are register positions, ascending.
+	Members []int
+	// FocusIn says whether the focus institution belongs to the group.
+	FocusIn bool
+	// Defined restates the definition in words for the pack ("country is
+	// Kestria"), and Over is "ranked" or "all".
+	Defined string
+	Over    string
+	// Values of Each groups: the attribute value that defines them.
+	EachField, EachValue string
+}
+
+// Distribution describes one group's values of one indicator in one year.
+type Distribution struct {
+	Group     string
+	Indicator string
+	Year      int
+	stats.Box
+	// Mean and SD (sample) of the members with a value.
+	Mean, SD float64
+	// Outliers are register positions of members beyond the whiskers.
+	Outliers []int
+}
+
+// Position is where one institution stands within a group on one
+// indicator in one year. For a group the institution is not in, it is
+// where it would sit among the members, itself not counted in the
+// distribution but placed by its value.
+type Position struct {
+	Group       string
+	Indicator   string
+	Institution int
+	Year        int
+	Value       float64
+	HasValue    bool
+	// Rank in the better direction, ties sharing the best rank, of Of.
+	Rank, Of int
+	// Percentile rank: 100 x (below + half of ties, itself counted among
+	// the ties) / n, "below" meaning worse.
+	Percentile float64
+	// Z is the z-score against the group's mean and sample SD.
+	Z float64
+	// Quartile is 1 for the best quarter .. 4 for the worst.
+	Quartile int
+	// InGroup reports whether the institution is a member.
+	InGroup bool
+	// GapMedian and GapQ3 are the distances from the value to the group's
+	// median and to its better quartile, signed so that a positive gap is
+	// the amount still to gain (0 once reached).
+	GapMedian, GapQ3 float64
+}
+
+// Trend is one institution's movement over the span in a group.
+type Trend struct {
+	Group       string
+	Indicator   string
+	Institution int
+	StartYear   int
+	EndYear     int
+	StartValue  float64
+	EndValue    float64
+	Change      float64
+	ChangePct   float64
+	CAGR        float64
+	Slope       float64
+	// RankChange is positive when the rank improved (moved towards 1).
+	RankChange       int
+	PercentileChange float64
+	// StartOf and EndOf are the group sizes with a value in the first and
+	// last year; when they differ a lot, statements compare percentiles.
+	StartOf, EndOf int
+	// Valid is false when either end lacks a value.
+	Valid bool
+	// MedianChange is the movement of the group's median over the span.
+	MedianChange float64
+}
+
+// Correlation between two indicators over a group's members with both
+// values in a year.
+type Correlation struct {
+	Group      string
+	IndicatorX string
+	IndicatorY string
+	Year       int
+	N          int
+	Pearson    float64
+	Spearman   float64
+}
+
+type distKey struct {
+	group, ind string
+	year       int
+}
+
+type posKey struct {
+	group, ind string
+	inst, year int
+}
+
+type trendKey struct {
+	group, ind string
+	inst       int
+}
+
+// Distribution returns the distribution of a group's indicator in a year.
+func (m *Model) Distribution(group, indicator string, year int) (*Distribution, bool) {
+	d, ok := m.dist[distKey{group, indicator, year}]
+	return d, ok
+}
+
+// Position returns an institution's position in a group.
+func (m *Model) Position(group, indicator string, inst, year int) (*Position, bool) {
+	p, ok := m.pos[posKey{group, indicator, inst, year}]
+	return p, ok
+}
+
+// Trend returns an institution's trend in a group over the span.
+func (m *Model) Trend(group, indicator string, inst int) (*Trend, bool) {
+	t, ok := m.trend[trendKey{group, indicator, inst}]
+	return t, ok
+}
+
+// Group returns the resolved group with the name.
+func (m *Model) Group(name string) (*Group, bool) {
+	for _, g := range m.Groups {
+		if g.Name == name {
+			return g, true
+		}
+	}
+	return nil, false
+}
+
+// Indicator returns a dictionary entry by key.
+func (m *Model) Indicator(key string) (dataset.Indicator, bool) {
+	return m.Data.Dictionary.Lookup(key)
+}
+
+// InstitutionID returns the register id of a register position.
+func (m *Model) InstitutionID(inst int) string {
+	return m.Data.Register.Institutions[inst].ID
+}
+
+// Add appends rows from a later stage (commentary, composite, ...).
+func (m *Model) Add(rows ...Row) {
+	m.extra = append(m.extra, rows...)
+	if m.index != nil {
+		for _, r := range rows {
+			m.index[r.Key] = r
+		}
+	}
+}

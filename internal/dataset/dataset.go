@@ -13,6 +13,8 @@ package dataset
 import (
 	"math"
 	"sort"
+
+	"peerpack/internal/tabular"
 )
 
 // Unit is the kind of quantity an indicator measures; it decides range
@@ -70,8 +72,10 @@ type Indicator struct {
 	// carries a caution.
 	Judgement string `yaml:"judgement,omitempty"`
 
-	// Line is the line of the entry in the dictionary file, for messages.
-	Line int `yaml:"-"`
+	// Line and Column locate the entry in the dictionary file, for
+	// messages.
+	Line   int `yaml:"-"`
+	Column int `yaml:"-"`
 }
 
 // Dictionary is the ordered list of indicators with a key index.
@@ -152,6 +156,9 @@ type Register struct {
 	// AttrNames lists the extra columns in header order.
 	AttrNames []string
 	index     map[string]int
+	// attrCells keeps where each attribute value was written, by attribute
+	// and register position, for messages about numeric attributes.
+	attrCells map[string][]tabular.Cell
 }
 
 // NewRegister builds a register; ids must already be unique.

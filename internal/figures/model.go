@@ -78,11 +78,17 @@ type Model struct {
 	// groups expanded in place).
 	Groups []*Group
 
-	dist  map[distKey]*Distribution
-	pos   map[posKey]*Position
-	trend map[trendKey]*Trend
-	// Correlations between indicator pairs over a group in the brief year.
+	dist   map[distKey]*Distribution
+	pos    map[posKey]*Position
+	trend  map[trendKey]*Trend
+	gtrend map[gtrendKey]*GroupTrend
+	// Correlations between indicator pairs over a group in the brief year,
+	// in group order then dictionary order of the pair (X before Y).
 	Correlations []Correlation
+	corr         map[corrKey]int
+	// yearOrder holds, while computing, each indicator's register
+	// positions sorted by value in the brief year.
+	yearOrder [][]int32
 	// Extra holds rows from later stages (composite, peers, records,
 	// commentary), appended through Add.
 	extra []Row
@@ -104,6 +110,35 @@ type Group struct {
 	Over    string
 	// Values of Each groups: the attribute value that defines them.
 	EachField, EachValue string
+	// Spec is the name of the brief's group definition this group came
+	// from; it differs from Name only for groups expanded from "each".
+	Spec string
+	// Nearest lists, for a "nearest" group, the chosen institutions from
+	// the nearest outwards with their standardised distances.
+	Nearest []Neighbour
+	// Dropped lists institutions named in a members list that the group
+	// left out because they are outside the ranked population.
+	Dropped []Dropped
+
+	member []bool // by register position
+}
+
+// Neighbour is one institution of a nearest-profile group.
+type Neighbour struct {
+	Institution int
+	// Distance is the standardised Euclidean distance to the focus.
+	Distance float64
+}
+
+// Dropped is a listed member left out of a group, with the reason.
+type Dropped struct {
+	Institution int
+	Reason      string
+}
+
+// Has reports whether register position inst is a member.
+func (g *Group) Has(inst int) bool {
+	return inst >= 0 && inst < len(g.member) && g.member[inst]
 }
 
 // Distribution describes one group's values of one indicator in one year.
@@ -167,8 +202,31 @@ type Trend struct {
 	StartOf, EndOf int
 	// Valid is false when either end lacks a value.
 	Valid bool
-	// MedianChange is the movement of the group's median over the span.
+	// MedianChange is the movement of the group's median between the same
+	// two years (StartYear to EndYear), so the two changes compare.
 	MedianChange float64
+	// PreferPercentiles is set when the group's size changed so much
+	// between the two years that a raw rank change would mislead; see
+	// SizeChanged.
+	PreferPercentiles bool
+}
+
+// GroupTrend is the movement of a group's median over the span, for trend
+// lines drawn with the yearly distributions.
+type GroupTrend struct {
+	Group     string
+	Indicator string
+	// StartYear and EndYear are the first and last years of the span in
+	// which the group has at least one value.
+	StartYear, EndYear int
+	MedianStart        float64
+	MedianEnd          float64
+	Change             float64
+	ChangePct          float64
+	// Slope is the least-squares slope of the yearly medians.
+	Slope        float64
+	StartN, EndN int
+	Valid        bool
 }
 
 // Correlation between two indicators over a group's members with both
@@ -196,6 +254,14 @@ type posKey struct {
 type trendKey struct {
 	group, ind string
 	inst       int
+}
+
+type gtrendKey struct {
+	group, ind string
+}
+
+type corrKey struct {
+	group, x, y string
 }
 
 // Distribution returns the distribution of a group's indicator in a year.

@@ -47,47 +47,79 @@ func (q QuantileMethod) String() string {
 
 // Quantile returns the p-quantile (0 <= p <= 1) of sorted ascending data
 // without missing values, by Hyndman and Fan type 7 or type 6. For Hinges,
-// p of 0.25 and 0.75 give the hinges and other p fall back to type 7.
+// p of 0.25, 0.5 and 0.75 give the hinges and the median as fivenum()
+// does, and other p fall back to type 7.
 func Quantile(sorted []float64, p float64, m QuantileMethod) float64 {
-	n := len(sorted)
-	if n == 0 {
+	if len(sorted) == 0 {
 		return math.NaN()
 	}
+	q := planQuantile(len(sorted), p, m)
+	return q.value(sorted[q.lo], sorted[q.hi])
+}
+
+// quantilePlan says which two order statistics (0-based) a quantile
+// interpolates between and how, so the sorted and the selection paths
+// compute bit-identical values.
+type quantilePlan struct {
+	lo, hi int
+	frac   float64
+	// average marks Tukey's hinges, which R's fivenum() forms as
+	// 0.5 * (a + b).
+	average bool
+}
+
+func (q quantilePlan) value(a, b float64) float64 {
+	if q.average {
+		return 0.5 * (a + b)
+	}
+	if q.frac == 0 {
+		return a
+	}
+	return a + q.frac*(b-a)
+}
+
+// planQuantile locates the p-quantile of n > 0 ordered values.
+//
+//	type 7: h = (n-1)p (0-based), between x[floor(h)] and the next;
+//	type 6: h = (n+1)p (1-based), clamped to [1, n];
+//	hinges: n4 = floor((n+3)/2)/2 (1-based), the lower hinge at n4 and the
+//	upper at n+1-n4, averaging neighbours at half positions (fivenum()).
+func planQuantile(n int, p float64, m QuantileMethod) quantilePlan {
 	if n == 1 {
-		return sorted[0]
+		return quantilePlan{}
 	}
 	switch m {
 	case Type6:
 		h := float64(n+1) * p // 1-based
 		if h <= 1 {
-			return sorted[0]
+			return quantilePlan{}
 		}
 		if h >= float64(n) {
-			return sorted[n-1]
+			return quantilePlan{lo: n - 1, hi: n - 1}
 		}
 		lo := math.Floor(h)
-		return sorted[int(lo)-1] + (h-lo)*(sorted[int(lo)]-sorted[int(lo)-1])
+		return quantilePlan{lo: int(lo) - 1, hi: int(lo), frac: h - lo}
 	case Hinges:
+		if p == 0.5 {
+			pos := float64(n+1) / 2
+			return quantilePlan{lo: int(math.Floor(pos)) - 1, hi: int(math.Ceil(pos)) - 1, average: true}
+		}
 		if p == 0.25 || p == 0.75 {
-			// fivenum: n4 = floor((n+3)/2)/2; hinges at positions n4 and
-			// n+1-n4 (1-based), averaging neighbours for half positions.
 			n4 := math.Floor(float64(n+3)/2) / 2
 			pos := n4
 			if p == 0.75 {
 				pos = float64(n+1) - n4
 			}
-			lo := int(math.Floor(pos)) - 1
-			hi := int(math.Ceil(pos)) - 1
-			return 0.5 * (sorted[lo] + sorted[hi])
+			return quantilePlan{lo: int(math.Floor(pos)) - 1, hi: int(math.Ceil(pos)) - 1, average: true}
 		}
 	}
 	h := float64(n-1) * p
 	lo := math.Floor(h)
 	i := int(lo)
 	if i >= n-1 {
-		return sorted[n-1]
+		return quantilePlan{lo: n - 1, hi: n - 1}
 	}
-	return sorted[i] + (h-lo)*(sorted[i+1]-sorted[i])
+	return quantilePlan{lo: i, hi: i + 1, frac: h - lo}
 }
 
 // Box is the five-number summary with Tukey's (1977) whiskers: the most

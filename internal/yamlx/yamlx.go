@@ -145,7 +145,7 @@ func Decode(file string, node *yaml.Node, out any) error {
 	if t.Kind() != reflect.Pointer {
 		return fmt.Errorf("yamlx.Decode needs a pointer, got %s", t)
 	}
-	if err := Check(file, node, t.Elem()); err != nil {
+	if err := check(file, node, t.Elem(), ""); err != nil {
 		return err
 	}
 	if err := node.Decode(out); err != nil {
@@ -162,6 +162,21 @@ var unmarshalerType = reflect.TypeOf((*Unmarshaler)(nil)).Elem()
 
 // Check reports the first unknown key or kind mismatch of node against t.
 func Check(file string, node *yaml.Node, t reflect.Type) error {
+	return check(file, node, t, "")
+}
+
+func join(path, key string) string {
+	if path == "" {
+		return key
+	}
+	return path + "." + key
+}
+
+func check(file string, node *yaml.Node, t reflect.Type, path string) error {
+	what := ""
+	if path != "" {
+		what = path + ": "
+	}
 	for t.Kind() == reflect.Pointer {
 		t = t.Elem()
 	}
@@ -174,7 +189,7 @@ func Check(file string, node *yaml.Node, t reflect.Type) error {
 	switch t.Kind() {
 	case reflect.Struct:
 		if node.Kind != yaml.MappingNode {
-			return at(file, node, "expected a mapping of keys to values, found %s", describe(node))
+			return at(file, node, "%s"+"expected a mapping of keys to values, found %s", what, describe(node))
 		}
 		fields := yamlFields(t)
 		for i := 0; i+1 < len(node.Content); i += 2 {
@@ -187,6 +202,9 @@ func Check(file string, node *yaml.Node, t reflect.Type) error {
 				}
 				sort.Strings(names)
 				msg := fmt.Sprintf("unknown key %q", k.Value)
+				if path != "" {
+					msg += " in " + path
+				}
 				if s := Nearest(k.Value, names); s != "" {
 					msg += fmt.Sprintf("; did you mean %q?", s)
 				} else {
@@ -194,43 +212,43 @@ func Check(file string, node *yaml.Node, t reflect.Type) error {
 				}
 				return at(file, k, "%s", msg)
 			}
-			if err := Check(file, v, ft); err != nil {
+			if err := check(file, v, ft, join(path, k.Value)); err != nil {
 				return err
 			}
 		}
 	case reflect.Slice:
 		if node.Kind != yaml.SequenceNode {
-			return at(file, node, "expected a list, found %s", describe(node))
+			return at(file, node, "%s"+"expected a list, found %s", what, describe(node))
 		}
-		for _, c := range node.Content {
-			if err := Check(file, c, t.Elem()); err != nil {
+		for i, c := range node.Content {
+			if err := check(file, c, t.Elem(), fmt.Sprintf("%s[%d]", path, i+1)); err != nil {
 				return err
 			}
 		}
 	case reflect.Map:
 		if node.Kind != yaml.MappingNode {
-			return at(file, node, "expected a mapping, found %s", describe(node))
+			return at(file, node, "%s"+"expected a mapping, found %s", what, describe(node))
 		}
 		for i := 1; i < len(node.Content); i += 2 {
-			if err := Check(file, node.Content[i], t.Elem()); err != nil {
+			if err := check(file, node.Content[i], t.Elem(), join(path, node.Content[i-1].Value)); err != nil {
 				return err
 			}
 		}
 	case reflect.String:
 		if node.Kind != yaml.ScalarNode {
-			return at(file, node, "expected text, found %s", describe(node))
+			return at(file, node, "%s"+"expected text, found %s", what, describe(node))
 		}
 	case reflect.Int, reflect.Int64, reflect.Int32:
 		if node.Kind != yaml.ScalarNode || node.Tag != "!!int" {
-			return at(file, node, "expected a whole number, found %s", describe(node))
+			return at(file, node, "%s"+"expected a whole number, found %s", what, describe(node))
 		}
 	case reflect.Float64, reflect.Float32:
 		if node.Kind != yaml.ScalarNode || (node.Tag != "!!int" && node.Tag != "!!float") {
-			return at(file, node, "expected a number, found %s", describe(node))
+			return at(file, node, "%s"+"expected a number, found %s", what, describe(node))
 		}
 	case reflect.Bool:
 		if node.Kind != yaml.ScalarNode || node.Tag != "!!bool" {
-			return at(file, node, "expected true or false, found %s", describe(node))
+			return at(file, node, "%s"+"expected true or false, found %s", what, describe(node))
 		}
 	}
 	return nil
@@ -289,7 +307,14 @@ func typeError(file string, node *yaml.Node, err error) error {
 	if errors.As(err, &ye) {
 		return ye
 	}
-	return &Error{File: file, Line: node.Line, Column: node.Column, Msg: err.Error()}
+	msg := err.Error()
+	var line int
+	if n, _ := fmt.Sscanf(msg, "line %d:", &line); n == 1 {
+		if i := strings.Index(msg, ":"); i >= 0 {
+			return &Error{File: file, Line: line, Msg: strings.TrimSpace(msg[i+1:])}
+		}
+	}
+	return &Error{File: file, Line: node.Line, Column: node.Column, Msg: msg}
 }
 
 // Nearest returns the candidate closest to s by edit distance, when it is

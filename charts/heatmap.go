@@ -1,0 +1,263 @@
+package charts
+
+import (
+	"fmt"
+	"image/color"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/figures"
+	"peerpack/internal/format"
+)
+
+// HeatRow is one institution's row of percentile ranks (NaN: no value).
+type HeatRow struct {
+	Label       string
+	Focus       bool
+	Named       bool
+	Percentiles []float64
+}
+
+// HeatmapChart shows institutions x indicators coloured by percentile
+// rank in a group, in five classes of twenty points each.
+type HeatmapChart struct {
+	Columns []string
+	Rows    []HeatRow
+	// Group names the group the percentiles are taken in, for the legend.
+	Group string
+	Note  string
+	Theme Theme
+	built *panels
+}
+
+// heatClasses are a sequential single-hue ramp, light (low percentile) to
+// dark (high), so order survives greyscale print; the colours are
+// ColorBrewer's 5-class "Blues" (Brewer, Harrower and others,
+// colorbrewer2.org; Harrower and Brewer 2003, The Cartographic Journal
+// 40(1)).
+var heatClasses = []color.Color{
+	color.RGBA{0xef, 0xf3, 0xff, 0xff},
+	color.RGBA{0xbd, 0xd7, 0xe7, 0xff},
+	color.RGBA{0x6b, 0xae, 0xd6, 0xff},
+	color.RGBA{0x31, 0x82, 0xbd, 0xff},
+	color.RGBA{0x08, 0x51, 0x9c, 0xff},
+}
+
+// heatClass is the class of a percentile: [0, 20), [20, 40), ..., [80, 100].
+func heatClass(p float64) int {
+	return min(int(p/20), 4)
+}
+
+const (
+	heatRowH    = 14
+	heatHeaderH = 36
+)
+
+// HeatmapPlotter draws the grid in the whole data canvas.
+type HeatmapPlotter struct{ Chart *HeatmapChart }
+
+// Plot implements plot.Plotter.
+func (h *HeatmapPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
+	hc := h.Chart
+	th := hc.Theme
+	w := c.Max.X - c.Min.X
+	nameW := min(w*0.34, vg.Points(170))
+	cols := max(len(hc.Columns), 1)
+	cellW := (w - nameW) / vg.Length(cols)
+	top := c.Max.Y
+	head := th.text(sizeTick, false, PaletteBlack)
+	if cellW < vg.Points(56) {
+		head = th.text(sizeTick-1, false, PaletteBlack)
+	}
+	for j, col := range hc.Columns {
+		x := c.Min.X + nameW + cellW*vg.Length(j) + cellW/2
+		lines := wrapText(col, head, cellW-4, 3)
+		for k, line := range lines {
+			base := top - heatHeaderH + 4 + (textHeight(head)+1)*vg.Length(len(lines)-1-k) + head.FontExtents().Descent
+			fillText(&c, head, x, base, draw.XCenter, line)
+		}
+	}
+	cellText := th.text(sizeTick, false, PaletteBlack)
+	cellTextDark := th.text(sizeTick, false, whiteColor)
+	for i, r := range hc.Rows {
+		y1 := top - heatHeaderH - heatRowH*vg.Length(i)
+		y0 := y1 - heatRowH
+		sty := th.labelStyle()
+		if r.Focus {
+			sty = th.focusLabelStyle()
+		}
+		mk := Marker{}
+		if r.Focus {
+			mk = FocusMarker()
+			mk.Radius = vg.Points(3.4)
+		} else if r.Named {
+			mk = NamedMarker()
+			mk.Radius = vg.Points(2.6)
+		}
+		tx := c.Min.X + 10
+		if mk.Radius > 0 {
+			mk.Draw(&c, vg.Point{X: c.Min.X + 4.5, Y: (y0 + y1) / 2})
+		}
+		base := (y0+y1)/2 - textHeight(sty)/2 + sty.FontExtents().Descent
+		fillText(&c, sty, tx, base, draw.XLeft, fitText(r.Label, sty, nameW-14))
+		for j := range hc.Columns {
+			x0 := c.Min.X + nameW + cellW*vg.Length(j)
+			cell := vg.Rectangle{Min: vg.Point{X: x0 + 0.5, Y: y0 + 0.5}, Max: vg.Point{X: x0 + cellW - 0.5, Y: y1 - 0.5}}
+			p := math.NaN()
+			if j < len(r.Percentiles) {
+				p = r.Percentiles[j]
+			}
+			if math.IsNaN(p) {
+				c.SetLineStyle(draw.LineStyle{Color: greyGrid, Width: vg.Points(0.5)})
+				c.Stroke(cell.Path())
+				fillText(&c, cellText, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(cellText)/2+cellText.FontExtents().Descent, draw.XCenter, "–")
+				continue
+			}
+			k := heatClass(p)
+			c.SetColor(heatClasses[k])
+			c.Fill(cell.Path())
+			ts := cellText
+			if k >= 3 {
+				ts = cellTextDark
+			}
+			fillText(&c, ts, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(ts)/2+ts.FontExtents().Descent, draw.XCenter, format.Number(p, 0))
+		}
+		if r.Focus {
+			// A black frame round the focus row, in any print.
+			row := vg.Rectangle{Min: vg.Point{X: c.Min.X + nameW, Y: y0}, Max: vg.Point{X: c.Max.X, Y: y1}}
+			c.SetLineStyle(draw.LineStyle{Color: PaletteBlack, Width: vg.Points(1.2)})
+			c.Stroke(row.Path())
+		}
+	}
+}
+
+func (hc *HeatmapChart) panels() *panels {
+	if hc.built != nil {
+		return hc.built
+	}
+	th := hc.Theme
+	ps := &panels{legend: &legend{th: th}, count: 1}
+	ps.panelHeight = func(vg.Length) vg.Length { return vg.Points(heatHeaderH + heatRowH*float64(len(hc.Rows)) + 2) }
+	ps.make = func(vg.Length, bool) []*plot.Plot {
+		p := newPlot(th)
+		p.HideAxes()
+		p.Add(&HeatmapPlotter{Chart: hc})
+		return []*plot.Plot{p}
+	}
+	l := ps.legend
+	l.add(legendEntry{Text: "Percentile rank in " + hc.Group + ":", Width: 0.01})
+	for k, col := range heatClasses {
+		lo, hi := 20*k, 20*(k+1)
+		l.add(legendEntry{Text: fmt.Sprintf("%d–%d", lo, hi), Thumb: fillThumb(col, greyGrid)})
+	}
+	l.add(legendEntry{Text: "– no value", Width: 0.01})
+	l.note = hc.Note
+	hc.built = ps
+	return ps
+}
+
+// Height implements Chart.
+func (hc *HeatmapChart) Height(w vg.Length) vg.Length { return hc.panels().Height(w) }
+
+// Draw implements Chart.
+func (hc *HeatmapChart) Draw(c draw.Canvas) error { return hc.panels().Draw(c) }
+
+// defaultHeatRows is the number of rows when a block sets no limit.
+const defaultHeatRows = 20
+
+// newHeatmap plans a heatmap of the first chart group's members over the
+// block's indicators.
+func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
+	inds, err := chartIndicators(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	groups, err := chartGroups(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	marks, err := labelled(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	g := groups[0]
+	year := chartYear(m, spec)
+	places := make([][]memberPlace, len(inds))
+	for k, ind := range inds {
+		places[k] = memberPlaces(m, g, ind, year)
+	}
+	limit := spec.Limit
+	if limit <= 0 {
+		limit = defaultHeatRows
+	}
+	// Rows: the focus and named institutions first kept, then the best on
+	// the first indicator, up to the limit, shown in first-indicator order.
+	keep := map[int]bool{m.Focus: true}
+	for _, i := range marks {
+		keep[i] = true
+	}
+	var order []int
+	for _, p := range places[0] {
+		order = append(order, p.Inst)
+	}
+	// Members without a value on the first indicator go last.
+	inOrder := map[int]bool{}
+	for _, i := range order {
+		inOrder[i] = true
+	}
+	for _, i := range g.Members {
+		if !inOrder[i] {
+			order = append(order, i)
+		}
+	}
+	if !g.Has(m.Focus) {
+		order = append(order, m.Focus)
+	}
+	chosen := map[int]bool{}
+	n := 0
+	for i := range keep {
+		if g.Has(i) || i == m.Focus {
+			chosen[i] = true
+			n++
+		}
+	}
+	for _, i := range order {
+		if n >= limit {
+			break
+		}
+		if !chosen[i] {
+			chosen[i] = true
+			n++
+		}
+	}
+	hc := &HeatmapChart{Group: g.Name, Theme: th}
+	for _, ind := range inds {
+		hc.Columns = append(hc.Columns, shortName(ind))
+	}
+	for _, inst := range order {
+		if !chosen[inst] {
+			continue
+		}
+		r := HeatRow{Label: institution(m, inst).Name, Focus: inst == m.Focus, Named: keep[inst] && inst != m.Focus}
+		if sn, ok := institution(m, inst).Attr(shortNameAttr); ok && sn != "" && len([]rune(r.Label)) > 34 {
+			r.Label = sn
+		}
+		for k, ind := range inds {
+			p := percentileOf(places[k], inst)
+			if inst == m.Focus && !g.Has(inst) {
+				if pos, ok := m.Position(g.Name, ind.Key, inst, year); ok && pos.HasValue {
+					p = pos.Percentile
+				}
+			}
+			r.Percentiles = append(r.Percentiles, p)
+		}
+		hc.Rows = append(hc.Rows, r)
+	}
+	members := len(g.Members)
+	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown. Percentiles run in each indicator's better direction (higher is better).", shortName(inds[0]), len(hc.Rows), members)
+	return hc, nil
+}

@@ -1,0 +1,246 @@
+package charts
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
+	"peerpack/internal/format"
+	"peerpack/internal/stats"
+)
+
+// ScatterGroup is one group's points; an institution in several groups is
+// drawn once, in the first group listed.
+type ScatterGroup struct {
+	Label string
+	X, Y  []float64
+}
+
+// ScatterMark is a named point.
+type ScatterMark struct {
+	Label string
+	X, Y  float64
+}
+
+// ScatterChart plots two indicators against each other.
+type ScatterChart struct {
+	XInd, YInd dataset.Indicator
+	Groups     []ScatterGroup
+	Focus      ScatterMark
+	HasFocus   bool
+	Marks      []ScatterMark
+	// Fit is the least-squares line over every plotted point, nil for
+	// none.
+	Fit   *stats.LineFit
+	Theme Theme
+	built *panels
+}
+
+// ScatterPlotter draws a ScatterChart's points, fit line and labels.
+type ScatterPlotter struct {
+	Chart   *ScatterChart
+	Dropped int
+}
+
+// DataRange implements plot.DataRanger.
+func (s *ScatterPlotter) DataRange() (xmin, xmax, ymin, ymax float64) {
+	xlo, xhi, ylo, yhi := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
+	see := func(x, y float64) {
+		if math.IsNaN(x) || math.IsNaN(y) {
+			return
+		}
+		xlo, xhi, ylo, yhi = math.Min(xlo, x), math.Max(xhi, x), math.Min(ylo, y), math.Max(yhi, y)
+	}
+	for _, g := range s.Chart.Groups {
+		for i := range g.X {
+			see(g.X[i], g.Y[i])
+		}
+	}
+	if s.Chart.HasFocus {
+		see(s.Chart.Focus.X, s.Chart.Focus.Y)
+	}
+	for _, m := range s.Chart.Marks {
+		see(m.X, m.Y)
+	}
+	if math.IsInf(xlo, 0) {
+		return 0, 1, 0, 1
+	}
+	px, py := padOf(xlo, xhi), padOf(ylo, yhi)
+	return xlo - px, xhi + px, ylo - py, yhi + py
+}
+
+func padOf(lo, hi float64) float64 {
+	if hi > lo {
+		return (hi - lo) * 0.05
+	}
+	return math.Max(math.Abs(lo)*0.1, 1)
+}
+
+// Plot implements plot.Plotter.
+func (s *ScatterPlotter) Plot(c draw.Canvas, p *plot.Plot) {
+	trX, trY := p.Transforms(&c)
+	sc := s.Chart
+	th := sc.Theme
+	var obstacles []vg.Rectangle
+	var lines [][]vg.Point
+	if sc.Fit != nil {
+		// Clip the line to the data range of the plot.
+		x0, x1 := p.X.Min, p.X.Max
+		a := vg.Point{X: trX(x0), Y: trY(sc.Fit.At(x0))}
+		b := vg.Point{X: trX(x1), Y: trY(sc.Fit.At(x1))}
+		ls := draw.LineStyle{Color: greyText, Width: vg.Points(1), Dashes: []vg.Length{vg.Points(4), vg.Points(2)}}
+		for _, seg := range c.ClipLinesXY([]vg.Point{a, b}) {
+			c.StrokeLines(ls, seg)
+			lines = append(lines, seg)
+		}
+	}
+	radius := vg.Points(2.3)
+	for gi, g := range sc.Groups {
+		mk := seriesMarker(GroupSeries(gi), radius)
+		mk.Fill = tint(mk.Fill, 170)
+		for i := range g.X {
+			if math.IsNaN(g.X[i]) || math.IsNaN(g.Y[i]) {
+				continue
+			}
+			pt := vg.Point{X: trX(g.X[i]), Y: trY(g.Y[i])}
+			if c.Contains(pt) {
+				mk.Draw(&c, pt)
+			}
+		}
+	}
+	var labels []labelRequest
+	named := NamedMarker()
+	for _, m := range sc.Marks {
+		pt := vg.Point{X: trX(m.X), Y: trY(m.Y)}
+		named.Draw(&c, pt)
+		obstacles = append(obstacles, named.Rect(pt))
+		labels = append(labels, labelRequest{Anchor: pt, Text: m.Label, Style: th.labelStyle(), Gap: named.Radius, Priority: 1})
+	}
+	if sc.HasFocus {
+		focus := FocusMarker()
+		pt := vg.Point{X: trX(sc.Focus.X), Y: trY(sc.Focus.Y)}
+		focus.Draw(&c, pt)
+		obstacles = append(obstacles, focus.Rect(pt))
+		labels = append(labels, labelRequest{Anchor: pt, Text: sc.Focus.Label, Style: th.focusLabelStyle(), Gap: focus.Radius, Priority: 0})
+	}
+	placed, dropped := placeLabels(labels, vg.Rectangle{Min: c.Min, Max: c.Max}, obstacles, lines...)
+	s.Dropped = dropped
+	// A white halo behind each label keeps it legible over dense points.
+	for _, l := range placed {
+		c.SetColor(tint(whiteColor, 215))
+		c.Fill(l.Rect.Path())
+	}
+	drawLabels(&c, placed)
+}
+
+func (sc *ScatterChart) panels() *panels {
+	if sc.built != nil {
+		return sc.built
+	}
+	th := sc.Theme
+	ps := &panels{legend: &legend{th: th}, count: 1}
+	ps.panelHeight = func(w vg.Length) vg.Length { return max(min(w*0.62, vg.Points(340)), vg.Points(170)) }
+	ps.make = func(w vg.Length, _ bool) []*plot.Plot {
+		p := newPlot(th)
+		p.Add(grid(true, true), &ScatterPlotter{Chart: sc})
+		p.X.Label.Text = fitAxisTitle(sc.XInd, th, w-40)
+		p.Y.Label.Text = fitAxisTitle(sc.YInd, th, ps.panelHeight(w)-40)
+		return []*plot.Plot{p}
+	}
+	l := ps.legend
+	if sc.HasFocus {
+		l.add(legendEntry{Text: sc.Focus.Label, Bold: true, Thumb: markerThumb(FocusMarker())})
+	}
+	if len(sc.Marks) > 0 {
+		l.add(legendEntry{Text: "Named institution", Thumb: markerThumb(NamedMarker())})
+	}
+	for gi, g := range sc.Groups {
+		mk := seriesMarker(GroupSeries(gi), vg.Points(2.6))
+		mk.Fill = tint(mk.Fill, 170)
+		l.add(legendEntry{Text: fmt.Sprintf("%s (n = %d)", g.Label, countPairs(g)), Thumb: markerThumb(mk)})
+	}
+	if sc.Fit != nil {
+		ls := draw.LineStyle{Color: greyText, Width: vg.Points(1), Dashes: []vg.Length{vg.Points(4), vg.Points(2)}}
+		l.add(legendEntry{Text: fmt.Sprintf("Least-squares line over all points (R² = %s)", format.Number(sc.Fit.R2, 2)), Width: 20, Thumb: lineThumb(ls, nil)})
+		l.note = "The line describes association in these groups, not cause; each point is one institution."
+	}
+	sc.built = ps
+	return ps
+}
+
+func countPairs(g ScatterGroup) int {
+	n := 0
+	for i := range g.X {
+		if !math.IsNaN(g.X[i]) && !math.IsNaN(g.Y[i]) {
+			n++
+		}
+	}
+	return n
+}
+
+// Height implements Chart.
+func (sc *ScatterChart) Height(w vg.Length) vg.Length { return sc.panels().Height(w) }
+
+// Draw implements Chart.
+func (sc *ScatterChart) Draw(c draw.Canvas) error { return sc.panels().Draw(c) }
+
+// newScatter plans a scatter of the block's two indicators over its
+// groups' members in the chart year.
+func newScatter(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
+	inds, err := chartIndicators(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	if len(inds) != 2 {
+		return nil, specError(spec, "a scatter takes exactly two indicators, x then y; found %d", len(inds))
+	}
+	groups, err := chartGroups(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	marks, err := labelled(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	year := chartYear(m, spec)
+	sc := &ScatterChart{XInd: inds[0], YInd: inds[1], Theme: th}
+	seen := map[int]bool{}
+	var allX, allY []float64
+	for _, g := range groups {
+		sg := ScatterGroup{Label: g.Name}
+		for _, pr := range m.MemberPairs(g.Name, sc.XInd.Key, sc.YInd.Key, year) {
+			if seen[pr.Institution] {
+				continue
+			}
+			seen[pr.Institution] = true
+			sg.X, sg.Y = append(sg.X, pr.X), append(sg.Y, pr.Y)
+		}
+		allX, allY = append(allX, sg.X...), append(allY, sg.Y...)
+		sc.Groups = append(sc.Groups, sg)
+	}
+	fx, okx := valueOf(m, sc.XInd, m.Focus, year)
+	fy, oky := valueOf(m, sc.YInd, m.Focus, year)
+	if okx && oky {
+		sc.HasFocus = true
+		sc.Focus = ScatterMark{Label: fitName(institution(m, m.Focus), th.focusLabelStyle(), markNameWidth), X: fx, Y: fy}
+	}
+	for _, inst := range marks {
+		x, okx := valueOf(m, sc.XInd, inst, year)
+		y, oky := valueOf(m, sc.YInd, inst, year)
+		if okx && oky {
+			sc.Marks = append(sc.Marks, ScatterMark{Label: fitName(institution(m, inst), th.labelStyle(), markNameWidth), X: x, Y: y})
+		}
+	}
+	if spec.Fit {
+		if f, ok := stats.FitLine(allX, allY); ok {
+			sc.Fit = &f
+		}
+	}
+	return sc, nil
+}

@@ -1,0 +1,335 @@
+package charts
+
+import (
+	"image/color"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
+)
+
+// TrendBand is one group's median and interquartile range per year, NaN
+// where the group has no values that year.
+type TrendBand struct {
+	Label          string
+	Median, Q1, Q3 []float64
+}
+
+// TrendLine is one institution's values per year, NaN where missing.
+type TrendLine struct {
+	Label  string
+	Values []float64
+}
+
+// TrendPanel is one indicator of a trend chart over Years.
+type TrendPanel struct {
+	Indicator dataset.Indicator
+	Years     []int
+	Bands     []TrendBand
+	Focus     TrendLine
+	Marks     []TrendLine
+}
+
+// TrendPlotter draws a TrendPanel: each group's interquartile band and
+// median line, named institutions in grey, the focus on top.
+type TrendPlotter struct {
+	Panel TrendPanel
+	Theme Theme
+	// Dropped counts labels left out for lack of room, after Plot.
+	Dropped int
+}
+
+// DataRange implements plot.DataRanger, leaving room right of the last
+// year for end labels.
+func (t *TrendPlotter) DataRange() (xmin, xmax, ymin, ymax float64) {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	see := func(vs []float64) {
+		for _, v := range vs {
+			if !math.IsNaN(v) && !math.IsInf(v, 0) {
+				lo, hi = math.Min(lo, v), math.Max(hi, v)
+			}
+		}
+	}
+	for _, b := range t.Panel.Bands {
+		see(b.Q1)
+		see(b.Q3)
+		see(b.Median)
+	}
+	see(t.Panel.Focus.Values)
+	for _, m := range t.Panel.Marks {
+		see(m.Values)
+	}
+	if math.IsInf(lo, 0) {
+		lo, hi = 0, 1
+	}
+	pad := (hi - lo) * 0.06
+	if pad == 0 {
+		pad = math.Max(math.Abs(lo)*0.1, 1)
+	}
+	ys := t.Panel.Years
+	if len(ys) == 0 {
+		return 0, 1, lo - pad, hi + pad
+	}
+	first, last := float64(ys[0]), float64(ys[len(ys)-1])
+	span := math.Max(last-first, 1)
+	return first - span*0.03, last + span*0.22, lo - pad, hi + pad
+}
+
+// segments splits a yearly series at missing values, so a gap in the data
+// shows as a gap in the line rather than a straight bridge.
+func segments(years []int, vals []float64, trX, trY func(float64) vg.Length) [][]vg.Point {
+	var out [][]vg.Point
+	var cur []vg.Point
+	for i, y := range years {
+		if i >= len(vals) || math.IsNaN(vals[i]) {
+			if len(cur) > 0 {
+				out = append(out, cur)
+				cur = nil
+			}
+			continue
+		}
+		cur = append(cur, vg.Point{X: trX(float64(y)), Y: trY(vals[i])})
+	}
+	if len(cur) > 0 {
+		out = append(out, cur)
+	}
+	return out
+}
+
+func lastValue(years []int, vals []float64) (int, float64, bool) {
+	for i := min(len(years), len(vals)) - 1; i >= 0; i-- {
+		if !math.IsNaN(vals[i]) {
+			return years[i], vals[i], true
+		}
+	}
+	return 0, math.NaN(), false
+}
+
+// tint is c at the given opacity, for bands that must not hide each other.
+func tint(c color.Color, alpha uint8) color.Color {
+	r, g, b, _ := c.RGBA()
+	a := float64(alpha) / 255
+	return color.NRGBA{R: uint8(r >> 8), G: uint8(g >> 8), B: uint8(b >> 8), A: uint8(a * 255)}
+}
+
+// Plot implements plot.Plotter.
+func (t *TrendPlotter) Plot(c draw.Canvas, p *plot.Plot) {
+	trX, trY := p.Transforms(&c)
+	pn := t.Panel
+	var labels []labelRequest
+	var obstacles []vg.Rectangle
+	var lines [][]vg.Point
+	// Bands first, so every line stays visible above them.
+	for gi, b := range pn.Bands {
+		s := GroupSeries(gi)
+		for _, seg := range bandSegments(pn.Years, b.Q1, b.Q3, trX, trY) {
+			c.FillPolygon(tint(s.Colour, 46), seg)
+		}
+	}
+	for gi, b := range pn.Bands {
+		s := GroupSeries(gi)
+		ls := draw.LineStyle{Color: s.Colour, Width: vg.Points(1.3), Dashes: s.Dashes}
+		mk := seriesMarker(s, vg.Points(2.4))
+		for _, seg := range segments(pn.Years, b.Median, trX, trY) {
+			c.StrokeLines(ls, seg)
+			lines = append(lines, seg)
+			for _, pt := range seg {
+				mk.Draw(&c, pt)
+				obstacles = append(obstacles, mk.Rect(pt))
+			}
+		}
+	}
+	named := NamedMarker()
+	named.Radius = vg.Points(2.4)
+	for _, m := range pn.Marks {
+		ls := draw.LineStyle{Color: greyMark, Width: vg.Points(0.9)}
+		for _, seg := range segments(pn.Years, m.Values, trX, trY) {
+			c.StrokeLines(ls, seg)
+			lines = append(lines, seg)
+			for _, pt := range seg {
+				named.Draw(&c, pt)
+				obstacles = append(obstacles, named.Rect(pt))
+			}
+		}
+		if y, v, ok := lastValue(pn.Years, m.Values); ok && m.Label != "" {
+			labels = append(labels, labelRequest{Anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, Text: m.Label, Style: t.Theme.labelStyle(), Gap: named.Radius, Priority: 2, Prefer: []int{dirRight}})
+		}
+	}
+	focus := FocusMarker()
+	focus.Radius = vg.Points(3.6)
+	fl := draw.LineStyle{Color: FocusColour, Width: vg.Points(2)}
+	for _, seg := range segments(pn.Years, pn.Focus.Values, trX, trY) {
+		c.StrokeLines(fl, seg)
+		lines = append(lines, seg)
+		for _, pt := range seg {
+			focus.Draw(&c, pt)
+			obstacles = append(obstacles, focus.Rect(pt))
+		}
+	}
+	if y, v, ok := lastValue(pn.Years, pn.Focus.Values); ok {
+		labels = append(labels, labelRequest{Anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, Text: valueText(pn.Indicator, v), Style: t.Theme.focusLabelStyle(), Gap: focus.Radius, Priority: 0, Prefer: []int{dirRight}})
+	}
+	// Group medians' latest values, so the gap to the focus can be read.
+	for _, b := range pn.Bands {
+		if y, v, ok := lastValue(pn.Years, b.Median); ok {
+			labels = append(labels, labelRequest{Anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, Text: valueText(pn.Indicator, v), Style: t.Theme.labelStyle(), Gap: vg.Points(2.4), Priority: 1, Prefer: []int{dirRight}})
+		}
+	}
+	placed, dropped := placeLabels(labels, vg.Rectangle{Min: c.Min, Max: c.Max}, obstacles, lines...)
+	t.Dropped = dropped
+	drawLabels(&c, placed)
+}
+
+// bandSegments returns the polygons of an interquartile band, split where
+// a year lacks a quartile.
+func bandSegments(years []int, q1, q3 []float64, trX, trY func(float64) vg.Length) [][]vg.Point {
+	var out [][]vg.Point
+	var lo, hi []vg.Point
+	flush := func() {
+		if len(lo) > 1 {
+			poly := append([]vg.Point(nil), lo...)
+			for i := len(hi) - 1; i >= 0; i-- {
+				poly = append(poly, hi[i])
+			}
+			out = append(out, poly)
+		}
+		lo, hi = nil, nil
+	}
+	for i, y := range years {
+		if i >= len(q1) || i >= len(q3) || math.IsNaN(q1[i]) || math.IsNaN(q3[i]) {
+			flush()
+			continue
+		}
+		x := trX(float64(y))
+		lo = append(lo, vg.Point{X: x, Y: trY(q1[i])})
+		hi = append(hi, vg.Point{X: x, Y: trY(q3[i])})
+	}
+	flush()
+	return out
+}
+
+// TrendChart is a trend chart from precomputed panels, one per indicator.
+type TrendChart struct {
+	Panels    []TrendPanel
+	FocusName string
+	Theme     Theme
+	built     *panels
+}
+
+func (tc *TrendChart) panels() *panels {
+	if tc.built != nil {
+		return tc.built
+	}
+	th := tc.Theme
+	ps := &panels{legend: &legend{th: th}, count: len(tc.Panels), minPanel: vg.Points(170)}
+	ps.make = func(w vg.Length, stacked bool) []*plot.Plot {
+		out := make([]*plot.Plot, len(tc.Panels))
+		for k, pn := range tc.Panels {
+			p := newPlot(th)
+			p.Add(grid(false, true), &TrendPlotter{Panel: pn, Theme: th})
+			p.X.Tick.Marker = yearTicks{years: pn.Years}
+			p.Y.Label.Text = fitAxisTitle(pn.Indicator, th, ps.panelHeight(w)-30)
+			out[k] = p
+		}
+		return out
+	}
+	ps.panelHeight = func(w vg.Length) vg.Length {
+		if tc.stackedAt(ps, w) {
+			return max(min(w*0.5, vg.Points(260)), vg.Points(150))
+		}
+		return max(min(w/vg.Length(max(len(tc.Panels), 1))*0.75, vg.Points(260)), vg.Points(150))
+	}
+	l := ps.legend
+	focus := FocusMarker()
+	focus.Radius = vg.Points(3.6)
+	l.add(legendEntry{Text: tc.FocusName, Bold: true, Width: 20, Thumb: lineThumb(draw.LineStyle{Color: FocusColour, Width: vg.Points(2)}, &focus)})
+	if len(tc.Panels) > 0 {
+		for gi, b := range tc.Panels[0].Bands {
+			s := GroupSeries(gi)
+			mk := seriesMarker(s, vg.Points(2.4))
+			line := lineThumb(draw.LineStyle{Color: s.Colour, Width: vg.Points(1.3), Dashes: s.Dashes}, &mk)
+			band := fillThumb(tint(s.Colour, 46), nil)
+			l.add(legendEntry{Text: b.Label + ": median and middle half", Width: 20, Thumb: func(c *draw.Canvas, r vg.Rectangle) { band(c, r); line(c, r) }})
+		}
+		if len(tc.Panels[0].Marks) > 0 {
+			nm := NamedMarker()
+			nm.Radius = vg.Points(2.4)
+			l.add(legendEntry{Text: "Named institution", Width: 20, Thumb: lineThumb(draw.LineStyle{Color: greyMark, Width: vg.Points(0.9)}, &nm)})
+		}
+	}
+	tc.built = ps
+	return ps
+}
+
+// stackedAt avoids recursion between panelHeight and stacked.
+func (tc *TrendChart) stackedAt(ps *panels, w vg.Length) bool { return ps.stacked(w) }
+
+// Height implements Chart.
+func (tc *TrendChart) Height(w vg.Length) vg.Length { return tc.panels().Height(w) }
+
+// Draw implements Chart.
+func (tc *TrendChart) Draw(c draw.Canvas) error { return tc.panels().Draw(c) }
+
+// newTrend plans a trend chart from the model over the brief's span.
+func newTrend(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
+	inds, err := chartIndicators(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	groups, err := chartGroups(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	marks, err := labelled(m, spec)
+	if err != nil {
+		return nil, err
+	}
+	if len(m.Years) < 2 {
+		return nil, specError(spec, "a trend needs at least two years of data in the span [%d, %d]; widen years in the front matter", m.First, m.Last)
+	}
+	tc := &TrendChart{FocusName: institution(m, m.Focus).Name, Theme: th}
+	for _, ind := range inds {
+		pn := TrendPanel{Indicator: ind, Years: m.Years}
+		pn.Focus = trendLine(m, ind, m.Focus, groups[0].Name, "")
+		for _, inst := range marks {
+			pn.Marks = append(pn.Marks, trendLine(m, ind, inst, groups[0].Name, fitName(institution(m, inst), th.labelStyle(), markNameWidth)))
+		}
+		for _, g := range groups {
+			b := TrendBand{Label: g.Name}
+			for _, y := range m.Years {
+				d, ok := m.Distribution(g.Name, ind.Key, y)
+				if !ok || d.N == 0 {
+					b.Median, b.Q1, b.Q3 = append(b.Median, math.NaN()), append(b.Q1, math.NaN()), append(b.Q3, math.NaN())
+					continue
+				}
+				b.Median, b.Q1, b.Q3 = append(b.Median, d.Median), append(b.Q1, d.Q1), append(b.Q3, d.Q3)
+			}
+			pn.Bands = append(pn.Bands, b)
+		}
+		tc.Panels = append(tc.Panels, pn)
+	}
+	return tc, nil
+}
+
+// trendLine reads an institution's yearly values: its recorded position
+// where the model has one, else the dataset's observation.
+func trendLine(m *figures.Model, ind dataset.Indicator, inst int, group, label string) TrendLine {
+	l := TrendLine{Label: label}
+	for _, y := range m.Years {
+		v := math.NaN()
+		if p, ok := m.Position(group, ind.Key, inst, y); ok {
+			if p.HasValue {
+				v = p.Value
+			}
+		} else if x, ok := valueOf(m, ind, inst, y); ok {
+			v = x
+		}
+		l.Values = append(l.Values, v)
+	}
+	return l
+}

@@ -1,0 +1,93 @@
+package main
+
+import (
+	"context"
+	"fmt"
+	"os"
+	"path/filepath"
+
+	"peerpack/internal/batch"
+	"peerpack/internal/build"
+	"peerpack/internal/demo"
+)
+
+func init() {
+	commands = append(commands, &command{name: "batch", summary: "build one pack per row of a plan or per member of a group", run: runBatch, usage: `Usage:
+  peerpack batch BRIEF.md --plan plan.csv --out DIR [--jobs N]
+  peerpack batch BRIEF.md --group "Home sector" --out DIR [--jobs N]
+  peerpack batch --demo --group "Home sector" --out DIR
+
+Reads the brief and its data once, then builds one pack per plan row (CSV
+columns focus,output and optionally title,subtitle,audience,accent) or per
+member of a group of the brief, in parallel over the cores. A failing pack
+never stops the others; the summary names each failure and the exit code
+is 1 when any pack failed.
+
+Examples:
+  peerpack batch brief.md --plan clients.csv --out packs
+  peerpack batch --demo --group "Home sector" --out packs`})
+}
+
+func runBatch(ctx context.Context, e *env, args []string) int {
+	c := findCommand("batch")
+	fs := newFlags(c, e)
+	plan := fs.String("plan", "", "CSV with one row per pack: focus,output[,title,subtitle,audience,accent]")
+	group := fs.String("group", "", "build one pack per member of this group of the brief")
+	out := fs.String("out", "", "folder to write the packs into (required)")
+	jobs := fs.Int("jobs", 0, "packs built at once (default: one per core)")
+	useDemo := fs.Bool("demo", false, "use the embedded demo brief and data")
+	root := fs.String("root", "", "folder that every input path must stay inside (default: the brief's folder)")
+	pos, code, ok := parseArgs(c, e, fs, args)
+	if !ok {
+		return code
+	}
+	if *out == "" || (*plan == "") == (*group == "") || (len(pos) == 1) == *useDemo || len(pos) > 1 {
+		e.errorf("batch needs a brief (or --demo), exactly one of --plan or --group, and --out DIR\n")
+		fmt.Fprintf(e.stderr, "Example: peerpack batch brief.md --plan plan.csv --out packs\n")
+		return exitUsage
+	}
+	var src build.Source
+	if *useDemo {
+		src = build.Source{FS: demo.FS(), Brief: demo.BriefName, Display: "demo/" + demo.BriefName}
+	} else {
+		s, err := build.OpenSource(pos[0], *root)
+		if err != nil {
+			return reportError(e, err)
+		}
+		src = s
+	}
+	created, err := build.CreatedTime()
+	if err != nil {
+		e.errorf("%v\n", err)
+		return exitUsage
+	}
+	base, err := build.Load(src, nil)
+	if err != nil {
+		return reportError(e, err)
+	}
+	var list []batch.Job
+	if *plan != "" {
+		dir, name := filepath.Split(*plan)
+		if dir == "" {
+			dir = "."
+		}
+		list, err = batch.ReadPlan(os.DirFS(dir), name, *plan)
+	} else {
+		list, err = batch.GroupJobs(base, *group)
+	}
+	if err != nil {
+		return reportError(e, err)
+	}
+	if err := os.MkdirAll(*out, 0o755); err != nil {
+		return reportError(e, err)
+	}
+	var prog batch.Progress
+	if !e.quiet {
+		prog = batch.NewProgress(e.stderr)
+	}
+	outs := batch.Run(ctx, base, list, batch.Options{OutDir: *out, Workers: *jobs, Created: created, Version: version, Progress: prog})
+	if failed := batch.WriteSummary(e.stdout, outs); failed > 0 {
+		return exitInput
+	}
+	return exitOK
+}

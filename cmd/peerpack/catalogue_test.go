@@ -1,0 +1,50 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// TestMalformedCatalogue runs `peerpack check brief.md` in every case
+// folder under testdata/bad/ and compares the first line of stderr with
+// expect.txt (first line: the exact message; optional second line
+// "exit N", default 1).
+func TestMalformedCatalogue(t *testing.T) {
+	cases, _ := filepath.Glob("../../testdata/bad/*/*")
+	if len(cases) < 40 {
+		t.Errorf("the catalogue has %d cases; keep at least 40", len(cases))
+	}
+	wd, _ := os.Getwd()
+	for _, dir := range cases {
+		dir := dir
+		t.Run(filepath.Base(filepath.Dir(dir))+"/"+filepath.Base(dir), func(t *testing.T) {
+			raw, err := os.ReadFile(filepath.Join(dir, "expect.txt"))
+			if err != nil {
+				t.Fatalf("case without expect.txt: %v", err)
+			}
+			lines := strings.Split(strings.TrimRight(string(raw), "\n"), "\n")
+			want, wantCode := lines[0], 1
+			if len(lines) > 1 && strings.HasPrefix(lines[1], "exit ") {
+				wantCode, _ = strconv.Atoi(strings.TrimPrefix(lines[1], "exit "))
+			}
+			if err := os.Chdir(dir); err != nil {
+				t.Fatal(err)
+			}
+			defer os.Chdir(wd)
+			var stdout, stderr bytes.Buffer
+			code := run(context.Background(), &env{stdout: &stdout, stderr: &stderr}, []string{"check", "brief.md"})
+			got := strings.SplitN(stderr.String(), "\n", 2)[0]
+			if got != want {
+				t.Errorf("first line of the error\n got: %s\nwant: %s", got, want)
+			}
+			if code != wantCode {
+				t.Errorf("exit code %d, want %d", code, wantCode)
+			}
+		})
+	}
+}

@@ -1,0 +1,243 @@
+package main
+
+import (
+	"context"
+	"fmt"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"peerpack/internal/build"
+	"peerpack/internal/demo"
+	"peerpack/templates"
+)
+
+func init() {
+	commands = []*command{
+		{name: "build", summary: "build a pack from a brief", run: runBuild, usage: `Usage:
+  peerpack build BRIEF.md -o pack.pdf [--figures figures.csv] [--root DIR]
+
+Reads the brief and the data files it names (paths relative to the brief),
+computes the figures, writes the commentary and lays out the PDF. The PDF is
+written to a temporary file and renamed, so a failed build never replaces
+the last good pack. With SOURCE_DATE_EPOCH set, two builds are
+byte-identical.
+
+Examples:
+  peerpack build briefs/board-2025.md -o board-2025.pdf
+  peerpack build client/brief.md -o client.pdf --figures client-figures.csv
+  peerpack build brief.md -o pack.pdf --watch
+  SOURCE_DATE_EPOCH=1764547200 peerpack build brief.md -o pack.pdf`},
+		{name: "check", summary: "validate a brief and its data, and summarise coverage", run: runCheck, usage: `Usage:
+  peerpack check BRIEF.md [--root DIR]
+
+Checks the brief (front matter and every block) and loads everything it
+names, then prints institutions, years, indicators, coverage per indicator,
+year and group, and anything suspicious. Lists every problem, not just the
+first. Exit 0 when the brief would build, 1 when it would not.
+
+Examples:
+  peerpack check brief.md
+  peerpack check --root ../shared briefs/brief.md`},
+		{name: "demo", summary: "build the demo pack from the embedded demo scenario", run: runDemo, usage: `Usage:
+  peerpack demo [-o demo.pdf] [--figures figures.csv]
+  peerpack demo --write DIR
+
+Builds the full demo pack from an invented higher-education scenario
+shipped in the binary (generated from a fixed seed), or writes the
+scenario's files to DIR as a starting point.
+
+Examples:
+  peerpack demo -o demo.pdf
+  peerpack demo --write my-pack && peerpack build my-pack/brief.md -o my.pdf`},
+		{name: "new", summary: "start a brief from a template", run: runNew, usage: `Usage:
+  peerpack new --template NAME DIR
+
+Writes the template's brief and the demo data into DIR (which must not hold
+those files already), so that 'peerpack build DIR/brief.md' works at once.
+Then replace the data and edit the brief; 'peerpack check' explains what to
+replace.
+
+Examples:
+  peerpack new --template governing-body board
+  peerpack new --template country-competition intl-office`},
+		{name: "version", summary: "print the version", run: runVersion, usage: "Usage:\n  peerpack version"},
+		{name: "help", summary: "show help for a command", run: runHelp, usage: "Usage:\n  peerpack help [COMMAND]"},
+	}
+}
+
+func runBuild(ctx context.Context, e *env, args []string) int {
+	c := findCommand("build")
+	fs := newFlags(c, e)
+	out := fs.String("o", "", "the PDF to write (required)")
+	figs := fs.String("figures", "", "also write the figures file (CSV) here")
+	wb := fs.String("workbook", "", "also write the figures as an XLSX workbook here, one sheet per section")
+	root := fs.String("root", "", "folder that every input path must stay inside (default: the brief's folder)")
+	watchFlag := fs.Bool("watch", false, "after building, rebuild whenever the brief or its data change")
+	pos, code, ok := parseArgs(c, e, fs, args)
+	if !ok {
+		return code
+	}
+	if len(pos) != 1 || *out == "" {
+		e.errorf("build needs one brief and -o OUTPUT.pdf\n")
+		fmt.Fprintf(e.stderr, "Example: peerpack build brief.md -o pack.pdf\n")
+		return exitUsage
+	}
+	src, err := build.OpenSource(pos[0], *root)
+	if err != nil {
+		return reportError(e, err)
+	}
+	code = doBuild(ctx, e, src, *out, *figs, *wb)
+	if *watchFlag {
+		return watch(ctx, e, src, *out, *figs, *wb)
+	}
+	return code
+}
+
+func doBuild(ctx context.Context, e *env, src build.Source, out, figs, wb string) int {
+	created, err := build.CreatedTime()
+	if err != nil {
+		e.errorf("%v\n", err)
+		return exitUsage
+	}
+	e.debugf("reading %s\n", src.Display)
+	res, err := build.Build(ctx, src, build.Options{Output: out, Figures: figs, Workbook: wb, Created: created, Version: version})
+	if err != nil {
+		return reportError(e, err)
+	}
+	e.infof("wrote %s (%s)\n", res.Output, humanBytes(res.Bytes))
+	for _, f := range []string{figs, wb} {
+		if f != "" {
+			e.infof("wrote %s\n", f)
+		}
+	}
+	return exitOK
+}
+
+func runCheck(ctx context.Context, e *env, args []string) int {
+	c := findCommand("check")
+	fs := newFlags(c, e)
+	root := fs.String("root", "", "folder that every input path must stay inside (default: the brief's folder)")
+	pos, code, ok := parseArgs(c, e, fs, args)
+	if !ok {
+		return code
+	}
+	if len(pos) != 1 {
+		e.errorf("check needs one brief\nExample: peerpack check brief.md\n")
+		return exitUsage
+	}
+	src, err := build.OpenSource(pos[0], *root)
+	if err != nil {
+		return reportError(e, err)
+	}
+	in, err := build.Load(src, nil)
+	if err != nil {
+		return reportError(e, err)
+	}
+	build.WriteCheckReport(e.stdout, in)
+	return exitOK
+}
+
+func runDemo(ctx context.Context, e *env, args []string) int {
+	c := findCommand("demo")
+	fs := newFlags(c, e)
+	out := fs.String("o", "demo.pdf", "the PDF to write")
+	figs := fs.String("figures", "", "also write the figures file (CSV) here")
+	wb := fs.String("workbook", "", "also write the figures as an XLSX workbook here")
+	write := fs.String("write", "", "write the demo scenario's files into this folder instead of building")
+	pos, code, ok := parseArgs(c, e, fs, args)
+	if !ok {
+		return code
+	}
+	if len(pos) != 0 {
+		e.errorf("demo takes no arguments, only flags\n")
+		return exitUsage
+	}
+	if *write != "" {
+		if err := demo.Write(*write); err != nil {
+			return reportError(e, err)
+		}
+		e.infof("wrote the demo scenario to %s; build it with: peerpack build %s -o demo.pdf\n", *write, filepath.Join(*write, demo.BriefName))
+		return exitOK
+	}
+	src := build.Source{FS: demo.FS(), Brief: demo.BriefName, Display: "demo/" + demo.BriefName}
+	return doBuild(ctx, e, src, *out, *figs, *wb)
+}
+
+func runNew(ctx context.Context, e *env, args []string) int {
+	c := findCommand("new")
+	fs := newFlags(c, e)
+	tmpl := fs.String("template", "", "template name: "+strings.Join(templates.Names(), ", "))
+	pos, code, ok := parseArgs(c, e, fs, args)
+	if !ok {
+		return code
+	}
+	if len(pos) != 1 || *tmpl == "" {
+		e.errorf("new needs --template NAME and a folder\nTemplates: %s\nExample: peerpack new --template governing-body board\n", strings.Join(templates.Names(), ", "))
+		return exitUsage
+	}
+	text, err := templates.Brief(*tmpl)
+	if err != nil {
+		e.errorf("%v\n", err)
+		return exitUsage
+	}
+	dir := pos[0]
+	if err := demo.Write(dir); err != nil {
+		return reportError(e, err)
+	}
+	target := filepath.Join(dir, demo.BriefName)
+	if err := os.WriteFile(target, text, 0o644); err != nil {
+		return reportError(e, err)
+	}
+	e.infof("wrote %s from the %s template with the demo data beside it\nNext: peerpack check %s, then peerpack build %s -o pack.pdf\n", target, *tmpl, target, target)
+	return exitOK
+}
+
+func runVersion(ctx context.Context, e *env, args []string) int {
+	fmt.Fprintf(e.stdout, "peerpack %s\n", version)
+	return exitOK
+}
+
+func runHelp(ctx context.Context, e *env, args []string) int {
+	if len(args) == 0 {
+		usage(e.stdout)
+		return exitOK
+	}
+	c := findCommand(args[0])
+	if c == nil {
+		e.errorf("no command %q; run 'peerpack help'\n", args[0])
+		return exitUsage
+	}
+	return c.run(ctx, e, []string{"-h"})
+}
+
+func findCommand(name string) *command {
+	for _, c := range commands {
+		if c.name == name {
+			return c
+		}
+	}
+	return nil
+}
+
+func reportError(e *env, err error) int {
+	msg := err.Error()
+	lines := strings.Split(msg, "\n")
+	for _, l := range lines {
+		fmt.Fprintln(e.stderr, l)
+	}
+	if len(lines) > 1 {
+		fmt.Fprintf(e.stderr, "%d problems found.\n", len(lines))
+	}
+	return exitInput
+}
+
+func humanBytes(n int) string {
+	switch {
+	case n >= 1<<20:
+		return fmt.Sprintf("%.1f MiB", float64(n)/(1<<20))
+	case n >= 1<<10:
+		return fmt.Sprintf("%.0f KiB", float64(n)/(1<<10))
+	}
+	return fmt.Sprintf("%d bytes", n)
+}

@@ -1,0 +1,84 @@
+package main
+
+import (
+	"context"
+	"fmt"
+	"io/fs"
+	"strings"
+	"time"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/build"
+)
+
+// watchInterval is how often --watch looks at the inputs. Polling file
+// sizes and modification times needs no platform-specific notification
+// API and costs nothing noticeable at this rate.
+const watchInterval = time.Second
+
+// watchFiles lists the brief and every data file it names, as paths
+// inside the source's root.
+func watchFiles(src build.Source, b *brief.Brief) []string {
+	files := []string{src.Brief}
+	if b == nil {
+		return files
+	}
+	d := b.Data
+	files = append(files, d.Register, d.Dictionary, d.PPP, d.Papers, d.Votes, b.Theme.Logo)
+	files = append(files, d.Values...)
+	out := files[:0]
+	for _, f := range files {
+		if f != "" {
+			out = append(out, strings.SplitN(f, "#", 2)[0])
+		}
+	}
+	return out
+}
+
+func fingerprint(fsys fs.FS, files []string) string {
+	var b strings.Builder
+	for _, f := range files {
+		fi, err := fs.Stat(fsys, f)
+		if err != nil {
+			fmt.Fprintf(&b, "%s:missing;", f)
+			continue
+		}
+		fmt.Fprintf(&b, "%s:%d:%d;", f, fi.Size(), fi.ModTime().UnixNano())
+	}
+	return b.String()
+}
+
+// watch rebuilds whenever the brief or one of its data files changes,
+// until interrupted. A failed rebuild prints why and keeps the last good
+// pack, then waits for the next change.
+func watch(ctx context.Context, e *env, src build.Source, out, figs, wb string) int {
+	var files []string
+	if in, err := build.Load(src, nil); err == nil {
+		files = watchFiles(src, in.Brief)
+	} else {
+		files = watchFiles(src, nil)
+	}
+	last := fingerprint(src.FS, files)
+	e.infof("watching %d files; press Ctrl-C to stop\n", len(files))
+	tick := time.NewTicker(watchInterval)
+	defer tick.Stop()
+	for {
+		select {
+		case <-ctx.Done():
+			e.infof("stopped watching\n")
+			return exitOK
+		case <-tick.C:
+		}
+		now := fingerprint(src.FS, files)
+		if now == last {
+			continue
+		}
+		last = now
+		e.infof("%s changed; rebuilding\n", time.Now().Format("15:04:05"))
+		doBuild(ctx, e, src, out, figs, wb)
+		if in, err := build.Load(src, nil); err == nil {
+			files = watchFiles(src, in.Brief)
+			last = fingerprint(src.FS, files)
+		}
+	}
+}

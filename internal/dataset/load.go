@@ -1,0 +1,153 @@
+package dataset
+
+import (
+	"errors"
+	"io/fs"
+	"math"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/diag"
+)
+
+// loader carries the state of one Load.
+type loader struct {
+	fsys  fs.FS
+	b     *brief.Brief
+	probs diag.List
+	rep   *Report
+	notes []stagedNote
+	st    *staging
+}
+
+type stagedNote struct {
+	ref  CellRef
+	text string
+}
+
+// Load reads every data file the brief names from fsys (rooted at the
+// brief's folder), validates them, converts currency indicators with the
+// PPP factors, computes derived indicators and applies the population
+// rules. The error is a *diag.List holding every problem found; the
+// Report describes what was read, for `peerpack check`, and is returned
+// even when there are problems. The Dataset is nil when the inputs were too
+// broken to build one; when the error is not nil it must not be used for a
+// pack.
+func Load(fsys fs.FS, b *brief.Brief) (*Dataset, *Report, error) {
+	l := &loader{fsys: fsys, b: b, rep: &Report{Brief: b.File}}
+	d := l.load()
+	l.rep.Problems = l.probs.Len()
+	return d, l.rep, l.probs.Err()
+}
+
+func (l *loader) load() *Dataset {
+	b := l.b
+	ok := true
+	check := func(key, p string) bool {
+		if err := checkPath(b, key, p); err != nil {
+			l.probs.Add(err)
+			ok = false
+			return false
+		}
+		return true
+	}
+	check("data.register", b.Data.Register)
+	check("data.dictionary", b.Data.Dictionary)
+	for _, v := range b.Data.Values {
+		check("data.values", v)
+	}
+	if b.Data.PPP != "" {
+		check("data.ppp", b.Data.PPP)
+	}
+	if !ok {
+		return nil
+	}
+	exists := func(key, p string) {
+		if err := checkExists(l.fsys, b, key, p); err != nil {
+			l.probs.Add(err)
+			ok = false
+		}
+	}
+	exists("data.register", b.Data.Register)
+	exists("data.dictionary", b.Data.Dictionary)
+	for _, v := range b.Data.Values {
+		exists("data.values", v)
+	}
+	if b.Data.PPP != "" {
+		exists("data.ppp", b.Data.PPP)
+	}
+	if !ok {
+		return nil
+	}
+	dict, derived := l.dictionary(b.Data.Dictionary)
+	reg := l.register(b.Data.Register)
+	if dict == nil || reg == nil {
+		return nil
+	}
+	l.rep.Institutions = reg.Len()
+	l.rep.Countries = countCountries(reg)
+
+	st := newStaging(reg.Len(), len(dict.Indicators))
+	l.st = st
+	vr := &valuesReader{l: l, reg: reg, dict: dict, st: st,
+		unknownI: map[string]*unknownName{}, unknownK: map[string]*unknownName{}, derivedK: map[string]*unknownName{}}
+	for _, name := range b.Data.Values {
+		vr.read(name)
+	}
+	vr.reportUnknown()
+	if len(st.years) == 0 && l.probs.Len() == 0 {
+		p := b.PosOf("data.values")
+		l.probs.Addf(b.File, p.Line, p.Column, "the values files hold no values; add rows of institution,year,indicator,value")
+	}
+
+	d := l.assemble(reg, dict, st)
+	l.convertPPP(d)
+	l.derive(d, derived)
+	l.population(d)
+	l.summarise(d)
+	return d
+}
+
+// assemble moves the staged columns into a Dataset without copying them.
+func (l *loader) assemble(reg *Register, dict *Dictionary, st *staging) *Dataset {
+	years := st.sortedYears()
+	d := &Dataset{Register: reg, Dictionary: dict, Years: years, Notes: map[CellRef]string{}, DerivedMissing: map[string]int{}}
+	d.cols = make([][]float64, len(dict.Indicators)*len(years))
+	for y, year := range years {
+		sl := st.slot[year]
+		for ind := range dict.Indicators {
+			c := st.vals[sl][ind]
+			if c == nil {
+				c = make([]float64, reg.Len())
+				for i := range c {
+					c[i] = math.NaN()
+				}
+			}
+			d.cols[ind*len(years)+y] = c
+		}
+	}
+	for _, n := range l.notes {
+		d.Notes[n.ref] = n.text
+	}
+	l.notes = nil
+	return d
+}
+
+func countCountries(r *Register) int {
+	seen := map[string]bool{}
+	for _, in := range r.Institutions {
+		seen[in.Country] = true
+	}
+	return len(seen)
+}
+
+func openProblem(name string, err error) error {
+	var pe *fs.PathError
+	msg := err.Error()
+	if errors.As(err, &pe) {
+		msg = pe.Err.Error()
+	}
+	if errors.Is(err, fs.ErrNotExist) {
+		msg = "no such file"
+	}
+	return diag.At(name, 0, 0, "cannot read the file: %s; check the path, which is relative to the brief's folder", msg)
+}

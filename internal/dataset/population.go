@@ -1,0 +1,138 @@
+package dataset
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"peerpack/internal/yamlx"
+)
+
+// population applies the brief's rules. An institution is excluded by any
+// rule it fails; the reasons are kept in rule order. A max_value rule
+// cannot be checked without a value in the brief's year, so such an
+// institution stays in and is counted as unchecked.
+func (l *loader) population(d *Dataset) {
+	spec := l.b.Population
+	if spec == nil {
+		return
+	}
+	b := l.b
+	dict := d.Dictionary
+	n := d.Register.Len()
+	p := &Population{Included: make([]bool, n), Excluded: map[int][]string{}}
+	for i := range p.Included {
+		p.Included[i] = true
+	}
+	out := &PopulationOutcome{}
+	exclude := func(inst int, why string) {
+		p.Included[inst] = false
+		p.Excluded[inst] = append(p.Excluded[inst], why)
+	}
+	indicator := func(key string, line, col int) int {
+		i := dict.Index(key)
+		if i < 0 {
+			msg := fmt.Sprintf("population rule names indicator %q, which is not in the dictionary (%s)", key, dict.File)
+			if s := yamlx.Nearest(key, dict.Keys()); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			}
+			l.probs.Addf(b.File, line, col, "%s", msg)
+		}
+		return i
+	}
+	for _, r := range spec.MinTotal {
+		ind := indicator(r.Indicator, r.Pos.Line, r.Pos.Column)
+		if r.Years < 1 {
+			l.probs.Addf(b.File, r.Pos.Line, r.Pos.Column, "min_total of %q needs years: 1 or more (the span summed, ending at the brief's year %d)", r.Indicator, b.Year)
+			continue
+		}
+		if ind < 0 {
+			continue
+		}
+		in := dict.Indicators[ind]
+		first := b.Year - r.Years + 1
+		rule := fmt.Sprintf("%s summed over %d-%d at least %s", in.Label, first, b.Year, num(r.AtLeast, in.Decimals))
+		if r.Years == 1 {
+			rule = fmt.Sprintf("%s in %d at least %s", in.Label, b.Year, num(r.AtLeast, in.Decimals))
+		}
+		p.Rules = append(p.Rules, rule)
+		for inst := 0; inst < n; inst++ {
+			sum, seen := 0.0, 0
+			for y := first; y <= b.Year; y++ {
+				if v, ok := d.Value(ind, inst, y); ok {
+					sum += v
+					seen++
+				}
+			}
+			switch {
+			case seen == 0:
+				exclude(inst, fmt.Sprintf("no %s values in %d-%d", in.Key, first, b.Year))
+			case sum < r.AtLeast:
+				exclude(inst, fmt.Sprintf("%s over %d-%d is %s, below %s", in.Key, first, b.Year, num(sum, in.Decimals), num(r.AtLeast, in.Decimals)))
+			}
+		}
+	}
+	for _, r := range spec.MaxValue {
+		ind := indicator(r.Indicator, r.Pos.Line, r.Pos.Column)
+		if ind < 0 {
+			continue
+		}
+		in := dict.Indicators[ind]
+		p.Rules = append(p.Rules, fmt.Sprintf("%s in %d at most %s", in.Label, b.Year, num(r.AtMost, in.Decimals)))
+		for inst := 0; inst < n; inst++ {
+			v, ok := d.Value(ind, inst, b.Year)
+			if !ok {
+				out.Unchecked++
+				continue
+			}
+			if v > r.AtMost {
+				exclude(inst, fmt.Sprintf("%s in %d is %s, above %s", in.Key, b.Year, num(v, max(in.Decimals, 2)), num(r.AtMost, max(in.Decimals, 2))))
+			}
+		}
+	}
+	for _, attr := range spec.Require {
+		if !d.Register.HasAttr(attr) {
+			pos := b.PosOf("population.require")
+			msg := fmt.Sprintf("population requires register column %q, which %s does not have", attr, d.Register.File)
+			if s := yamlx.Nearest(attr, d.Register.AttrNames); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			}
+			l.probs.Addf(b.File, pos.Line, pos.Column, "%s", msg)
+			continue
+		}
+		p.Rules = append(p.Rules, fmt.Sprintf("register field %s present", attr))
+		for inst, in := range d.Register.Institutions {
+			if v, _ := in.Attr(attr); strings.TrimSpace(v) == "" {
+				exclude(inst, fmt.Sprintf("register field %s is empty", attr))
+			}
+		}
+	}
+	d.Population = p
+	out.Rules = p.Rules
+	for inst, ok := range p.Included {
+		if ok {
+			out.Included++
+			continue
+		}
+		in := d.Register.Institutions[inst]
+		out.Excluded = append(out.Excluded, Exclusion{ID: in.ID, Name: in.Name, Reasons: p.Excluded[inst]})
+	}
+	if f := d.Register.Index(b.Focus); f >= 0 && !p.Included[f] {
+		out.FocusExcluded = true
+	}
+	l.rep.Population = out
+}
+
+// num prints a rule threshold or total; presentation formatting with
+// thousands separators belongs to internal/format, which imports this
+// package, so these messages use plain digits.
+func num(v float64, decimals int) string {
+	if math.IsNaN(v) {
+		return "missing"
+	}
+	if v == math.Trunc(v) && math.Abs(v) < 1e15 {
+		return strconv.FormatFloat(v, 'f', 0, 64)
+	}
+	return strconv.FormatFloat(v, 'f', decimals, 64)
+}

@@ -1,0 +1,500 @@
+package dataset
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	"peerpack/internal/tabular"
+	"peerpack/internal/yamlx"
+)
+
+// The years a value may carry; anything outside is a typing error.
+const (
+	MinYear = 1900
+	MaxYear = 2100
+)
+
+// staging gathers values from every values file before the set of years is
+// known. Columns are allocated per (year, indicator) on first use; where
+// records the file and line each value came from, to name both places of a
+// duplicate and the place of a value a later check rejects.
+type staging struct {
+	nInst, nInd int
+	slot        map[int]int // calendar year -> slot
+	years       []int       // by slot
+	vals        [][][]float64
+	where       [][][]uint64 // see whereCode; 0 = no value
+	files       []string
+	// The last column used, since rows usually come in runs.
+	lastYear, lastInd int
+	lastVals          []float64
+	lastWhere         []uint64
+}
+
+func newStaging(nInst, nInd int) *staging {
+	return &staging{nInst: nInst, nInd: nInd, slot: map[int]int{}}
+}
+
+func (s *staging) column(year, ind int) ([]float64, []uint64) {
+	if year == s.lastYear && ind == s.lastInd && s.lastVals != nil {
+		return s.lastVals, s.lastWhere
+	}
+	sl, ok := s.slot[year]
+	if !ok {
+		sl = len(s.years)
+		s.slot[year] = sl
+		s.years = append(s.years, year)
+		s.vals = append(s.vals, make([][]float64, s.nInd))
+		s.where = append(s.where, make([][]uint64, s.nInd))
+	}
+	if s.vals[sl][ind] == nil {
+		c := make([]float64, s.nInst)
+		for i := range c {
+			c[i] = math.NaN()
+		}
+		s.vals[sl][ind] = c
+		s.where[sl][ind] = make([]uint64, s.nInst)
+	}
+	s.lastYear, s.lastInd = year, ind
+	s.lastVals, s.lastWhere = s.vals[sl][ind], s.where[sl][ind]
+	return s.lastVals, s.lastWhere
+}
+
+// whereCode packs where a value was written: file index + 1 in the top
+// 16 bits, the column (capped) in the next 16 and the line in the low 32.
+func whereCode(file int, c tabular.Cell) uint64 {
+	col := min(max(c.Col, 0), 0xFFFF)
+	return uint64(file+1)<<48 | uint64(col)<<32 | uint64(uint32(c.Line))
+}
+
+// unpack splits a where code into file, line and column.
+func (s *staging) unpack(code uint64) (string, int, int) {
+	if code == 0 {
+		return "", 0, 0
+	}
+	return s.files[int(code>>48)-1], int(uint32(code)), int(code >> 32 & 0xFFFF)
+}
+
+// place renders a where code as file:line:column.
+func (s *staging) place(code uint64) string {
+	f, l, c := s.unpack(code)
+	if f == "" {
+		return ""
+	}
+	return fmt.Sprintf("%s:%d:%d", f, l, c)
+}
+
+// placeOf returns where the value of (year, ind, inst) came from.
+func (s *staging) placeOf(year, ind, inst int) (file string, line, col int) {
+	sl, ok := s.slot[year]
+	if !ok || s.where[sl][ind] == nil {
+		return "", 0, 0
+	}
+	return s.unpack(s.where[sl][ind][inst])
+}
+
+// sortedYears returns the staged years ascending.
+func (s *staging) sortedYears() []int {
+	ys := append([]int(nil), s.years...)
+	sort.Ints(ys)
+	return ys
+}
+
+// unknownName aggregates rows that name an institution or indicator that
+// does not exist, so a wrong id repeated over 10,000 rows is one message.
+type unknownName struct {
+	first tabular.Cell
+	file  string
+	count int
+}
+
+// valuesReader reads values files into staging.
+type valuesReader struct {
+	l        *loader
+	reg      *Register
+	dict     *Dictionary
+	st       *staging
+	unknownI map[string]*unknownName
+	unknownK map[string]*unknownName
+	derivedK map[string]*unknownName
+	order    []string // first-seen order of aggregated names, "i:"/"k:"/"d:" prefixed
+	rows     int
+}
+
+// tooMany is added instead of formatting a message once the problem list is
+// full, so a million bad rows cost no more than counting them.
+var tooMany = errors.New("too many problems")
+
+func (v *valuesReader) addf(file string, c tabular.Cell, format string, args ...any) {
+	if v.l.probs.Len() >= maxProblems {
+		v.l.probs.Add(tooMany)
+		return
+	}
+	v.l.probs.Addf(file, c.Line, c.Col, format, args...)
+}
+
+// maxProblems matches diag.List's default cap.
+const maxProblems = 200
+
+func (v *valuesReader) read(name string) {
+	r, err := tabular.Open(v.l.fsys, name)
+	if err != nil {
+		v.l.probs.Add(err)
+		return
+	}
+	fileIdx := len(v.st.files)
+	v.st.files = append(v.st.files, r.File())
+	hdr := r.Header()
+	col := map[string]int{}
+	for i, h := range hdr {
+		col[strings.ToLower(strings.TrimSpace(h.Text))] = i
+	}
+	ic, okI := col["institution"]
+	yc, okY := col["year"]
+	if !okI || !okY {
+		names := make([]string, len(hdr))
+		for i, h := range hdr {
+			names[i] = h.Text
+		}
+		line := 1
+		if len(hdr) > 0 {
+			line = hdr[0].Line
+		}
+		v.l.probs.Addf(r.File(), line, 1, "a values file's header starts with institution,year and then either indicator,value[,note] (long) or one column per indicator key (wide); found %s", strings.Join(names, ","))
+		return
+	}
+	_, hasInd := col["indicator"]
+	_, hasVal := col["value"]
+	rows := 0
+	switch {
+	case hasInd && hasVal:
+		rows = v.readLong(r, fileIdx, col, ic, yc)
+		v.l.rep.Files = append(v.l.rep.Files, FileSummary{Role: "values (long)", Path: r.File(), Rows: rows})
+	case hasInd != hasVal:
+		missing := "value"
+		if hasVal {
+			missing = "indicator"
+		}
+		v.l.probs.Addf(r.File(), hdr[0].Line, 1, "the header has %q but no %q column; a long values file has institution,year,indicator,value[,note]", map[bool]string{true: "value", false: "indicator"}[hasVal], missing)
+	default:
+		rows = v.readWide(r, fileIdx, ic, yc)
+		v.l.rep.Files = append(v.l.rep.Files, FileSummary{Role: "values (wide)", Path: r.File(), Rows: rows})
+	}
+	v.rows += rows
+}
+
+// institution resolves an id cell, aggregating unknown ids.
+func (v *valuesReader) institution(file string, c tabular.Cell) int {
+	id := strings.TrimSpace(c.Text)
+	if i := v.reg.Index(id); i >= 0 {
+		return i
+	}
+	if id == "" {
+		v.addf(file, c, "the institution id is empty; every row names an institution id from the register")
+		return -1
+	}
+	if u, ok := v.unknownI[id]; ok {
+		u.count++
+		return -1
+	}
+	id = strings.Clone(id)
+	v.unknownI[id] = &unknownName{first: c, file: file, count: 1}
+	v.order = append(v.order, "i:"+id)
+	return -1
+}
+
+func (v *valuesReader) indicator(file string, c tabular.Cell) int {
+	key := strings.TrimSpace(c.Text)
+	if i := v.dict.Index(key); i >= 0 {
+		if v.dict.Indicators[i].Derive != "" {
+			if u, ok := v.derivedK[key]; ok {
+				u.count++
+			} else {
+				key = strings.Clone(key)
+				v.derivedK[key] = &unknownName{first: c, file: file, count: 1}
+				v.order = append(v.order, "d:"+key)
+			}
+			return -1
+		}
+		return i
+	}
+	if key == "" {
+		v.addf(file, c, "the indicator key is empty; every row names an indicator key from the dictionary")
+		return -1
+	}
+	if u, ok := v.unknownK[key]; ok {
+		u.count++
+		return -1
+	}
+	key = strings.Clone(key)
+	v.unknownK[key] = &unknownName{first: c, file: file, count: 1}
+	v.order = append(v.order, "k:"+key)
+	return -1
+}
+
+func (v *valuesReader) year(file string, c tabular.Cell) int {
+	s := strings.TrimSpace(c.Text)
+	y, err := strconv.Atoi(s)
+	if err != nil {
+		if f, ferr := strconv.ParseFloat(s, 64); ferr == nil && f == math.Trunc(f) && math.Abs(f) < 1e6 {
+			y, err = int(f), nil
+		}
+	}
+	if err != nil {
+		if s == "" {
+			v.addf(file, c, "the year is empty; every row needs a year, e.g. 2024")
+		} else {
+			v.addf(file, c, "year %q is not a whole number; write a calendar year, e.g. 2024", s)
+		}
+		return 0
+	}
+	if y < MinYear || y > MaxYear {
+		v.addf(file, c, "year %d is out of range; years must be from %d to %d", y, MinYear, MaxYear)
+		return 0
+	}
+	return y
+}
+
+// value parses a value cell for indicator ind and checks it against the
+// indicator's unit. ok is false when the row must be skipped.
+func (v *valuesReader) value(file string, c tabular.Cell, ind int) (float64, bool) {
+	x, empty, err := tabular.ParseNumber(c.Text)
+	if empty {
+		return math.NaN(), true
+	}
+	in := &v.dict.Indicators[ind]
+	if err != nil {
+		var ne *tabular.NumberError
+		if errors.As(err, &ne) && ne.Token != "" {
+			for _, m := range in.Missing {
+				if strings.EqualFold(strings.TrimSpace(m), ne.Token) {
+					return math.NaN(), true
+				}
+			}
+			v.addf(file, c, "%q is not a number; for a missing value of %s leave the cell empty, or list %q under missing: of that indicator (%s line %d) to read it as missing", ne.Token, in.Key, ne.Token, v.dict.File, in.Line)
+			return 0, false
+		}
+		v.addf(file, c, "value of %s: %s", in.Key, err)
+		return 0, false
+	}
+	if msg := unitViolation(in, x); msg != "" {
+		v.addf(file, c, "%s", msg)
+		return 0, false
+	}
+	return x, true
+}
+
+// unitViolation checks a value against its indicator's unit: a percent
+// lies in 0..100, a share in 0..1, counts and ratios are not negative.
+func unitViolation(in *Indicator, x float64) string {
+	switch in.Unit {
+	case UnitPercent, UnitShare, UnitCount, UnitRatio:
+	default:
+		return ""
+	}
+	if x >= 0 && (x <= 1 || (x <= 100 && in.Unit != UnitShare) || in.Unit == UnitCount || in.Unit == UnitRatio) {
+		return ""
+	}
+	val := strconv.FormatFloat(x, 'f', -1, 64)
+	switch in.Unit {
+	case UnitPercent:
+		if x < 0 || x > 100 {
+			hint := ""
+			if x > 100 {
+				hint = "; is it a count rather than a percent?"
+			}
+			return fmt.Sprintf("%s is a percent but the value %s lies outside 0..100%s", in.Key, val, hint)
+		}
+	case UnitShare:
+		if x < 0 || x > 1 {
+			hint := ""
+			if x > 1 && x <= 100 {
+				hint = "; it looks like a percent: divide by 100, or declare unit: percent in the dictionary"
+			}
+			return fmt.Sprintf("%s is a share (0..1) but the value %s lies outside 0..1%s", in.Key, val, hint)
+		}
+	case UnitCount:
+		if x < 0 {
+			return fmt.Sprintf("%s is a count but the value %s is negative", in.Key, val)
+		}
+	case UnitRatio:
+		if x < 0 {
+			return fmt.Sprintf("%s is a ratio but the value %s is negative", in.Key, val)
+		}
+	}
+	return ""
+}
+
+func (v *valuesReader) store(file string, fileIdx int, cell tabular.Cell, inst, ind, year int, x float64) {
+	vals, where := v.st.column(year, ind)
+	code := whereCode(fileIdx, cell)
+	if prev := where[inst]; prev != 0 {
+		v.addf(file, cell, "%s, %s, %d has a value twice: here and at %s; keep one", v.reg.Institutions[inst].ID, v.dict.Indicators[ind].Key, year, v.st.place(prev))
+		return
+	}
+	where[inst] = code
+	vals[inst] = x
+}
+
+func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string]int, ic, yc int) int {
+	file := r.File()
+	kc, vc := col["indicator"], col["value"]
+	nc, hasNote := col["note"]
+	for i, h := range r.Header() {
+		n := strings.ToLower(strings.TrimSpace(h.Text))
+		if !oneOf(n, []string{"institution", "year", "indicator", "value", "note"}) {
+			v.addf(file, h, "unexpected column %q in a long values file (institution,year,indicator,value[,note]); remove it, or use the wide shape with one column per indicator", r.Header()[i].Text)
+		}
+	}
+	rows := 0
+	for {
+		row, err := r.Next()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		if err != nil {
+			v.l.probs.Add(err)
+			continue
+		}
+		rows++
+		inst := v.institution(file, row[ic])
+		ind := v.indicator(file, row[kc])
+		year := v.year(file, row[yc])
+		if ind < 0 {
+			continue
+		}
+		x, ok := v.value(file, row[vc], ind)
+		if inst < 0 || year == 0 || !ok {
+			continue
+		}
+		v.store(file, fileIdx, row[vc], inst, ind, year, x)
+		if hasNote {
+			if n := strings.TrimSpace(row[nc].Text); n != "" {
+				v.l.notes = append(v.l.notes, stagedNote{CellRef{Indicator: ind, Year: year, Institution: inst}, strings.Clone(n)})
+			}
+		}
+	}
+	return rows
+}
+
+func (v *valuesReader) readWide(r tabular.RowReader, fileIdx int, ic, yc int) int {
+	file := r.File()
+	hdr := r.Header()
+	keys := make([]int, len(hdr))
+	seen := map[string]int{}
+	for i, h := range hdr {
+		keys[i] = -1
+		if i == ic || i == yc {
+			continue
+		}
+		k := strings.TrimSpace(h.Text)
+		if prev, dup := seen[k]; dup {
+			v.addf(file, h, "column %q appears twice in the header (first at column %d); keep one", k, prev)
+			continue
+		}
+		seen[k] = h.Col
+		idx := v.dict.Index(k)
+		switch {
+		case k == "":
+			v.addf(file, h, "column %d of the header has no name; name it with an indicator key or delete the column", i+1)
+		case strings.EqualFold(k, "note"):
+			v.addf(file, h, "a note column belongs to the long shape (institution,year,indicator,value,note); a wide file has one column per indicator")
+		case idx < 0:
+			msg := fmt.Sprintf("column %q is not an indicator key in %s", k, v.dict.File)
+			if s := yamlx.Nearest(k, v.dict.Keys()); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			} else {
+				msg += "; add it to the dictionary or remove the column"
+			}
+			v.addf(file, h, "%s", msg)
+		case v.dict.Indicators[idx].Derive != "":
+			v.addf(file, h, "%q is derived (derive: in %s line %d), so it is computed, not read; remove the column or remove derive:", k, v.dict.File, v.dict.Indicators[idx].Line)
+		default:
+			keys[i] = idx
+		}
+	}
+	rows := 0
+	for {
+		row, err := r.Next()
+		if errors.Is(err, io.EOF) {
+			break
+		}
+		if err != nil {
+			v.l.probs.Add(err)
+			continue
+		}
+		rows++
+		inst := v.institution(file, row[ic])
+		year := v.year(file, row[yc])
+		for i, ind := range keys {
+			if ind < 0 {
+				continue
+			}
+			x, ok := v.value(file, row[i], ind)
+			if inst < 0 || year == 0 || !ok {
+				continue
+			}
+			if math.IsNaN(x) {
+				// An empty cell in a wide file is missing; it claims no
+				// place, so a long file may supply the value.
+				continue
+			}
+			v.store(file, fileIdx, row[i], inst, ind, year, x)
+		}
+	}
+	return rows
+}
+
+// reportUnknown turns the aggregated unknown names into problems, in the
+// order they were first met.
+func (v *valuesReader) reportUnknown() {
+	ids := make([]string, len(v.reg.Institutions))
+	for i, in := range v.reg.Institutions {
+		ids[i] = in.ID
+	}
+	keys := v.dict.Keys()
+	for n, name := range v.order {
+		kind, key := name[:2], name[2:]
+		more := func(u *unknownName) string {
+			if u.count > 1 {
+				return fmt.Sprintf(" (%d rows)", u.count)
+			}
+			return ""
+		}
+		switch kind {
+		case "i:":
+			u := v.unknownI[key]
+			msg := fmt.Sprintf("unknown institution id %q%s: it is not in the register (%s)", key, more(u), v.reg.File)
+			// Suggest only for the first few: the search is over the whole
+			// register.
+			s := ""
+			if n < 20 {
+				s = yamlx.Nearest(key, ids)
+			}
+			if s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			} else {
+				msg += "; add the institution to the register or correct the id"
+			}
+			v.addf(u.file, u.first, "%s", msg)
+		case "k:":
+			u := v.unknownK[key]
+			msg := fmt.Sprintf("unknown indicator key %q%s: it is not in the dictionary (%s)", key, more(u), v.dict.File)
+			if s := yamlx.Nearest(key, keys); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			} else {
+				msg += "; add it to the dictionary or correct the key"
+			}
+			v.addf(u.file, u.first, "%s", msg)
+		case "d:":
+			u := v.derivedK[key]
+			in, _ := v.dict.Lookup(key)
+			v.addf(u.file, u.first, "%q is derived (derive: in %s line %d), so it is computed, not read%s; remove its rows or remove derive:", key, v.dict.File, in.Line, more(u))
+		}
+	}
+}

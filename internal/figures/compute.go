@@ -1,0 +1,256 @@
+package figures
+
+import (
+	"math"
+	"runtime"
+	"slices"
+	"sync"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
+	"peerpack/internal/diag"
+	"peerpack/internal/stats"
+)
+
+// Compute builds the figures model of a brief over a dataset: it resolves
+// the comparison groups, checks every block of the brief against the data,
+// and computes distributions, positions, trends and correlations. Every
+// problem found is returned together as a *diag.List.
+//
+// Cost: each (group, indicator, year) column is sorted once, O(n log n);
+// every tracked institution is then placed by binary search, and the
+// correlations walk presorted orders, O(n) per indicator pair.
+func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
+	probs := &diag.List{}
+	if d == nil || b == nil || d.Register == nil || d.Dictionary == nil {
+		probs.Addf("", 0, 0, "internal error: figures need a loaded dataset and brief")
+		return nil, probs
+	}
+	focus, tracked := checkFront(d, b, probs)
+	r := &resolver{d: d, b: b, focus: focus, probs: probs}
+	groups := r.resolveGroups()
+	checkBlocks(d, b, groups, probs)
+	if err := probs.Err(); err != nil {
+		return nil, err
+	}
+
+	m := &Model{
+		Data:    d,
+		Focus:   focus,
+		FocusID: b.Focus,
+		Named:   tracked,
+		Year:    b.Year,
+		First:   b.Years.First,
+		Last:    b.Years.Last,
+		Method:  stats.ParseQuantileMethod(b.Quantiles),
+		Groups:  groups,
+		dist:    map[distKey]*Distribution{},
+		pos:     map[posKey]*Position{},
+		trend:   map[trendKey]*Trend{},
+		gtrend:  map[gtrendKey]*GroupTrend{},
+		corr:    map[corrKey]int{},
+	}
+	for _, y := range d.Years {
+		if y >= m.First && y <= m.Last {
+			m.Years = append(m.Years, y)
+		}
+	}
+	m.compute()
+	return m, nil
+}
+
+// direction maps a dictionary polarity to a ranking direction; neutral
+// indicators rank by value, highest first.
+func direction(p dataset.Polarity) stats.Direction {
+	if p == dataset.LowerIsBetter {
+		return stats.LowerFirst
+	}
+	return stats.HigherFirst
+}
+
+type columnResult struct {
+	dists  []*Distribution
+	poss   []*Position
+	trends []*Trend
+	gtrend *GroupTrend
+}
+
+// compute fills the model, spreading (group, indicator) jobs over the
+// available processors; results land in fixed slots, so the outcome does
+// not depend on scheduling.
+func (m *Model) compute() {
+	nInd := len(m.Data.Dictionary.Indicators)
+	m.yearOrder = registerOrders(m.Data, m.Year)
+	results := make([]columnResult, len(m.Groups)*nInd)
+	corrs := make([][]Correlation, len(m.Groups))
+	jobs := make(chan int)
+	workers := runtime.GOMAXPROCS(0)
+	if workers > len(results)+len(m.Groups) {
+		workers = len(results) + len(m.Groups)
+	}
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			var buf []float64
+			for j := range jobs {
+				if j < len(results) {
+					g, k := m.Groups[j/nInd], j%nInd
+					results[j], buf = m.column(g, k, buf)
+				} else {
+					gi := j - len(results)
+					corrs[gi] = m.correlations(m.Groups[gi])
+				}
+			}
+		}()
+	}
+	// Correlation jobs are the longest; start them first.
+	for gi := range m.Groups {
+		jobs <- len(results) + gi
+	}
+	for j := range results {
+		jobs <- j
+	}
+	close(jobs)
+	wg.Wait()
+	m.yearOrder = nil
+
+	for _, res := range results {
+		for _, d := range res.dists {
+			m.dist[distKey{d.Group, d.Indicator, d.Year}] = d
+		}
+		for _, p := range res.poss {
+			m.pos[posKey{p.Group, p.Indicator, p.Institution, p.Year}] = p
+		}
+		for _, t := range res.trends {
+			m.trend[trendKey{t.Group, t.Indicator, t.Institution}] = t
+		}
+		if t := res.gtrend; t != nil {
+			m.gtrend[gtrendKey{t.Group, t.Indicator}] = t
+		}
+	}
+	for _, cs := range corrs {
+		for _, c := range cs {
+			m.corr[corrKey{c.Group, c.IndicatorX, c.IndicatorY}] = len(m.Correlations)
+			m.Correlations = append(m.Correlations, c)
+		}
+	}
+}
+
+// column computes one group's indicator over every year of the span.
+// Each year's values are gathered once; the quartiles come by selection
+// (stats.BoxOfUnsorted, expected O(n)) and the tracked institutions are
+// placed in one counting pass, so no column is ever fully sorted.
+func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64) {
+	ind := m.Data.Dictionary.Indicators[k]
+	dir := direction(ind.Better)
+	nt := len(m.Named)
+	targets := make([]float64, nt)
+	member := make([]bool, nt)
+	placed := make([]stats.Placement, nt)
+	for j, inst := range m.Named {
+		member[j] = g.Has(inst)
+	}
+	var res columnResult
+	for _, year := range m.Years {
+		col := m.Data.Column(k, year)
+		vals := buf[:0]
+		for _, i := range g.Members {
+			if v := col[i]; !math.IsNaN(v) {
+				vals = append(vals, v)
+			}
+		}
+		dist := &Distribution{Group: g.Name, Indicator: ind.Key, Year: year}
+		// Mean and SD first, in register order, so their last digits do not
+		// depend on how selection reorders the values.
+		dist.Mean, dist.SD = stats.MeanSD(vals)
+		for j, inst := range m.Named {
+			targets[j] = col[inst]
+		}
+		stats.PlaceAll(vals, targets, member, dir, placed)
+		dist.Box = stats.BoxOfUnsorted(vals, len(g.Members)-len(vals), m.Method)
+		if len(dist.Box.OutlierValues) > 0 {
+			dist.Outliers = outlierMembers(g.Members, col, dist.Box)
+		}
+		res.dists = append(res.dists, dist)
+		for j, inst := range m.Named {
+			res.poss = append(res.poss, position(g, ind, inst, year, targets[j], len(vals), placed[j], dist))
+		}
+		buf = vals
+	}
+	for ti, inst := range m.Named {
+		// Positions of inst were appended year by year, nt apart.
+		series := make([]*Position, len(m.Years))
+		for yi := range m.Years {
+			series[yi] = res.poss[yi*nt+ti]
+		}
+		res.trends = append(res.trends, trendOf(g, ind, inst, series, res.dists))
+	}
+	res.gtrend = groupTrendOf(g, ind, res.dists)
+	return res, buf
+}
+
+// outlierMembers lists the members beyond the whiskers, ascending by value
+// and then by register position, matching Box.OutlierValues.
+func outlierMembers(members []int, col []float64, b stats.Box) []int {
+	type ov struct {
+		inst int
+		v    float64
+	}
+	var out []ov
+	for _, i := range members {
+		v := col[i]
+		if !math.IsNaN(v) && (v < b.WhiskerLow || v > b.WhiskerHigh) {
+			out = append(out, ov{i, v})
+		}
+	}
+	slices.SortStableFunc(out, func(a, b ov) int {
+		switch {
+		case a.v < b.v:
+			return -1
+		case a.v > b.v:
+			return 1
+		}
+		return a.inst - b.inst
+	})
+	ids := make([]int, len(out))
+	for i, o := range out {
+		ids[i] = o.inst
+	}
+	return ids
+}
+
+// position builds one institution's Position from its placement among
+// the n member values of a group.
+func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int, pl stats.Placement, dist *Distribution) *Position {
+	p := &Position{Group: g.Name, Indicator: ind.Key, Institution: inst, Year: year, Value: v, InGroup: g.Has(inst)}
+	nan := math.NaN()
+	p.Percentile, p.Z, p.GapMedian, p.GapQ3 = nan, nan, nan, nan
+	if math.IsNaN(v) {
+		return p
+	}
+	p.HasValue = true
+	if n == 0 && !p.InGroup {
+		return p // no member has a value: nothing to compare with
+	}
+	p.Rank, p.Of, p.Percentile = pl.Rank, pl.Of, pl.Percentile
+	p.Quartile = stats.QuartileOf(p.Percentile)
+	p.Z = stats.Z(v, dist.Mean, dist.SD)
+	p.GapMedian, p.GapQ3 = gaps(ind.Better, v, dist.Box)
+	return p
+}
+
+// gaps returns the distance still to gain to the group's median and to
+// its better quartile (Q3 when higher is better, Q1 when lower is better),
+// zero once reached. A neutral indicator has no direction to gain in, so
+// both are NaN.
+func gaps(p dataset.Polarity, v float64, b stats.Box) (median, quartile float64) {
+	switch p {
+	case dataset.HigherIsBetter:
+		return math.Max(0, b.Median-v), math.Max(0, b.Q3-v)
+	case dataset.LowerIsBetter:
+		return math.Max(0, v-b.Median), math.Max(0, v-b.Q1)
+	}
+	return math.NaN(), math.NaN()
+}

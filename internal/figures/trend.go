@@ -1,0 +1,108 @@
+package figures
+
+import (
+	"math"
+
+	"peerpack/internal/dataset"
+	"peerpack/internal/stats"
+)
+
+// SizeChangeLimit is the relative change in a group's size (members with a
+// value) between the two ends of a trend beyond which raw rank changes
+// mislead and statements compare percentiles instead: ranking 40th of 200
+// after 40th of 100 is a better showing, not the same one (common
+// practice, no source).
+const SizeChangeLimit = 0.10
+
+// SizeChanged reports whether group sizes a and b differ by more than
+// SizeChangeLimit of the smaller.
+func SizeChanged(a, b int) bool {
+	lo, hi := min(a, b), max(a, b)
+	if lo == 0 {
+		return hi > 0
+	}
+	return float64(hi-lo) > SizeChangeLimit*float64(lo)
+}
+
+// trendOf measures one institution's movement over the span: from the
+// first year of the span in which it has a value to the last.
+// Change = end - start; ChangePct = 100 x change / |start|; CAGR in percent
+// a year over end year - start year; Slope is the least-squares slope over
+// every year with a value; RankChange = start rank - end rank (positive
+// = moved up); PercentileChange = end - start percentile.
+func trendOf(g *Group, ind dataset.Indicator, inst int, series []*Position, dists []*Distribution) *Trend {
+	t := &Trend{Group: g.Name, Indicator: ind.Key, Institution: inst}
+	nan := math.NaN()
+	t.StartValue, t.EndValue, t.Change, t.ChangePct, t.CAGR, t.Slope, t.PercentileChange, t.MedianChange = nan, nan, nan, nan, nan, nan, nan, nan
+	first, last := -1, -1
+	var xs, ys []float64
+	for i, p := range series {
+		if !p.HasValue {
+			continue
+		}
+		if first < 0 {
+			first = i
+		}
+		last = i
+		xs = append(xs, float64(p.Year))
+		ys = append(ys, p.Value)
+	}
+	if first < 0 {
+		return t
+	}
+	s, e := series[first], series[last]
+	t.StartYear, t.StartValue = s.Year, s.Value
+	t.EndYear, t.EndValue = e.Year, e.Value
+	t.StartOf, t.EndOf = s.Of, e.Of
+	if first == last {
+		return t
+	}
+	t.Valid = true
+	t.Change = stats.Change(s.Value, e.Value)
+	t.ChangePct = stats.ChangePct(s.Value, e.Value)
+	t.CAGR = stats.CAGR(s.Value, e.Value, e.Year-s.Year)
+	t.Slope = stats.Slope(xs, ys)
+	if s.Rank > 0 && e.Rank > 0 {
+		t.RankChange = s.Rank - e.Rank
+		t.PercentileChange = e.Percentile - s.Percentile
+	}
+	t.MedianChange = dists[last].Median - dists[first].Median
+	t.PreferPercentiles = SizeChanged(s.Of, e.Of)
+	return t
+}
+
+// groupTrendOf measures the group median's movement from the first to the
+// last year of the span in which the group has a value.
+func groupTrendOf(g *Group, ind dataset.Indicator, dists []*Distribution) *GroupTrend {
+	t := &GroupTrend{Group: g.Name, Indicator: ind.Key}
+	nan := math.NaN()
+	t.MedianStart, t.MedianEnd, t.Change, t.ChangePct, t.Slope = nan, nan, nan, nan, nan
+	first, last := -1, -1
+	var xs, ys []float64
+	for i, d := range dists {
+		if d.N == 0 {
+			continue
+		}
+		if first < 0 {
+			first = i
+		}
+		last = i
+		xs = append(xs, float64(d.Year))
+		ys = append(ys, d.Median)
+	}
+	if first < 0 {
+		return t
+	}
+	s, e := dists[first], dists[last]
+	t.StartYear, t.EndYear = s.Year, e.Year
+	t.MedianStart, t.MedianEnd = s.Median, e.Median
+	t.StartN, t.EndN = s.N, e.N
+	if first == last {
+		return t
+	}
+	t.Valid = true
+	t.Change = stats.Change(s.Median, e.Median)
+	t.ChangePct = stats.ChangePct(s.Median, e.Median)
+	t.Slope = stats.Slope(xs, ys)
+	return t
+}

@@ -1,0 +1,247 @@
+// Package format turns the figures model's unrounded numbers into the text
+// a pack prints. It is the one place where rounding happens, so that a
+// table, a chart label and a sentence show the same digits for the same
+// figure.
+package format
+
+import (
+	"math"
+	"strconv"
+	"strings"
+
+	"peerpack/internal/dataset"
+)
+
+// Round rounds v to the given number of decimals exactly as Number prints
+// it, so comparisons of rounded values agree with the printed text.
+//
+// Rounding is half away from zero on the shortest decimal form of v (the
+// digits strconv prints for it, which are the digits as written in the
+// data file): 2.675 rounds to 2.68 and -1234.5 to -1235, as a reader doing
+// it by hand would, rather than by the binary value (2.67499999...).
+func Round(v float64, decimals int) float64 {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return v
+	}
+	r, _ := strconv.ParseFloat(roundString(math.Abs(v), clampDecimals(decimals)), 64)
+	if r == 0 {
+		return 0 // no negative zero
+	}
+	if v < 0 {
+		return -r
+	}
+	return r
+}
+
+// roundString rounds a non-negative v half up at the decimals on its
+// shortest decimal representation and returns it with exactly that many
+// decimals.
+func roundString(v float64, decimals int) string {
+	s := strconv.FormatFloat(v, 'f', -1, 64)
+	intPart, frac := s, ""
+	if i := strings.IndexByte(s, '.'); i >= 0 {
+		intPart, frac = s[:i], s[i+1:]
+	}
+	if len(frac) <= decimals {
+		frac += strings.Repeat("0", decimals-len(frac))
+		if decimals == 0 {
+			return intPart
+		}
+		return intPart + "." + frac
+	}
+	roundUp := frac[decimals] >= '5'
+	digits := []byte(intPart + frac[:decimals])
+	if roundUp {
+		i := len(digits) - 1
+		for ; i >= 0; i-- {
+			if digits[i] == '9' {
+				digits[i] = '0'
+				continue
+			}
+			digits[i]++
+			break
+		}
+		if i < 0 {
+			digits = append([]byte{'1'}, digits...)
+		}
+	}
+	ip := string(digits[:len(digits)-decimals])
+	if decimals == 0 {
+		return ip
+	}
+	return ip + "." + string(digits[len(digits)-decimals:])
+}
+
+func clampDecimals(d int) int {
+	if d < 0 {
+		return 0
+	}
+	if d > 9 {
+		return 9
+	}
+	return d
+}
+
+// Number prints v with the decimals and a thousands separator (comma) in
+// the integer part: 12345.678 with 1 decimal is "12,345.7". Minus signs use
+// the Unicode minus sign so they do not break across lines or look like
+// hyphens. Missing values (NaN) print as an en dash.
+func Number(v float64, decimals int) string {
+	if math.IsNaN(v) {
+		return "–"
+	}
+	if math.IsInf(v, 0) {
+		return "–"
+	}
+	r := Round(v, decimals)
+	s := roundString(math.Abs(r), clampDecimals(decimals))
+	intPart, frac := s, ""
+	if i := strings.IndexByte(s, '.'); i >= 0 {
+		intPart, frac = s[:i], s[i:]
+	}
+	var b strings.Builder
+	if r < 0 {
+		b.WriteString("−")
+	}
+	for i, c := range intPart {
+		if i > 0 && (len(intPart)-i)%3 == 0 {
+			b.WriteByte(',')
+		}
+		b.WriteRune(c)
+	}
+	b.WriteString(frac)
+	return b.String()
+}
+
+// Int prints a whole number with thousands separators.
+func Int(n int) string { return Number(float64(n), 0) }
+
+// Value prints an indicator value with its declared decimals and unit:
+// percent "23.4%", currency "PPP$ 182,300" (after conversion), others as the
+// bare number.
+func Value(ind dataset.Indicator, v float64) string {
+	if math.IsNaN(v) {
+		return "–"
+	}
+	n := Number(v, ind.Decimals)
+	switch ind.Unit {
+	case dataset.UnitPercent:
+		return n + "%"
+	case dataset.UnitCurrency:
+		if ind.Currency {
+			return "PPP$ " + n
+		}
+		return n
+	}
+	return n
+}
+
+// Difference prints the size of a difference between two values of an
+// indicator, with the unit a reader expects: "3.6 percentage points" for
+// percent, "PPP$ 12,000" for currency, else the number. The sign is dropped:
+// the words around it say which way it goes.
+func Difference(ind dataset.Indicator, d float64) string {
+	n := Number(math.Abs(d), ind.Decimals)
+	switch ind.Unit {
+	case dataset.UnitPercent:
+		if n == "1" {
+			return n + " percentage point"
+		}
+		return n + " percentage points"
+	case dataset.UnitCurrency:
+		if ind.Currency {
+			return "PPP$ " + n
+		}
+	}
+	return n
+}
+
+// Signed prints a change with an explicit sign: "+3.6", "−0.2", "0.0".
+func Signed(ind dataset.Indicator, d float64) string {
+	r := Round(d, ind.Decimals)
+	n := Number(math.Abs(r), ind.Decimals)
+	switch {
+	case r > 0:
+		n = "+" + n
+	case r < 0:
+		n = "−" + n
+	}
+	if ind.Unit == dataset.UnitPercent {
+		return n + " pp"
+	}
+	return n
+}
+
+// Percent prints a percentage with the decimals: Percent(12.345, 1) is
+// "12.3%".
+func Percent(p float64, decimals int) string {
+	if math.IsNaN(p) {
+		return "–"
+	}
+	return Number(p, decimals) + "%"
+}
+
+// Percentile prints a percentile rank as a whole number with its ordinal
+// suffix: "73rd percentile".
+func Percentile(p float64) string {
+	if math.IsNaN(p) {
+		return "–"
+	}
+	return Ordinal(int(Round(p, 0))) + " percentile"
+}
+
+// Ordinal prints 1st, 2nd, 3rd, 4th, 11th, 12th, 13th, 21st, 112th.
+func Ordinal(n int) string {
+	suffix := "th"
+	switch n % 100 {
+	case 11, 12, 13:
+	default:
+		switch n % 10 {
+		case 1:
+			suffix = "st"
+		case 2:
+			suffix = "nd"
+		case 3:
+			suffix = "rd"
+		}
+	}
+	return Int(n) + suffix
+}
+
+// RankBand returns the band a rank falls in when ranks beyond the threshold
+// are to be reported as bands: exact up to the threshold, then bands of 50
+// up to 200 and of 100 beyond (common practice, no source). The band is
+// empty when the rank is within the threshold.
+func RankBand(rank, threshold int) (lo, hi int, banded bool) {
+	if threshold <= 0 || rank <= threshold {
+		return rank, rank, false
+	}
+	width := 100
+	if rank <= 200 {
+		width = 50
+	}
+	lo = ((rank-1)/width)*width + 1
+	if lo <= threshold {
+		lo = threshold + 1
+	}
+	hi = ((rank-1)/width + 1) * width
+	return lo, hi, true
+}
+
+// Rank prints a rank as "6th" or, beyond the threshold, its band "201–300".
+func Rank(rank, threshold int) string {
+	lo, hi, banded := RankBand(rank, threshold)
+	if !banded {
+		return Ordinal(rank)
+	}
+	return Int(lo) + "–" + Int(hi)
+}
+
+// Plural picks the singular or plural form by count: Plural(1, "member",
+// "members").
+func Plural(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
+}

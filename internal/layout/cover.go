@@ -1,0 +1,136 @@
+package layout
+
+import (
+	"fmt"
+	"strings"
+
+	"peerpack/internal/pdf"
+)
+
+// cover sets the title page: a band in the house colour with the
+// organisation, title and subtitle; below it the focus institution, the
+// audience, the years and the date; the logo at the band's right; and a
+// short caution at the foot pointing to the notes on the figures.
+func (w *writer) cover() {
+	d := w.doc
+	d.AddPlainPage()
+	if w.measuring {
+		return
+	}
+	pw := d.Paper().Width
+	m := d.Margins()
+	left := m.Left
+	textW := pw - m.Left - m.Right
+
+	// Title and subtitle, measured first so the band fits them.
+	titleF := w.st.font(pdf.Bold, 26)
+	subF := w.st.font(pdf.Regular, 14)
+	tsp := []span{{text: w.b.Title, font: titleF, color: white}}
+	tl := w.wrap(tsp, w.tokenize(tsp), textW, textW)
+	var sl []line
+	ssp := []span{{text: w.b.Subtitle, font: subF, color: mix(w.st.accent, white, 0.8)}}
+	if w.b.Subtitle != "" {
+		sl = w.wrap(ssp, w.tokenize(ssp), textW, textW)
+	}
+	titleLH := pdf.PtToMM(26 * 1.15)
+	subLH := pdf.PtToMM(14 * 1.3)
+	bandTop := 0.0
+	titleTop := 62.0
+	bandH := titleTop + float64(len(tl))*titleLH + float64(len(sl))*subLH + 14
+	d.FillRect(0, bandTop, pw, bandH, w.st.accent)
+
+	if o := w.b.Theme.Organisation; o != "" {
+		d.SetFont(w.st.font(pdf.Bold, 10))
+		d.SetTextColor(white)
+		d.Text(left, 26, strings.ToUpper(o))
+	}
+	if w.b.Theme.Logo != "" {
+		w.coverLogo(pw-m.Right, 14)
+	}
+	y := titleTop
+	for _, ln := range tl {
+		w.drawLine(tsp, ln, left, y+pdf.PtToMM(26)*0.8)
+		y += titleLH
+	}
+	y += 2
+	for _, ln := range sl {
+		w.drawLine(ssp, ln, left, y+pdf.PtToMM(14)*0.8)
+		y += subLH
+	}
+
+	// Facts below the band.
+	y = bandH + 20
+	fact := func(label, value string, size float64) {
+		if value == "" {
+			return
+		}
+		d.SetFont(w.st.font(pdf.Regular, 8.5))
+		d.SetTextColor(w.st.muted)
+		d.Text(left, y, strings.ToUpper(label))
+		y += 6.2
+		vsp := []span{{text: value, font: w.st.font(pdf.Bold, size), color: w.st.text}}
+		for _, ln := range w.wrap(vsp, w.tokenize(vsp), textW, textW) {
+			w.drawLine(vsp, ln, left, y)
+			y += pdf.PtToMM(size * 1.3)
+		}
+		y += 6
+	}
+	fact("Focus institution", focusName(w.m), 16)
+	fact("Prepared for", w.b.Audience, 12)
+	years := fmt.Sprintf("Positions in %d", w.m.Year)
+	if w.m.First != 0 && w.m.Last != 0 && w.m.First != w.m.Last {
+		years += fmt.Sprintf("; trends %d–%d", w.m.First, w.m.Last)
+	}
+	fact("Figures", years, 12)
+	fact("Prepared by", w.b.Author, 12)
+	fact("Date", w.dateLine(), 12)
+
+	// The caution at the foot.
+	msg := "Rankings and comparisons simplify. The figures cover only what the indicators measure, the choice of indicators and groups is a judgement, and small differences lie within the uncertainty of the data. Read them with the notes in “About these figures” at the end of this pack before using them in decisions about people or money."
+	csp := []span{{text: msg, font: w.st.font(pdf.Italic, 8.5), color: w.st.muted}}
+	lines := w.wrap(csp, w.tokenize(csp), textW-8, textW-8)
+	lh := w.st.lineHeight(8.5)
+	h := float64(len(lines))*lh + 5
+	top := d.Paper().Height - m.Bottom - h
+	d.FillRect(left, top, textW, h, w.st.tint)
+	d.Line(left, top, left, top+h, 0.8, w.st.accent)
+	yy := top + 2.5
+	for _, ln := range lines {
+		w.drawLine(csp, ln, left+4, yy+pdf.PtToMM(8.5)*0.8)
+		yy += lh
+	}
+	d.SetTextColor(w.st.text)
+}
+
+// dateLine is the brief's date, else the build date written out in full
+// ("2 March 2025"; "March 2, 2025" in en-US).
+func (w *writer) dateLine() string {
+	if w.b.Date != "" {
+		return w.b.Date
+	}
+	t := w.in.Created
+	if t.IsZero() {
+		return ""
+	}
+	t = t.UTC()
+	if w.b.Language == "en-US" {
+		return t.Format("January 2, 2006")
+	}
+	return t.Format("2 January 2006")
+}
+
+// coverLogo places the logo in a white panel at the band's top right,
+// right edge at x.
+func (w *writer) coverLogo(right, top float64) {
+	info, err := w.loadImage(w.b.Theme.Logo)
+	if err != nil {
+		p := w.b.PosOf("theme.logo")
+		w.failAt(p, "logo: %v", err)
+		return
+	}
+	iw, ih := fitBox(float64(info.Width), float64(info.Height), 44, 20)
+	pad := 3.0
+	x := right - iw - 2*pad
+	w.doc.FillRect(x, top, iw+2*pad, ih+2*pad, white)
+	w.doc.DrawImage(info, x+pad, top+pad, iw, ih)
+}

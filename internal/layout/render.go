@@ -1,0 +1,156 @@
+// Package layout turns a brief, its figures model and its commentary into
+// the pages of a pack: cover, contents, executive summary, the brief's
+// Markdown body with its charts, tables and commentary blocks, and the
+// closing notes on what the figures do and do not show.
+//
+// The body is laid out the way goldmark renders HTML: the Markdown tree is
+// walked and each node kind has one small function (see register in
+// nodes.go), all sharing one writer. Layout runs twice: the first pass
+// learns on which page every heading falls and how many pages there are;
+// the second draws, with the contents and the "page n of N" footer filled
+// in. Both passes make the same decisions, so the page numbers are right.
+package layout
+
+import (
+	"fmt"
+	"io/fs"
+	"time"
+
+	"github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/text"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/diag"
+	"peerpack/internal/figures"
+	"peerpack/internal/narrative"
+	"peerpack/internal/pdf"
+)
+
+// Input is everything a pack is laid out from.
+type Input struct {
+	Brief *brief.Brief
+	Model *figures.Model
+	// Commentary may be nil; commentary blocks then show a visible note.
+	Commentary *narrative.Commentary
+	// FS is the brief's root, for the logo and images.
+	FS fs.FS
+	// Created dates the PDF (SOURCE_DATE_EPOCH or now).
+	Created time.Time
+	// Version is peerpack's version, for the Producer field.
+	Version string
+}
+
+// Render lays out the pack and returns the PDF. Problems in the brief
+// found while laying out (an unknown placeholder figure, nesting too deep,
+// a chart that cannot be drawn) are returned together as a *diag.List.
+func Render(in Input) (out []byte, err error) {
+	if in.Brief == nil || in.Model == nil {
+		return nil, fmt.Errorf("internal error: layout needs a brief and a figures model")
+	}
+	first, err := pass(in, nil)
+	if err != nil {
+		return nil, err
+	}
+	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
+		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
+	second, err := pass(in, rec)
+	if err != nil {
+		return nil, err
+	}
+	if want := rec.pages + rec.contentsPages - 1; second.doc.PageNo() != want {
+		return nil, fmt.Errorf("internal error: the two layout passes disagree on the page count (%d, then %d)", want, second.doc.PageNo())
+	}
+	return second.doc.Bytes()
+}
+
+// pass runs one layout pass; known is nil in the first.
+func pass(in Input, known *passRecord) (*writer, error) {
+	b := in.Brief
+	paper, err := pdf.PaperByName(b.Theme.Paper)
+	if err != nil {
+		p := b.PosOf("theme.paper")
+		return nil, diag.At(b.File, p.Line, p.Column, "%v", err)
+	}
+	margins := pdf.DefaultMargins
+	if mg := b.Theme.Margins; mg != nil {
+		margins = pdf.Margins{Top: orDefault(mg.Top, margins.Top), Bottom: orDefault(mg.Bottom, margins.Bottom), Left: orDefault(mg.Left, margins.Left), Right: orDefault(mg.Right, margins.Right)}
+		if err := checkMargins(b, paper, margins); err != nil {
+			return nil, err
+		}
+	}
+	producer := "peerpack"
+	if in.Version != "" {
+		producer += " " + in.Version
+	}
+	doc := pdf.New(pdf.Options{
+		Paper: paper, Margins: margins,
+		Title: b.Title, Author: author(b), Subject: subject(in), Keywords: b.Keywords,
+		Creator: producer, Producer: producer, Lang: b.Language, Created: in.Created,
+	})
+	w := &writer{
+		in: in, b: b, m: in.Model, com: in.Commentary, doc: doc, st: newStyle(b.Theme.Font, b.Theme.Accent),
+		src: b.Body, known: known, measuring: known == nil, colGap: 8, cols: 1,
+		consumed: map[ast.Node]bool{},
+	}
+	w.register()
+	w.indexBlocks()
+	doc.SetFurniture(w.header, w.footer)
+	w.cover()
+	w.contents()
+	w.summary()
+	w.body()
+	w.cautions()
+	if err := doc.Err(); err != nil {
+		return nil, fmt.Errorf("the PDF could not be laid out: %v", err)
+	}
+	return w, w.problems.Err()
+}
+
+func orDefault(v, d float64) float64 {
+	if v <= 0 {
+		return d
+	}
+	return v
+}
+
+// checkMargins refuses margins that leave too little room to set text.
+func checkMargins(b *brief.Brief, p pdf.Paper, m pdf.Margins) error {
+	if p.Width-m.Left-m.Right < 100 || p.Height-m.Top-m.Bottom < 150 || m.Top < 12 || m.Bottom < 12 {
+		pos := b.PosOf("theme.margins")
+		return diag.At(b.File, pos.Line, pos.Column, "margins top %g, bottom %g, left %g, right %g mm leave too little room: keep at least 100 x 150 mm for text and 12 mm top and bottom for the running header and footer", m.Top, m.Bottom, m.Left, m.Right)
+	}
+	return nil
+}
+
+func author(b *brief.Brief) string {
+	if b.Author != "" {
+		return b.Author
+	}
+	return b.Theme.Organisation
+}
+
+func subject(in Input) string {
+	s := in.Brief.Subtitle
+	if s == "" {
+		s = "Peer comparison"
+	}
+	if name := focusName(in.Model); name != "" {
+		s += " — " + name
+	}
+	return s
+}
+
+func focusName(m *figures.Model) string {
+	if m == nil || m.Data == nil || m.Data.Register == nil || m.Focus < 0 || m.Focus >= m.Data.Register.Len() {
+		return ""
+	}
+	return m.Data.Register.Institutions[m.Focus].Name
+}
+
+// body lays out the brief's Markdown, parsed with the same goldmark
+// configuration the brief package checks it with.
+func (w *writer) body() {
+	doc := brief.Markdown().Parser().Parse(text.NewReader(w.src))
+	w.newPage()
+	w.walk(doc)
+}

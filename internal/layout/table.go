@@ -1,0 +1,410 @@
+package layout
+
+import (
+	"math"
+	"strings"
+
+	"peerpack/internal/pdf"
+)
+
+// cell is one table cell.
+type cell struct {
+	text string
+	// shade is the quarter of the group the figure falls in (1 best .. 4
+	// worst), 0 for an unshaded cell.
+	shade int
+	bold  bool
+	muted bool
+}
+
+// grid is a table ready to set: header labels, column alignment ('L' or
+// 'R'), rows, and what goes around it.
+type grid struct {
+	head    []string
+	align   []byte
+	rows    [][]cell
+	focus   []bool // rows to highlight (the focus institution)
+	caption string
+	notes   []string
+	legend  bool
+	// keepLead is the number of leading rows kept with the header.
+	keepLead int
+	// natural keeps the table at its content's width instead of the
+	// frame's (Markdown tables); noNumber leaves it without "Table n.".
+	natural, noNumber bool
+}
+
+// Table typography in pt and mm.
+const (
+	tableSize   = 8.5
+	tableHead   = 8
+	cellPadX    = 1.8
+	cellPadY    = 1.25
+	minTextCol  = 32.0
+	legendSize  = 7.5
+	glyphColumn = 3.6 // room for a quartile glyph before a number
+)
+
+// setTable sets a grid in the frame: columns sized to their content and
+// the frame's width, header repeated on every page the table runs onto,
+// never wider than the frame.
+func (w *writer) setTable(g grid) {
+	if len(g.head) == 0 {
+		return
+	}
+	if w.cols > 1 {
+		w.spanColumns(func() { w.setTable(g) })
+		return
+	}
+	if !g.noNumber {
+		w.tableNo++
+	}
+	ncol := len(g.head)
+	avail := w.width - w.indent
+	bodyF := w.st.font(pdf.Regular, tableSize)
+	boldF := w.st.font(pdf.Bold, tableSize)
+	headF := w.st.font(pdf.Bold, tableHead)
+
+	widths := w.columnWidths(g, avail, bodyF, boldF, headF)
+	tableW := 0.0
+	for _, cw := range widths {
+		tableW += cw
+	}
+	// Header lines per column.
+	headLines := make([][]string, ncol)
+	maxLines := 1
+	for c := 0; c < ncol; c++ {
+		sp := []span{{text: g.head[c], font: headF}}
+		for _, ln := range w.wrap(sp, w.tokenize(sp), widths[c]-2*cellPadX, widths[c]-2*cellPadX) {
+			var parts []string
+			for _, t := range ln.toks {
+				parts = append(parts, t.text)
+			}
+			headLines[c] = append(headLines[c], strings.Join(parts, " "))
+		}
+		maxLines = max(maxLines, len(headLines[c]))
+	}
+	headLH := w.st.lineHeight(tableHead) * 0.92
+	headH := float64(maxLines)*headLH + 2*cellPadY
+	lineH := pdf.PtToMM(tableSize) * 1.25
+	rowLines := make([][][]string, len(g.rows))
+	for ri, r := range g.rows {
+		rowLines[ri] = make([][]string, ncol)
+		for c := 0; c < ncol && c < len(r); c++ {
+			f := bodyF
+			if r[c].bold || ri < len(g.focus) && g.focus[ri] {
+				f = boldF
+			}
+			room := widths[c] - 2*cellPadX
+			if r[c].shade > 0 {
+				room -= glyphColumn
+			}
+			if g.align[c] == 'L' {
+				rowLines[ri][c] = w.cellLines(r[c].text, f, room, 3)
+			} else {
+				w.doc.SetFont(f)
+				rowLines[ri][c] = []string{w.doc.Fit(r[c].text, room)}
+			}
+		}
+	}
+	rowHeight := func(ri int) float64 {
+		n := 1
+		for _, ls := range rowLines[ri] {
+			n = max(n, len(ls))
+		}
+		return float64(n)*lineH + 2*cellPadY
+	}
+	rowH := rowHeight(0)
+
+	capSp := w.captionSpans("Table", w.tableNo, g.caption)
+	if g.noNumber {
+		capSp = []span{{text: g.caption, font: w.st.font(pdf.Regular, captionSize), color: w.st.muted}}
+	}
+	capLines := w.wrap(capSp, w.tokenize(capSp), avail, avail)
+	capH := float64(len(capLines))*w.st.lineHeight(captionSize) + 1.2
+
+	lead := min(len(g.rows), max(3, g.keepLead))
+	if !w.atFrameTop() {
+		w.y += 1.5
+	}
+	leadH := 0.0
+	for ri := 0; ri < lead; ri++ {
+		leadH += rowHeight(ri)
+	}
+	if g.noNumber && g.caption == "" {
+		capH = 0
+	}
+	w.ensure(capH + headH + leadH)
+
+	x0 := w.x + w.indent
+	avail = tableW
+	drawCaption := func(cont bool) {
+		if g.caption == "" && g.noNumber {
+			return
+		}
+		sp := capSp
+		lines := capLines
+		if cont {
+			sp = append(append([]span(nil), capSp...), span{text: " (continued)", font: w.st.font(pdf.Italic, captionSize), color: w.st.muted})
+			lines = w.wrap(sp, w.tokenize(sp), avail, avail)
+		}
+		for _, ln := range lines {
+			w.drawLine(sp, ln, x0, w.y+pdf.PtToMM(captionSize)*0.8)
+			w.y += w.st.lineHeight(captionSize)
+		}
+		w.y += 1.2
+	}
+	drawHead := func() {
+		if !w.measuring {
+			w.doc.FillRect(x0, w.y, avail, headH, w.st.tint)
+			w.doc.SetFont(headF)
+			w.doc.SetTextColor(w.st.text)
+			x := x0
+			for c := 0; c < ncol; c++ {
+				// Headers sit on the bottom of their cell, next to the
+				// figures they name.
+				n := len(headLines[c])
+				for i, s := range headLines[c] {
+					s = w.doc.Fit(s, widths[c]-2*cellPadX)
+					by := w.y + headH - cellPadY - float64(n-1-i)*headLH - headLH*0.22
+					if g.align[c] == 'R' {
+						w.doc.TextRight(x+widths[c]-cellPadX, by, s)
+					} else {
+						w.doc.Text(x+cellPadX, by, s)
+					}
+				}
+				x += widths[c]
+			}
+			w.doc.Line(x0, w.y+headH, x0+avail, w.y+headH, 0.4, w.st.accent)
+		}
+		w.y += headH
+	}
+
+	drawCaption(false)
+	drawHead()
+	for ri, r := range g.rows {
+		rowH = rowHeight(ri)
+		if w.y+rowH > w.bottom() {
+			w.nextFrame()
+			drawCaption(true)
+			drawHead()
+		}
+		if !w.measuring {
+			focus := ri < len(g.focus) && g.focus[ri]
+			if focus {
+				w.doc.FillRect(x0, w.y, avail, rowH, mix(w.st.accent, white, 0.8))
+			}
+			x := x0
+			for c := 0; c < ncol; c++ {
+				var cl cell
+				if c < len(r) {
+					cl = r[c]
+				}
+				if cl.shade > 0 {
+					w.doc.FillRect(x+0.25, w.y+0.25, widths[c]-0.5, rowH-0.5, w.st.shades[cl.shade])
+				}
+				f := bodyF
+				if cl.bold || focus {
+					f = boldF
+				}
+				w.doc.SetFont(f)
+				col := w.st.text
+				if cl.muted {
+					col = w.st.muted
+				}
+				w.doc.SetTextColor(col)
+				base := w.y + cellPadY + pdf.PtToMM(tableSize)*0.95
+				room := widths[c] - 2*cellPadX
+				if cl.shade > 0 {
+					room -= glyphColumn
+					w.doc.SetFont(w.st.font(pdf.Regular, tableSize-1.5))
+					w.doc.Text(x+cellPadX, base-0.2, quartileGlyph(cl.shade))
+					w.doc.SetFont(f)
+				}
+				var lines []string
+				if c < len(rowLines[ri]) {
+					lines = rowLines[ri][c]
+				}
+				for li, s := range lines {
+					if g.align[c] == 'R' {
+						w.doc.TextRight(x+widths[c]-cellPadX, base+float64(li)*lineH, s)
+					} else {
+						w.doc.Text(x+cellPadX, base+float64(li)*lineH, s)
+					}
+				}
+				x += widths[c]
+			}
+			w.doc.Line(x0, w.y+rowH, x0+avail, w.y+rowH, 0.15, w.st.rule)
+			w.doc.SetTextColor(w.st.text)
+		}
+		w.y += rowH
+	}
+	if !w.measuring {
+		w.doc.Line(x0, w.y, x0+avail, w.y, 0.4, w.st.accent)
+	}
+	w.y += 1.5
+	if g.legend {
+		w.quartileLegend(x0)
+	}
+	for _, n := range g.notes {
+		sp := []span{{text: n, font: w.st.font(pdf.Italic, legendSize), color: w.st.muted}}
+		w.para(sp, w.indent, nil, legendSize, 0.4)
+	}
+	w.y += paraGap + 1
+}
+
+// quartileLegend explains the shading with swatch, glyph and words, so
+// the key reads in greyscale print and for readers who do not see colour.
+func (w *writer) quartileLegend(x float64) {
+	h := pdf.PtToMM(legendSize) * 1.5
+	w.ensure(h + 1)
+	if w.measuring {
+		w.y += h + 1
+		return
+	}
+	f := w.st.font(pdf.Regular, legendSize)
+	w.doc.SetFont(f)
+	w.doc.SetTextColor(w.st.muted)
+	lead := "Shading and mark: quarter of the group the value falls in, in the better direction:"
+	w.doc.Text(x, w.y+h*0.7, lead)
+	w.y += h
+	cx := x
+	for q := 1; q <= 4; q++ {
+		w.doc.FillRect(cx, w.y, 5.5, h-0.6, w.st.shades[q])
+		w.doc.SetFont(w.st.font(pdf.Regular, legendSize-1))
+		w.doc.SetTextColor(w.st.text)
+		w.doc.TextCentre(cx+2.75, w.y+h*0.62, quartileGlyph(q))
+		w.doc.SetFont(f)
+		w.doc.SetTextColor(w.st.muted)
+		label := quartileWords(q)
+		w.doc.Text(cx+7, w.y+h*0.65, label)
+		cx += 7 + w.doc.StringWidth(label) + 5
+	}
+	w.doc.SetTextColor(w.st.text)
+	w.y += h + 1
+}
+
+// columnWidths sizes the columns: figures ('R') keep their natural width;
+// text columns ('L') share what is left in proportion to their natural
+// width, never below their longest word, and wrap. Only when even that
+// does not fit is every column narrowed, and cells are shortened with an
+// ellipsis.
+func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Font) []float64 {
+	ncol := len(g.head)
+	nat := make([]float64, ncol)  // widest content
+	word := make([]float64, ncol) // widest single word (text columns)
+	for c := 0; c < ncol; c++ {
+		for _, wd := range strings.Fields(g.head[c]) {
+			word[c] = math.Max(word[c], w.doc.WidthIn(headF, wd))
+		}
+		nat[c] = word[c]
+	}
+	for ri, r := range g.rows {
+		for c := 0; c < ncol && c < len(r); c++ {
+			f := bodyF
+			if r[c].bold || ri < len(g.focus) && g.focus[ri] {
+				f = boldF
+			}
+			extra := 0.0
+			if r[c].shade > 0 {
+				extra = glyphColumn
+			}
+			nat[c] = math.Max(nat[c], w.doc.WidthIn(f, r[c].text)+extra)
+			if g.align[c] == 'L' {
+				for _, wd := range strings.Fields(r[c].text) {
+					word[c] = math.Max(word[c], math.Min(w.doc.WidthIn(f, wd), 40)+extra)
+				}
+			} else {
+				word[c] = nat[c]
+			}
+		}
+	}
+	widths := make([]float64, ncol)
+	fixed, textNat, textMin := 0.0, 0.0, 0.0
+	for c := 0; c < ncol; c++ {
+		if g.align[c] == 'R' {
+			widths[c] = nat[c] + 2*cellPadX
+			fixed += widths[c]
+		} else {
+			textNat += nat[c] + 2*cellPadX
+			textMin += word[c] + 2*cellPadX
+		}
+	}
+	room := avail - fixed
+	switch {
+	case textNat <= room:
+		// Everything fits on one line: text columns at natural width, the
+		// spare width to the first text column unless the table keeps its
+		// natural width.
+		first := -1
+		for c := 0; c < ncol; c++ {
+			if g.align[c] == 'L' {
+				widths[c] = nat[c] + 2*cellPadX
+				if first < 0 {
+					first = c
+				}
+			}
+		}
+		if !g.natural {
+			if first < 0 {
+				first = 0
+			}
+			widths[first] += room - textNat
+		}
+	case textMin <= room:
+		// Text columns wrap: each gets its minimum plus a share of the
+		// rest in proportion to how much more it would like.
+		spare := room - textMin
+		want := textNat - textMin
+		for c := 0; c < ncol; c++ {
+			if g.align[c] == 'L' {
+				min := word[c] + 2*cellPadX
+				widths[c] = min + spare*((nat[c]+2*cellPadX-min)/want)
+			}
+		}
+	default:
+		total := fixed
+		for c := 0; c < ncol; c++ {
+			if g.align[c] == 'L' {
+				widths[c] = word[c] + 2*cellPadX
+				total += widths[c]
+			}
+		}
+		scale := avail / total
+		for c := range widths {
+			widths[c] *= scale
+		}
+	}
+	return widths
+}
+
+// cellLines wraps a text cell into at most max lines, the last shortened
+// with an ellipsis when the text does not fit.
+func (w *writer) cellLines(text string, f pdf.Font, width float64, maxLines int) []string {
+	sp := []span{{text: text, font: f}}
+	lines := w.wrap(sp, w.tokenize(sp), width, width)
+	out := make([]string, 0, len(lines))
+	for i, ln := range lines {
+		parts := make([]string, len(ln.toks))
+		for k, t := range ln.toks {
+			parts[k] = t.text
+		}
+		s := strings.Join(parts, " ")
+		if i == maxLines-1 && len(lines) > maxLines {
+			rest := []string{s}
+			for _, l2 := range lines[i+1:] {
+				for _, t := range l2.toks {
+					rest = append(rest, t.text)
+				}
+			}
+			w.doc.SetFont(f)
+			out = append(out, w.doc.Fit(strings.Join(rest, " "), width))
+			break
+		}
+		out = append(out, s)
+	}
+	if len(out) == 0 {
+		out = []string{""}
+	}
+	return out
+}

@@ -1,0 +1,274 @@
+package narrative
+
+import (
+	"errors"
+	"fmt"
+	"strings"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
+	"peerpack/internal/diag"
+	"peerpack/internal/figures"
+	"peerpack/internal/yamlx"
+)
+
+// Commentary is the written commentary of one pack.
+type Commentary struct {
+	// Summary is the executive summary for the first page: the overall
+	// position, the strengths and risks, the headline movement and the key
+	// caveats.
+	Summary []Paragraph
+	// Blocks holds the text of every commentary block of the brief.
+	Blocks map[*brief.CommentaryBlock][]Paragraph
+	// Sentences lists every sentence in pack order (the summary, then the
+	// blocks in brief order), for the sources appendix.
+	Sentences []Sentence
+
+	// rankBands is the brief's rank_bands, needed to re-read banded ranks.
+	rankBands int
+}
+
+// Compose writes the executive summary and the text of every commentary
+// block of b from the figures model, checks that every figure a sentence
+// cites exists, and adds the sentences to the model as commentary rows
+// (see rows.go). An unknown indicator or group in a block, or years
+// outside the brief's span, is reported at the block's position.
+func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
+	if m == nil || b == nil || m.Data == nil || m.Data.Register == nil {
+		return nil, errors.New("internal error: commentary needs a computed figures model and its brief")
+	}
+	w, err := WordingFor(b.Language)
+	if err != nil {
+		p := b.Lines["language"]
+		return nil, diag.At(b.File, p.Line, p.Column, "%v", err)
+	}
+	c := newComposer(m, b, w)
+	out := &Commentary{Blocks: map[*brief.CommentaryBlock][]Paragraph{}, rankBands: b.RankBands}
+	out.Summary = c.write(c.executiveScope())
+
+	var probs diag.List
+	n := 0
+	for _, blk := range b.Blocks {
+		cb, ok := blk.(*brief.CommentaryBlock)
+		if !ok {
+			continue
+		}
+		n++
+		sc, err := c.scopeOf(cb, fmt.Sprintf("block-%02d", n))
+		if err != nil {
+			probs.Add(err)
+			continue
+		}
+		out.Blocks[cb] = c.write(sc)
+	}
+	if err := probs.Err(); err != nil {
+		return nil, err
+	}
+	out.Sentences = collect(out.Summary)
+	for _, blk := range b.Blocks {
+		if cb, ok := blk.(*brief.CommentaryBlock); ok {
+			out.Sentences = append(out.Sentences, collect(out.Blocks[cb])...)
+		}
+	}
+	if err := checkCites(m, out.Sentences); err != nil {
+		return nil, err
+	}
+	m.Add(commentaryRows(out.Sentences)...)
+	return out, nil
+}
+
+func collect(ps []Paragraph) []Sentence {
+	var out []Sentence
+	for _, p := range ps {
+		out = append(out, p.Sentences...)
+	}
+	return out
+}
+
+// checkCites fails on the first sentence citing a figure the model does
+// not have: a sentence must never rest on a number nobody can look up.
+func checkCites(m *figures.Model, ss []Sentence) error {
+	for _, s := range ss {
+		for _, k := range s.Cites {
+			if _, ok := m.Lookup(k); !ok {
+				return fmt.Errorf("commentary (%s): the sentence %q cites the figure %s, which the figures model does not have", s.Part, s.Text, k)
+			}
+		}
+	}
+	return nil
+}
+
+// composer holds what every planner needs while writing one pack.
+type composer struct {
+	m     *figures.Model
+	b     *brief.Brief
+	w     Wording
+	focus string // the focus institution's name as sentences use it
+	part  string
+}
+
+func newComposer(m *figures.Model, b *brief.Brief, w Wording) *composer {
+	c := &composer{m: m, b: b, w: w}
+	if m.Focus >= 0 && m.Focus < m.Data.Register.Len() {
+		in := m.Data.Register.Institutions[m.Focus]
+		c.focus = in.Name
+		if s, ok := in.Attr("short_name"); ok && strings.TrimSpace(s) != "" {
+			c.focus = strings.TrimSpace(s)
+		}
+	}
+	return c
+}
+
+// say makes a sentence of the current part.
+func (c *composer) say(about, text string, cites ...figures.Key) Sentence {
+	return Sentence{Text: text, Cites: cites, About: about, Part: c.part}
+}
+
+// scope is what one piece of commentary covers.
+type scope struct {
+	part  string
+	style string
+	inds  []dataset.Indicator
+	// groups are the groups positions are written for; systems the
+	// competitor systems (groups expanded from "each").
+	groups  []*figures.Group
+	systems []*figures.Group
+	// ref is the group summaries and changes are stated against: the
+	// first group of the scope the focus belongs to.
+	ref  *figures.Group
+	year int
+	// first and last are the block's years; 0 means each trend's own
+	// span within the brief's years.
+	first, last int
+	topics      map[string]bool
+	executive   bool
+}
+
+func (s *scope) has(topic string) bool { return s.topics[topic] }
+
+// defaultTopics are the topics a style writes when a block names none.
+var defaultTopics = map[string][]string{
+	"summary": {"position", "strengths", "change", "caveats"},
+	"detail":  {"position", "change", "gaps", "competition", "caveats"},
+	"bullets": {"position", "change", "gaps", "competition", "caveats"},
+}
+
+func topicSet(style string, topics []string) map[string]bool {
+	if len(topics) == 0 {
+		topics = defaultTopics[style]
+	}
+	set := map[string]bool{}
+	for _, t := range topics {
+		set[t] = true
+	}
+	return set
+}
+
+// executiveScope covers every indicator and group of the pack.
+func (c *composer) executiveScope() *scope {
+	sc := &scope{part: "summary", style: "summary", inds: c.m.Data.Dictionary.Indicators, year: c.m.Year,
+		topics: topicSet("summary", nil), executive: true}
+	c.splitGroups(sc, c.m.Groups)
+	return sc
+}
+
+// scopeOf resolves a commentary block's scope against the model.
+func (c *composer) scopeOf(cb *brief.CommentaryBlock, part string) (*scope, error) {
+	var probs diag.List
+	bad := func(format string, args ...any) {
+		probs.Addf(c.b.File, cb.At.Line, cb.At.Column, format, args...)
+	}
+	style := cb.Style
+	if style == "" {
+		style = "detail"
+	}
+	sc := &scope{part: part, style: style, year: c.m.Year, topics: topicSet(style, cb.Topics)}
+	dict := c.m.Data.Dictionary
+	if len(cb.Indicators) == 0 {
+		sc.inds = dict.Indicators
+	}
+	for _, k := range cb.Indicators {
+		ind, ok := dict.Lookup(k)
+		if !ok {
+			msg := fmt.Sprintf("commentary block names indicator %q, which the dictionary does not have", k)
+			if s := yamlx.Nearest(k, dict.Keys()); s != "" {
+				msg += fmt.Sprintf("; did you mean %q?", s)
+			}
+			bad("%s", msg)
+			continue
+		}
+		sc.inds = append(sc.inds, ind)
+	}
+	groups := c.m.Groups
+	if len(cb.Groups) > 0 {
+		groups = nil
+		var names []string
+		for _, g := range c.m.Groups {
+			names = append(names, g.Name)
+		}
+		for _, name := range cb.Groups {
+			gs := c.m.GroupsOf(name)
+			if len(gs) == 0 {
+				msg := fmt.Sprintf("commentary block names group %q, which the brief does not define", name)
+				if s := yamlx.Nearest(name, names); s != "" {
+					msg += fmt.Sprintf("; did you mean %q?", s)
+				}
+				bad("%s", msg)
+			}
+			groups = append(groups, gs...)
+		}
+	}
+	c.splitGroups(sc, groups)
+	if cb.Years != nil {
+		sc.first, sc.last = cb.Years.First, cb.Years.Last
+		if !c.hasYear(sc.first) || !c.hasYear(sc.last) {
+			bad("commentary years [%d, %d] must be years of the brief's span with data (%s)", sc.first, sc.last, c.yearList())
+		}
+	}
+	if err := probs.Err(); err != nil {
+		return nil, err
+	}
+	return sc, nil
+}
+
+func (c *composer) hasYear(y int) bool {
+	for _, x := range c.m.Years {
+		if x == y {
+			return true
+		}
+	}
+	return false
+}
+
+func (c *composer) yearList() string {
+	s := make([]string, len(c.m.Years))
+	for i, y := range c.m.Years {
+		s[i] = fmt.Sprint(y)
+	}
+	return strings.Join(s, ", ")
+}
+
+// splitGroups separates competitor systems from the other groups and picks
+// the reference group. When a scope has only systems, positions are
+// written for them too.
+func (c *composer) splitGroups(sc *scope, groups []*figures.Group) {
+	for _, g := range groups {
+		if g.Kind == "each" {
+			sc.systems = append(sc.systems, g)
+		} else {
+			sc.groups = append(sc.groups, g)
+		}
+	}
+	if len(sc.groups) == 0 {
+		sc.groups = sc.systems
+	}
+	for _, g := range sc.groups {
+		if g.FocusIn {
+			sc.ref = g
+			return
+		}
+	}
+	if len(sc.groups) > 0 {
+		sc.ref = sc.groups[0]
+	}
+}

@@ -1,0 +1,83 @@
+package narrative_test
+
+import (
+	"strings"
+	"testing"
+
+	"io/fs"
+	"peerpack/internal/brief"
+
+	"peerpack/internal/dataset"
+	"peerpack/internal/demo"
+	"peerpack/internal/figures"
+	"peerpack/internal/narrative"
+)
+
+func demoModel(t testing.TB) (*figures.Model, *brief.Brief) {
+	t.Helper()
+	fsys := demo.FS()
+	raw, err := fs.ReadFile(fsys, "brief.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := brief.Parse("brief.md", raw)
+	if err != nil {
+		t.Fatalf("demo brief: %v", err)
+	}
+	b.Dir = "."
+	d, _, err := dataset.Load(fsys, b)
+	if err != nil {
+		t.Fatalf("demo data: %v", err)
+	}
+	m, err := figures.Compute(d, b)
+	if err != nil {
+		t.Fatalf("demo figures: %v", err)
+	}
+	return m, b
+}
+
+// TestDemoTraceable re-reads every number of every sentence of the demo
+// pack and finds it, printed the same way, among the figures the sentence
+// cites; it also checks the commentary rows reached the model.
+func TestDemoTraceable(t *testing.T) {
+	m, b := demoModel(t)
+	c, err := narrative.Compose(m, b)
+	if err != nil {
+		t.Fatalf("Compose: %v", err)
+	}
+	if err := narrative.Verify(m, c); err != nil {
+		t.Fatalf("Verify: %v", err)
+	}
+	if len(c.Summary) == 0 || len(c.Sentences) == 0 {
+		t.Fatal("the demo pack has no executive summary")
+	}
+	for _, blk := range b.Blocks {
+		if cb, ok := blk.(*brief.CommentaryBlock); ok && len(c.Blocks[cb]) == 0 {
+			t.Errorf("commentary block at line %d has no text", cb.At.Line)
+		}
+	}
+	rows := 0
+	for _, r := range m.Rows() {
+		if r.Section == figures.SectionCommentary && r.Measure == "sentence" {
+			rows++
+		}
+	}
+	if rows != len(c.Sentences) {
+		t.Errorf("model has %d commentary sentence rows, want %d", rows, len(c.Sentences))
+	}
+	if testing.Verbose() {
+		var sb strings.Builder
+		for _, p := range c.Summary {
+			sb.WriteString(p.Heading + ": " + p.Text() + "\n")
+		}
+		for _, blk := range b.Blocks {
+			if cb, ok := blk.(*brief.CommentaryBlock); ok {
+				sb.WriteString("--- block " + cb.Style + "\n")
+				for _, p := range c.Blocks[cb] {
+					sb.WriteString(p.Heading + ": " + p.Text() + "\n")
+				}
+			}
+		}
+		t.Log("\n" + sb.String())
+	}
+}

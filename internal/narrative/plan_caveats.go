@@ -1,0 +1,142 @@
+package narrative
+
+import (
+	"strings"
+
+	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
+)
+
+// Caveats are written where they apply and nowhere else.
+
+// groupCaveats: groups too small for stable quartiles, and chosen peer
+// sets that turn out to lie in one country.
+func (c *composer) groupCaveats(sc *scope) []Sentence {
+	var out []Sentence
+	seen := map[string]bool{}
+	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
+		for _, g := range gs {
+			if seen[g.Name] {
+				continue
+			}
+			seen[g.Name] = true
+			if n := len(g.Members); n > 0 && n < SmallGroup {
+				f := CaveatFact{Seed: g.Name, Group: g.Name, N: printCount(n), Threshold: printCount(SmallGroup)}
+				s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers))
+				s.Thresholds = []float64{SmallGroup}
+				out = append(out, s)
+			}
+			if country, ok := c.oneCountry(g); ok {
+				f := CaveatFact{Seed: g.Name, Focus: c.focus, Group: g.Name, Country: country}
+				out = append(out, c.say("", c.w.OneCountry(f), groupKey(g.Name, mMembers)))
+			}
+		}
+	}
+	return out
+}
+
+// oneCountry reports the country of a chosen or nearest-profile peer group
+// whose members all lie in one country: readers take such groups for an
+// international comparison unless told. Groups defined by a place or by
+// "each" are one-country by definition and say so in their name.
+func (c *composer) oneCountry(g *figures.Group) (string, bool) {
+	if (g.Kind != "members" && g.Kind != "nearest") || len(g.Members) < 2 {
+		return "", false
+	}
+	reg := c.m.Data.Register
+	country := reg.Institutions[g.Members[0]].Country
+	for _, i := range g.Members[1:] {
+		if reg.Institutions[i].Country != country {
+			return "", false
+		}
+	}
+	return country, country != ""
+}
+
+// indicatorCaveats: currency converted with PPP, a direction that is a
+// value judgement, an estimated focus value, and groups where too few
+// members report.
+func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence {
+	var out []Sentence
+	label := c.w.Indicator(ind)
+	if c.pppConverted(ind) {
+		out = append(out, c.say(ind.Key, c.w.PPP(CaveatFact{Seed: ind.Key, Indicator: label})))
+	}
+	if judged(ind) && strings.TrimSpace(ind.Judgement) != "" {
+		out = append(out, c.say(ind.Key, c.w.Judgement(CaveatFact{Seed: ind.Key, Indicator: label, Better: ind.Better, Judgement: ind.Judgement})))
+	}
+	if note, ok := c.imputed(ind, sc.year); ok {
+		f := CaveatFact{Seed: ind.Key, Focus: c.focus, Indicator: label, Year: printYear(sc.year), Note: note}
+		out = append(out, c.say(ind.Key, c.w.Imputed(f), posKey(c.anyGroup(sc), ind.Key, c.m.FocusID, sc.year, mValue)))
+	}
+	seen := map[string]bool{}
+	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
+		for _, g := range gs {
+			if seen[g.Name] {
+				continue
+			}
+			seen[g.Name] = true
+			d, ok := c.m.Distribution(g.Name, ind.Key, sc.year)
+			if !ok || d.N == 0 {
+				continue // no comparison is written, so no caveat on it
+			}
+			if total := d.N + d.Missing; 100*float64(d.N) < MinCoverage*float64(total) {
+				f := CaveatFact{Seed: g.Name + ind.Key, Group: g.Name, Indicator: label, Year: printYear(sc.year),
+					N: printCount(d.N), Missing: printCount(d.Missing), Threshold: printCount(int(MinCoverage))}
+				s := c.say(ind.Key, c.w.LowCoverage(f), distKey(g.Name, ind.Key, sc.year, mN), distKey(g.Name, ind.Key, sc.year, mMissing))
+				s.Thresholds = []float64{MinCoverage}
+				out = append(out, s)
+			}
+		}
+	}
+	return out
+}
+
+func (c *composer) anyGroup(sc *scope) string {
+	if sc.ref != nil {
+		return sc.ref.Name
+	}
+	if len(sc.groups) > 0 {
+		return sc.groups[0].Name
+	}
+	return ""
+}
+
+// pppConverted reports whether a currency indicator was converted with
+// purchasing-power parities.
+func (c *composer) pppConverted(ind dataset.Indicator) bool {
+	ppp := c.m.Data.PPP
+	if !ind.Currency || ppp == nil {
+		return false
+	}
+	if len(ppp.Converted) == 0 {
+		return true
+	}
+	for _, k := range ppp.Converted {
+		if k == ind.Key {
+			return true
+		}
+	}
+	return false
+}
+
+// imputedWords mark a values-file note as saying the value was estimated
+// rather than reported.
+var imputedWords = []string{"imput", "estimat"}
+
+// imputed returns the note on the focus's value when it says the value
+// was imputed or estimated.
+func (c *composer) imputed(ind dataset.Indicator, year int) (string, bool) {
+	k := c.m.Data.Dictionary.Index(ind.Key)
+	note, ok := c.m.Data.Notes[dataset.CellRef{Indicator: k, Year: year, Institution: c.m.Focus}]
+	if !ok {
+		return "", false
+	}
+	low := strings.ToLower(note)
+	for _, w := range imputedWords {
+		if strings.Contains(low, w) {
+			return strings.TrimSpace(note), true
+		}
+	}
+	return "", false
+}

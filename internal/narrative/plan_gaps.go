@@ -1,0 +1,36 @@
+package narrative
+
+import (
+	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
+)
+
+// gap writes what it would take to reach the group's top-quarter
+// threshold (the upper quartile, or the lower quartile when lower is
+// better), when the focus has not reached it. Neutral indicators have no
+// target.
+func (c *composer) gap(g *figures.Group, ind dataset.Indicator, year int) []Sentence {
+	if !judged(ind) {
+		return nil
+	}
+	p, okp := c.m.Position(g.Name, ind.Key, c.m.Focus, year)
+	d, okd := c.m.Distribution(g.Name, ind.Key, year)
+	if !okp || !okd || !p.HasValue || p.Rank == 0 || d.N < 2 {
+		return nil
+	}
+	t := targetValue(ind, d)
+	if !ahead(ind, t, p.Value) {
+		return nil
+	}
+	id := c.m.FocusID
+	f := GapFact{Seed: posKey(g.Name, ind.Key, id, year, mGapBetter).String(), Focus: c.focus, Indicator: c.w.Indicator(ind),
+		Group: g.Name, Better: ind.Better, Target: printValue(ind, t), Value: printValue(ind, p.Value)}
+	cites := []figures.Key{distKey(g.Name, ind.Key, year, targetMeasure(ind))}
+	if p.GapQ3 > 0 && gapAgrees(ind, t, p.Value, p.GapQ3) {
+		f.Amount = printAmount(ind, p.GapQ3)
+		cites = append(cites, posKey(g.Name, ind.Key, id, year, mGapBetter))
+	} else {
+		cites = append(cites, posKey(g.Name, ind.Key, id, year, mValue))
+	}
+	return []Sentence{c.say(ind.Key, c.w.Gap(f), cites...)}
+}

@@ -1,0 +1,139 @@
+package narrative
+
+import (
+	"math"
+
+	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
+	"peerpack/internal/format"
+)
+
+// ties recovers how many members share the focus's value from the
+// position's own figures: with Rank = better + 1, Of = better + below +
+// ties and Percentile = 100 x (below + ties/2) / Of (figures/stats),
+// ties = 2 x (Of - Rank + 1 - Percentile x Of / 100).
+func ties(p *figures.Position) int {
+	if p.Rank <= 0 || p.Of <= 0 || math.IsNaN(p.Percentile) {
+		return 0
+	}
+	return int(math.Round(2 * (float64(p.Of-p.Rank+1) - p.Percentile*float64(p.Of)/100)))
+}
+
+// allMissing reports whether no group of the scope has a value of the
+// indicator in the year.
+func (c *composer) allMissing(sc *scope, ind dataset.Indicator) bool {
+	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
+		for _, g := range gs {
+			if d, ok := c.m.Distribution(g.Name, ind.Key, sc.year); ok && d.N > 0 {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// allMissingSentence says that nobody reports the indicator.
+func (c *composer) allMissingSentence(sc *scope, ind dataset.Indicator) Sentence {
+	var cites []figures.Key
+	for _, g := range sc.groups {
+		cites = append(cites, distKey(g.Name, ind.Key, sc.year, mN))
+	}
+	f := MissingFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind), Year: printYear(sc.year)}
+	return c.say(ind.Key, c.w.AllMissing(f), cites...)
+}
+
+// position writes where the focus stands in a group on an indicator: one
+// sentence for the rank and quartile and one for the distance to the
+// median and the top-quarter threshold, or one sentence saying why there
+// is no position.
+func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) []Sentence {
+	p, okp := c.m.Position(g.Name, ind.Key, c.m.Focus, year)
+	d, okd := c.m.Distribution(g.Name, ind.Key, year)
+	if !okp || !okd {
+		return nil
+	}
+	id := c.m.FocusID
+	seed := posKey(g.Name, ind.Key, id, year, "").String()
+	label := c.w.Indicator(ind)
+	if !p.HasValue {
+		f := MissingFact{Seed: seed, Focus: c.focus, Indicator: label, Group: g.Name, Year: printYear(year)}
+		cites := []figures.Key{posKey(g.Name, ind.Key, id, year, "has_value")}
+		if d.N > 0 {
+			f.Median = printValue(ind, d.Median)
+			cites = append(cites, distKey(g.Name, ind.Key, year, mMedian))
+		}
+		return []Sentence{c.say(ind.Key, c.w.FocusMissing(f), cites...)}
+	}
+	if d.N == 0 || p.Rank == 0 {
+		f := MissingFact{Seed: seed, Focus: c.focus, Indicator: label, Group: g.Name, Year: printYear(year)}
+		return []Sentence{c.say(ind.Key, c.w.GroupMissing(f), distKey(g.Name, ind.Key, year, mN))}
+	}
+	f := c.positionFact(g, ind, p, d)
+	f.Seed = seed
+	if p.InGroup && d.N == 1 {
+		return []Sentence{c.say(ind.Key, c.w.Alone(f), posKey(g.Name, ind.Key, id, year, mValue), distKey(g.Name, ind.Key, year, mN))}
+	}
+	cites := []figures.Key{posKey(g.Name, ind.Key, id, year, mValue), posKey(g.Name, ind.Key, id, year, mRank),
+		posKey(g.Name, ind.Key, id, year, mOf), posKey(g.Name, ind.Key, id, year, mQuartile)}
+	if !p.InGroup {
+		cites = append(cites, distKey(g.Name, ind.Key, year, mN))
+	}
+	out := []Sentence{c.say(ind.Key, c.w.Position(f), cites...)}
+	dc := []figures.Key{distKey(g.Name, ind.Key, year, mMedian)}
+	if f.GapMedian != "" {
+		dc = append(dc, posKey(g.Name, ind.Key, id, year, mGapMedian))
+	}
+	if f.Target != "" {
+		dc = append(dc, distKey(g.Name, ind.Key, year, targetMeasure(ind)))
+		if f.GapTarget != "" {
+			dc = append(dc, posKey(g.Name, ind.Key, id, year, mGapBetter))
+		}
+	}
+	return append(out, c.say(ind.Key, c.w.Distance(f), dc...))
+}
+
+// targetMeasure is the top-quarter threshold's measure: the upper quartile
+// when higher is better, the lower quartile when lower is better.
+func targetMeasure(ind dataset.Indicator) string {
+	if ind.Better == dataset.LowerIsBetter {
+		return mQ1
+	}
+	return mQ3
+}
+
+func targetValue(ind dataset.Indicator, d *figures.Distribution) float64 {
+	if ind.Better == dataset.LowerIsBetter {
+		return d.Q1
+	}
+	return d.Q3
+}
+
+// positionFact gathers and prints the figures of a position.
+func (c *composer) positionFact(g *figures.Group, ind dataset.Indicator, p *figures.Position, d *figures.Distribution) PositionFact {
+	f := PositionFact{
+		Focus: c.focus, Indicator: c.w.Indicator(ind), Group: g.Name, Better: ind.Better,
+		Year: printYear(p.Year), Value: printValue(ind, p.Value), Of: printCount(p.Of),
+		Quartile: p.Quartile, InGroup: p.InGroup, Members: printCount(d.N),
+		Median: printValue(ind, d.Median), VsMedian: printedCompare(ind, p.Value, d.Median),
+	}
+	f.Rank = format.Rank(p.Rank, c.b.RankBands)
+	_, _, f.Banded = format.RankBand(p.Rank, c.b.RankBands)
+	f.Joint = !f.Banded && ties(p) >= 2
+	f.Last = !f.Banded && !f.Joint && p.Of > 2 && p.Rank == p.Of
+	if !judged(ind) {
+		return f
+	}
+	behind := (ind.Better == dataset.HigherIsBetter && f.VsMedian == Below) || (ind.Better == dataset.LowerIsBetter && f.VsMedian == Above)
+	if behind && p.GapMedian > 0 && gapAgrees(ind, d.Median, p.Value, p.GapMedian) {
+		f.GapMedian = printAmount(ind, p.GapMedian)
+	}
+	if d.N >= 2 {
+		t := targetValue(ind, d)
+		f.Target = printValue(ind, t)
+		f.Reached = !ahead(ind, t, p.Value)
+		if !f.Reached && p.GapQ3 > 0 && gapAgrees(ind, t, p.Value, p.GapQ3) {
+			f.GapTarget = printAmount(ind, p.GapQ3)
+		}
+	}
+	return f
+}

@@ -1,0 +1,29 @@
+package narrative
+
+// The rules that decide when a caveat is written or a change is called
+// "broadly unchanged". They are printed in the pack where they apply, so a
+// reader can see the rule behind the words.
+const (
+	// SmallGroup: a group with fewer members reporting an indicator than
+	// this gets a small-group caveat; quartiles of fewer than ten values
+	// move a lot when one member changes (common practice, no source).
+	SmallGroup = 10
+	// MinCoverage: a group where fewer than this percentage of members
+	// report an indicator gets a coverage caveat (common practice, no
+	// source).
+	MinCoverage = 70.0
+	// NoiseIQRShare: a change whose size is below this share of the
+	// group's interquartile range in the last year is "broadly
+	// unchanged", as is any change that rounds to zero at the indicator's
+	// declared decimals (below half a unit of the last decimal). Moves of a
+	// twentieth of the spread between institutions are within what
+	// revisions and reporting practice shift from year to year (common
+	// practice, no source).
+	NoiseIQRShare = 0.05
+	// When the number of members reporting changed between the two ends
+	// of a span, changes are stated in percentiles by the figures model's
+	// own rule (figures.SizeChanged), so tables and sentences agree.
+	// SummaryItems is how many strengths and risks the executive summary
+	// names.
+	SummaryItems = 3
+)

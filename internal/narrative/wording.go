@@ -1,0 +1,231 @@
+package narrative
+
+import (
+	"fmt"
+
+	"peerpack/internal/dataset"
+)
+
+// Wording turns planned facts into sentences of one language. Every word
+// a reader sees comes from a Wording; the planner only decides what to
+// say and hands over figures already printed by package format. To add a
+// language, implement Wording in a new wording_xx.go and register it in
+// WordingFor.
+//
+// Each method returns one sentence, starting with a capital letter and
+// ending with a full stop. Facts carry a Seed: the figure key a sentence
+// is about, from which the wording picks one of its phrasings.
+type Wording interface {
+	// Indicator is the indicator's label as it reads inside a sentence.
+	Indicator(ind dataset.Indicator) string
+	// List joins items: "a, b and c".
+	List(items []string) string
+	// Heading is a run-in heading for a topic ("Strengths").
+	Heading(topic string) string
+
+	Position(f PositionFact) string
+	Distance(f PositionFact) string
+	FocusMissing(f MissingFact) string
+	GroupMissing(f MissingFact) string
+	AllMissing(f MissingFact) string
+	Alone(f PositionFact) string
+
+	Change(f ChangeFact) string
+	ChangeMedian(f ChangeFact) string
+	ChangePercentile(f ChangeFact) string
+
+	Overview(f OverviewFact) string
+	Strengths(f RankedFact) string
+	Risks(f RankedFact) string
+	Headline(f ChangeFact) string
+
+	CompetitionPlace(f CompetitionFact) string
+	CompetitionAhead(f CompetitionFact) string
+	CompetitionBehind(f CompetitionFact) string
+
+	Gap(f GapFact) string
+
+	SmallGroup(f CaveatFact) string
+	LowCoverage(f CaveatFact) string
+	Imputed(f CaveatFact) string
+	PPP(f CaveatFact) string
+	Judgement(f CaveatFact) string
+	OneCountry(f CaveatFact) string
+	Cautions() string
+}
+
+// WordingFor returns the wording for a brief's language (en-GB, the
+// default, or en-US).
+func WordingFor(lang string) (Wording, error) {
+	switch lang {
+	case "", "en-GB":
+		return english{us: false}, nil
+	case "en-US":
+		return english{us: true}, nil
+	}
+	return nil, fmt.Errorf("language %q has no commentary wording; use en-GB or en-US", lang)
+}
+
+// Relation of a value to a reference, judged on the printed digits so
+// that "above" is never said of a value that prints equal.
+const (
+	Below = -1
+	Level = 0
+	Above = 1
+)
+
+// PositionFact is where the focus stands in one group on one indicator.
+type PositionFact struct {
+	Seed      string
+	Focus     string
+	Indicator string
+	Group     string
+	Better    dataset.Polarity
+	Year      string
+	Value     string
+	// Rank is "6th" or a band "201–250" (Banded); Joint marks a shared
+	// rank.
+	Rank   string
+	Banded bool
+	Joint  bool
+	// Last marks the last place of several (not shared).
+	Last bool
+	Of   string
+	// Quartile is 1 (best quarter) to 4.
+	Quartile int
+	InGroup  bool
+	// Members is the number of members with a value (outside groups).
+	Members string
+	Median  string
+	// VsMedian is the value against the median by printed digits.
+	VsMedian int
+	// GapMedian is the printed distance to the median, "" when the
+	// distance would contradict the printed values.
+	GapMedian string
+	// Target is the top-quarter threshold (Q3, or Q1 when lower is better)
+	// and GapTarget the printed distance still to go ("" once reached).
+	Target    string
+	GapTarget string
+	Reached   bool
+	// Country is set when every member of the group is in one country.
+	Country string
+}
+
+// MissingFact describes a value that is not there.
+type MissingFact struct {
+	Seed      string
+	Focus     string
+	Indicator string
+	Group     string
+	Year      string
+	Median    string
+	Of        string
+}
+
+// ChangeFact is the focus's movement over the span in a group.
+type ChangeFact struct {
+	Seed      string
+	Focus     string
+	Indicator string
+	Group     string
+	Better    dataset.Polarity
+	FromYear  string
+	ToYear    string
+	From, To  string
+	// Direction is Above (rose), Below (fell) or Level (broadly
+	// unchanged: within the noise threshold).
+	Direction int
+	Diff      string
+	// NoiseIQR is the printed interquartile range when a change was called
+	// broadly unchanged for being small beside it.
+	NoiseIQR string
+	// MedianFrom and MedianTo are the group median at both ends;
+	// MedianDirection as Direction.
+	MedianFrom, MedianTo string
+	MedianDirection      int
+	// PctFrom and PctTo are percentile ranks at both ends ("60th").
+	PctFrom, PctTo string
+	// Resized is set when the number of members reporting changed by
+	// MembershipShift or more; SizeFrom and SizeTo are those numbers.
+	Resized          bool
+	Shrank           bool
+	SizeFrom, SizeTo string
+	// PctDirection is Above when the percentile rose, Below when it fell.
+	PctDirection int
+}
+
+// OverviewFact lists the indicators in the best and worst quarter of the
+// reference group.
+type OverviewFact struct {
+	Seed   string
+	Focus  string
+	Group  string
+	Top    []string
+	Bottom []string
+}
+
+// RankedItem is one strength or risk: an indicator and its percentile.
+type RankedItem struct {
+	Indicator  string
+	Percentile string
+	Value      string
+}
+
+// RankedFact lists strengths or risks in a group.
+type RankedFact struct {
+	Seed  string
+	Focus string
+	Group string
+	Items []RankedItem
+}
+
+// CompetitionFact describes the focus placed inside a competitor system.
+type CompetitionFact struct {
+	Seed   string
+	Focus  string
+	System string
+	// InSystem is set when the focus belongs to the system.
+	InSystem bool
+	Top      []string
+	Bottom   []string
+	// Ahead lists the indicators where the system's median is better
+	// than the focus, with both printed values.
+	Ahead []AheadItem
+}
+
+// AheadItem is one indicator where a competitor median leads.
+type AheadItem struct {
+	Indicator string
+	Median    string
+	Value     string
+}
+
+// GapFact is the distance to the top-quarter threshold of a group.
+type GapFact struct {
+	Seed      string
+	Focus     string
+	Indicator string
+	Group     string
+	Better    dataset.Polarity
+	Target    string
+	// Amount is the printed distance, "" when it would contradict the
+	// printed values; Value is the focus's printed value.
+	Amount string
+	Value  string
+}
+
+// CaveatFact carries what a caveat names.
+type CaveatFact struct {
+	Seed      string
+	Focus     string
+	Indicator string
+	Group     string
+	Better    dataset.Polarity
+	Year      string
+	N         string
+	Missing   string
+	Threshold string
+	Note      string
+	Judgement string
+	Country   string
+}

@@ -1,0 +1,513 @@
+package narrative
+
+import (
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"peerpack/internal/dataset"
+)
+
+// english is the commentary's English wording; us selects American
+// spelling and the serial comma. Templates name their slots in braces
+// ({focus}); spelling is applied to the template only, never to names
+// filled in from the data (an institution called "Centre for ..." keeps
+// its name).
+type english struct{ us bool }
+
+// usSpelling maps the British spellings the templates use to American
+// ones. Every British spelling in this file must have its pair here.
+var usSpelling = strings.NewReplacer(
+	"judgement", "judgment",
+	"unfavourable", "unfavorable",
+	"favourable", "favorable",
+	"analysed", "analyzed",
+)
+
+// fill applies spelling to the template's own words (not its slot
+// names), then puts the values in its slots (given as slot, value pairs),
+// and capitalises the first letter.
+func (e english) fill(tmpl string, kv ...string) string {
+	if e.us {
+		tmpl = spellOutsideSlots(tmpl)
+	}
+	pairs := make([]string, 0, len(kv))
+	for i := 0; i+1 < len(kv); i += 2 {
+		pairs = append(pairs, "{"+kv[i]+"}", kv[i+1])
+	}
+	return capitalise(strings.NewReplacer(pairs...).Replace(tmpl))
+}
+
+// spellOutsideSlots applies American spelling to the text between slots.
+func spellOutsideSlots(tmpl string) string {
+	var b strings.Builder
+	for tmpl != "" {
+		i := strings.IndexByte(tmpl, '{')
+		if i < 0 {
+			b.WriteString(usSpelling.Replace(tmpl))
+			break
+		}
+		j := strings.IndexByte(tmpl[i:], '}')
+		if j < 0 {
+			b.WriteString(usSpelling.Replace(tmpl))
+			break
+		}
+		b.WriteString(usSpelling.Replace(tmpl[:i]))
+		b.WriteString(tmpl[i : i+j+1])
+		tmpl = tmpl[i+j+1:]
+	}
+	return b.String()
+}
+
+func capitalise(s string) string {
+	r, n := utf8.DecodeRuneInString(s)
+	if r == utf8.RuneError || unicode.IsUpper(r) {
+		return s
+	}
+	return string(unicode.ToUpper(r)) + s[n:]
+}
+
+// Indicator lowers the first letter of a label for use inside a sentence,
+// unless the label starts with an abbreviation ("FWCI", "PhD share").
+func (english) Indicator(ind dataset.Indicator) string {
+	label := ind.Label
+	if label == "" {
+		label = ind.Key
+	}
+	return lowerFirst(label)
+}
+
+// List joins items as "a, b and c" (British) or "a, b, and c" (American).
+func (e english) List(items []string) string {
+	switch len(items) {
+	case 0:
+		return ""
+	case 1:
+		return items[0]
+	case 2:
+		return items[0] + " and " + items[1]
+	}
+	last := " and "
+	if e.us {
+		last = ", and "
+	}
+	return strings.Join(items[:len(items)-1], ", ") + last + items[len(items)-1]
+}
+
+var englishHeadings = map[string]string{
+	"summary":     "Summary",
+	"position":    "Position",
+	"change":      "Change",
+	"strengths":   "Strengths and risks",
+	"competition": "Competitor systems",
+	"gaps":        "Gaps",
+	"caveats":     "Reading these figures",
+}
+
+// Heading names a topic.
+func (english) Heading(topic string) string {
+	if h, ok := englishHeadings[topic]; ok {
+		return h
+	}
+	return capitalise(topic)
+}
+
+// possessive: "Veldra's", "Arnholt Studies'".
+func possessive(name string) string {
+	if strings.HasSuffix(name, "s") {
+		return name + "'"
+	}
+	return name + "'s"
+}
+
+func (english) rank(f PositionFact) string {
+	if f.Banded {
+		return "in the " + f.Rank + " band of " + f.Of
+	}
+	if f.Last {
+		if f.Better == dataset.Neutral {
+			return "lowest of " + f.Of
+		}
+		return "last of " + f.Of
+	}
+	r := f.Rank
+	if f.Joint {
+		r = "joint " + r
+	}
+	if f.Better == dataset.Neutral {
+		r += " highest"
+	}
+	return r + " of " + f.Of
+}
+
+var judgedQuarter = [5]string{"", "in the top quarter", "in the second quarter", "in the third quarter", "in the bottom quarter"}
+var neutralQuarter = [5]string{"", "among the highest quarter of values", "in the second-highest quarter of values", "in the second-lowest quarter of values", "among the lowest quarter of values"}
+
+func (english) quarter(better dataset.Polarity, q int) string {
+	if q < 1 || q > 4 {
+		return ""
+	}
+	if better == dataset.Neutral {
+		return neutralQuarter[q]
+	}
+	return judgedQuarter[q]
+}
+
+// Position: value, rank of n and quartile in a group.
+func (e english) Position(f PositionFact) string {
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group,
+		"value", f.Value, "year", f.Year, "rank", e.rank(f), "quarter", e.quarter(f.Better, f.Quartile), "members", f.Members}
+	if !f.InGroup {
+		return e.fill("{focus} is not a member of {group}; placed among the {members} members that report {ind}, its {value} in {year} would rank {rank}, {quarter}.", kv...)
+	}
+	tmpl := [...]string{
+		"At {value} in {year}, {focus's} {ind} ranks {rank} in {group}, {quarter}.",
+		"{focus} ranks {rank} in {group} on {ind} ({value} in {year}), {quarter}.",
+		"On {ind}, {focus} stands {rank} in {group} at {value} in {year}, {quarter}.",
+	}
+	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+}
+
+// Distance: how far from the median and the top-quarter threshold.
+func (e english) Distance(f PositionFact) string {
+	rel := "level with"
+	switch {
+	case f.VsMedian == Above && f.GapMedian != "":
+		rel = f.GapMedian + " above"
+	case f.VsMedian == Above:
+		rel = "above"
+	case f.VsMedian == Below && f.GapMedian != "":
+		rel = f.GapMedian + " below"
+	case f.VsMedian == Below:
+		rel = "below"
+	}
+	tail := ""
+	if f.Better == dataset.LowerIsBetter && f.VsMedian != Level {
+		if f.VsMedian == Below {
+			tail = ", which is favourable as lower is better here"
+		} else {
+			tail = ", which is unfavourable as lower is better here"
+		}
+	}
+	target := ""
+	if f.Better != dataset.Neutral && f.Target != "" {
+		q := "upper quartile"
+		if f.Better == dataset.LowerIsBetter {
+			q = "lower quartile"
+		}
+		switch {
+		case f.Reached:
+			target = "; it has reached the " + q + " ({target})"
+		case f.GapTarget != "":
+			target = "; it is " + f.GapTarget + " short of the " + q + " ({target})"
+		default:
+			target = "; it is short of the " + q + " ({target})"
+		}
+	}
+	kv := []string{"focus", f.Focus, "group", f.Group, "median", f.Median, "target", f.Target, "rel", rel}
+	tmpl := [...]string{
+		"That is {rel} the group median of {median}" + tail + target + ".",
+		"The median of {group} is {median}, and {focus} is {rel} it" + tail + target + ".",
+	}
+	return e.fill(tmpl[variant(f.Seed+"/distance", len(tmpl))], kv...)
+}
+
+// FocusMissing: the focus reports no value.
+func (e english) FocusMissing(f MissingFact) string {
+	kv := []string{"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "year", f.Year, "median", f.Median}
+	if f.Median == "" {
+		return e.fill("{focus} reports no {ind} for {year}, so it cannot be placed in {group}.", kv...)
+	}
+	tmpl := [...]string{
+		"{focus} reports no {ind} for {year}, so it cannot be placed in {group}, whose median is {median}.",
+		"With no {ind} reported for {year}, {focus} has no place in {group}; the group median is {median}.",
+	}
+	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+}
+
+// GroupMissing: no member of the group reports the indicator.
+func (e english) GroupMissing(f MissingFact) string {
+	return e.fill("No member of {group} reports {ind} for {year}, so {focus} cannot be compared with it.",
+		"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "year", f.Year)
+}
+
+// AllMissing: no comparison group has the indicator at all.
+func (e english) AllMissing(f MissingFact) string {
+	return e.fill("No institution in any comparison group reports {ind} for {year}, so the pack makes no comparison on it.",
+		"ind", f.Indicator, "year", f.Year)
+}
+
+// Alone: the focus is the only member with a value.
+func (e english) Alone(f PositionFact) string {
+	return e.fill("{focus} is the only member of {group} that reports {ind} ({value} in {year}), so there is nothing to compare it with.",
+		"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "value", f.Value, "year", f.Year)
+}
+
+// Change: the focus's own movement over the span.
+func (e english) Change(f ChangeFact) string {
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "from", f.From, "to", f.To,
+		"fromYear", f.FromYear, "toYear", f.ToYear, "diff", f.Diff, "iqr", f.NoiseIQR}
+	if f.Direction == Level {
+		switch {
+		case f.From == f.To:
+			return e.fill("{focus's} {ind} was broadly unchanged at {to} between {fromYear} and {toYear}.", kv...)
+		case f.NoiseIQR != "":
+			// "a twentieth" is NoiseIQRShare in words.
+			return e.fill("{focus's} {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement of less than a twentieth of the group's interquartile range ({iqr}).", kv...)
+		}
+		return e.fill("{focus's} {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement smaller than the last decimal the data reports.", kv...)
+	}
+	verb, verbed, noun := "risen", "rose", "a rise"
+	if f.Direction == Below {
+		verb, verbed, noun = "fallen", "fell", "a fall"
+	}
+	if f.Diff == "" {
+		return e.fill("Since {fromYear}, {focus's} {ind} has "+verb+" from {from} to {to}.", kv...)
+	}
+	tmpl := [...]string{
+		"Since {fromYear}, {focus's} {ind} has " + verb + " from {from} to {to}, " + noun + " of {diff}.",
+		"{focus's} {ind} " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}.",
+	}
+	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+}
+
+// ChangeMedian: the group median's movement and what it meant for the
+// focus's standing.
+func (e english) ChangeMedian(f ChangeFact) string {
+	kv := []string{"focus", f.Focus, "group", f.Group, "mf", f.MedianFrom, "mt", f.MedianTo, "pf", f.PctFrom, "pt", f.PctTo}
+	moved := "moved from {mf} to {mt}"
+	switch f.MedianDirection {
+	case Above:
+		moved = "rose from {mf} to {mt}"
+	case Below:
+		moved = "fell from {mf} to {mt}"
+	case Level:
+		moved = "was broadly unchanged ({mf}, then {mt})"
+		if f.MedianFrom == f.MedianTo {
+			moved = "stayed at {mt}"
+		}
+	}
+	tail := ""
+	switch {
+	case f.Resized || f.PctFrom == "":
+		// The percentile sentence that follows says what it meant, or
+		// there are no percentiles to compare.
+	case f.Better == dataset.Neutral && f.PctDirection != Level:
+		tail = ", taking {focus} from the {pf} to the {pt} percentile"
+	case f.Better == dataset.Neutral:
+		tail = ", leaving {focus} at the {pt} percentile"
+	case f.PctDirection == Above:
+		tail = ", so {focus} gained ground, from the {pf} to the {pt} percentile"
+	case f.PctDirection == Below:
+		tail = ", so {focus} lost ground, from the {pf} to the {pt} percentile"
+	default:
+		tail = ", and {focus} held its place at the {pt} percentile"
+	}
+	tmpl := [...]string{
+		"Over the same years the median of {group} " + moved + tail + ".",
+		"The {group} median " + moved + " over the period" + tail + ".",
+	}
+	return e.fill(tmpl[variant(f.Seed+"/median", len(tmpl))], kv...)
+}
+
+// ChangePercentile: membership changed a lot, so percentiles are compared.
+func (e english) ChangePercentile(f ChangeFact) string {
+	grew := "grew"
+	if f.Shrank {
+		grew = "fell"
+	}
+	moved := "moved from the {pf} to the {pt} percentile"
+	if f.PctFrom == f.PctTo {
+		moved = "stayed at the {pt} percentile"
+	}
+	return e.fill("Because the number of {group} members reporting "+grew+" from {sf} to {st}, ranks from the two years do not compare; by percentile, {focus} "+moved+".",
+		"focus", f.Focus, "group", f.Group, "sf", f.SizeFrom, "st", f.SizeTo, "pf", f.PctFrom, "pt", f.PctTo)
+}
+
+// Overview: which indicators are in the best and worst quarter.
+func (e english) Overview(f OverviewFact) string {
+	kv := []string{"focus", f.Focus, "group", f.Group, "top", e.List(f.Top), "bottom", e.List(f.Bottom)}
+	switch {
+	case len(f.Top) > 0 && len(f.Bottom) > 0:
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
+	case len(f.Top) > 0:
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on no indicator.", kv...)
+	case len(f.Bottom) > 0:
+		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, and in the top quarter on no indicator.", kv...)
+	}
+	return e.fill("Within {group}, {focus} sits in the middle half on every indicator, in neither the top nor the bottom quarter.", kv...)
+}
+
+func (e english) ranked(items []RankedItem) string {
+	parts := make([]string, len(items))
+	for i, it := range items {
+		if i == 0 {
+			parts[i] = it.Indicator + " (" + it.Percentile + " percentile)"
+		} else {
+			parts[i] = it.Indicator + " (" + it.Percentile + ")"
+		}
+	}
+	return e.List(parts)
+}
+
+// Strengths: the indicators furthest above the group.
+func (e english) Strengths(f RankedFact) string {
+	tmpl := [...]string{
+		"Its strongest positions in {group} are on {items}.",
+		"Measured against {group}, the strengths are {items}.",
+	}
+	if len(f.Items) == 1 {
+		tmpl = [...]string{"Its strongest position in {group} is on {items}.", "Measured against {group}, the clearest strength is {items}."}
+	}
+	return e.fill(tmpl[variant(f.Seed, len(tmpl))], "group", f.Group, "items", e.ranked(f.Items))
+}
+
+// Risks: the indicators furthest below the group.
+func (e english) Risks(f RankedFact) string {
+	if len(f.Items) == 1 {
+		tmpl := [...]string{"Its weakest position is on {items}.", "The main risk is {items}."}
+		return e.fill(tmpl[variant(f.Seed, len(tmpl))], "items", e.ranked(f.Items))
+	}
+	tmpl := [...]string{
+		"Its weakest positions are on {items}.",
+		"The main risks are {items}.",
+	}
+	return e.fill(tmpl[variant(f.Seed, len(tmpl))], "items", e.ranked(f.Items))
+}
+
+// Headline: the largest movement of the span.
+func (e english) Headline(f ChangeFact) string {
+	verb := "moved"
+	if f.Better != dataset.Neutral {
+		verb = "improved"
+		if f.PctDirection == Below {
+			verb = "slipped"
+		}
+	}
+	return e.fill("The largest movement between {fromYear} and {toYear} is in {ind}, where {focus} "+verb+" from the {pf} to the {pt} percentile of {group}.",
+		"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "fromYear", f.FromYear, "toYear", f.ToYear, "pf", f.PctFrom, "pt", f.PctTo)
+}
+
+// CompetitionPlace: where the focus would sit inside a competitor system.
+func (e english) CompetitionPlace(f CompetitionFact) string {
+	kv := []string{"focus", f.Focus, "system", f.System, "top", e.List(f.Top), "bottom", e.List(f.Bottom)}
+	lead, be, sit := "Placed among the institutions of {system}, {focus} would", " be", " sit"
+	if f.InSystem {
+		lead, be, sit = "Among the institutions of {system}, {focus}", " is", " sits"
+	}
+	switch {
+	case len(f.Top) > 0 && len(f.Bottom) > 0:
+		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
+	case len(f.Top) > 0:
+		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on no indicator.", kv...)
+	case len(f.Bottom) > 0:
+		return e.fill(lead+be+" in the bottom quarter on {bottom}, and in the top quarter on no indicator.", kv...)
+	}
+	return e.fill(lead+sit+" in the middle half on every indicator here.", kv...)
+}
+
+// CompetitionAhead: where the competitor's median leads.
+func (e english) CompetitionAhead(f CompetitionFact) string {
+	parts := make([]string, len(f.Ahead))
+	for i, a := range f.Ahead {
+		parts[i] = a.Indicator + " (" + a.Median + " against " + a.Value + ")"
+	}
+	return e.fill("{system's} median is ahead of {focus} on {items}.",
+		"system's", possessive(f.System), "focus", f.Focus, "items", e.List(parts))
+}
+
+// CompetitionBehind: the competitor's median leads nowhere.
+func (e english) CompetitionBehind(f CompetitionFact) string {
+	return e.fill("{system's} median is not ahead of {focus} on any of these indicators.",
+		"system's", possessive(f.System), "focus", f.Focus)
+}
+
+// Gap: what it takes to reach the top-quarter threshold.
+func (e english) Gap(f GapFact) string {
+	q, change := "upper quartile", "an increase"
+	if f.Better == dataset.LowerIsBetter {
+		q, change = "lower quartile", "a reduction"
+	}
+	kv := []string{"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value}
+	if f.Amount == "" {
+		return e.fill("Reaching the "+q+" of {group} would take {focus's} {ind} from {value} to {target}.", append(kv, "focus's", possessive(f.Focus))...)
+	}
+	tmpl := [...]string{
+		"Reaching the " + q + " of {group} ({target}) would take " + change + " of {amount} in {ind}.",
+		"To reach the top quarter of {group} on {ind}, {focus} would need " + change + " of {amount}, to {target}.",
+	}
+	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+}
+
+// SmallGroup: fewer members than quartiles can bear.
+func (e english) SmallGroup(f CaveatFact) string {
+	return e.fill("{group} has {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, so its ranks are indicative only.",
+		"group", f.Group, "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
+}
+
+func pluralMembers(n string) string {
+	if n == "1" {
+		return "member"
+	}
+	return "members"
+}
+
+// LowCoverage: too few members report.
+func (e english) LowCoverage(f CaveatFact) string {
+	return e.fill("Only {n} {members} of {group} report {ind} for {year} and {missing} do not, under the {threshold}% coverage that common practice asks for; those not reporting may differ from those that do.",
+		"group", f.Group, "n", f.N, "members", pluralMembers(f.N), "ind", f.Indicator, "year", f.Year, "missing", f.Missing, "threshold", f.Threshold)
+}
+
+// Imputed: the focus's value was estimated.
+func (e english) Imputed(f CaveatFact) string {
+	return e.fill("{focus's} {ind} for {year} is an estimate rather than a reported figure ({note}).",
+		"focus's", possessive(f.Focus), "ind", f.Indicator, "year", f.Year, "note", strings.TrimRight(f.Note, ". "))
+}
+
+// PPP: currency converted with purchasing-power parities.
+func (e english) PPP(f CaveatFact) string {
+	return e.fill("{ind} is converted from each country's currency with purchasing-power parity factors for each year, so it compares what the money buys rather than exchange-rate amounts.",
+		"ind", f.Indicator)
+}
+
+// Judgement: the indicator's direction is a value judgement.
+func (e english) Judgement(f CaveatFact) string {
+	dir := "higher"
+	if f.Better == dataset.LowerIsBetter {
+		dir = "lower"
+	}
+	j := strings.TrimSpace(f.Judgement)
+	if j != "" && !strings.HasSuffix(j, ".") {
+		j += "."
+	}
+	return e.fill("Counting "+dir+" {ind} as better is a value judgement: {reason}", "ind", f.Indicator, "reason", lowerFirst(j))
+}
+
+// lowerFirst lowers the first letter of a text that goes inside a
+// sentence, unless its first word has another capital (an abbreviation
+// such as "FWCI" or "PhD").
+func lowerFirst(s string) string {
+	r, n := utf8.DecodeRuneInString(s)
+	if r == utf8.RuneError || !unicode.IsUpper(r) {
+		return s
+	}
+	word := s[n:]
+	if i := strings.IndexFunc(word, unicode.IsSpace); i >= 0 {
+		word = word[:i]
+	}
+	if strings.IndexFunc(word, unicode.IsUpper) >= 0 {
+		return s
+	}
+	return string(unicode.ToLower(r)) + s[n:]
+}
+
+// OneCountry: every member is in one country.
+func (e english) OneCountry(f CaveatFact) string {
+	return e.fill("Every member of {group} is in {country}, so it compares {focus} within one national system only.",
+		"group", f.Group, "country", f.Country, "focus", f.Focus)
+}
+
+// Cautions: what every pack says about its figures.
+func (e english) Cautions() string {
+	return e.fill("Ranks and percentiles depend on which institutions report and on how each indicator is defined; the direction counted as better is a value judgement, small differences are within the uncertainty of the data, and the figures do not measure everything a university does.")
+}

@@ -1,0 +1,380 @@
+package pdf
+
+import (
+	"bytes"
+	"image"
+	"image/color"
+	"image/draw"
+	"image/png"
+	"math"
+	"strconv"
+
+	stdfnt "golang.org/x/image/font"
+	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/vg"
+)
+
+// Canvas is a vg.Canvas drawing into a rectangle of the document's current
+// page. It writes PDF content operators directly (ISO 32000-1, section 8:
+// q/Q, cm, m/l/c/h, S/f, re W n), in points with the origin at the
+// rectangle's bottom-left corner and y upwards, which is gonum's
+// convention, so vg's transforms map one-to-one onto the PDF graphics
+// state. Text goes through the document's own UTF-8 fonts, so chart labels
+// use the same embedded, subset faces as the body text.
+//
+// Close must be called before anything else is drawn on the page.
+type Canvas struct {
+	d      *Doc
+	w, h   vg.Length
+	stack  []canvasState
+	buf    []byte
+	closed bool
+	font   Font // the document's font before the canvas opened
+}
+
+type canvasState struct {
+	stroke, fill color.NRGBA
+	alpha        float64
+	width        vg.Length
+}
+
+// Canvas opens a canvas over the rectangle x, y (top-left), w, h in mm of
+// the current page. Drawing is clipped to the rectangle.
+func (d *Doc) Canvas(x, y, w, h float64) *Canvas {
+	c := &Canvas{d: d, w: vg.Length(w * PointsPerMM), h: vg.Length(h * PointsPerMM), font: d.cur}
+	d.canvasOn = true
+	// fpdf's notion of fill and text colour must agree so that Text does
+	// not wrap itself in its own colour (see FillString).
+	d.f.SetFillColor(0, 0, 0)
+	d.f.SetTextColor(0, 0, 0)
+	k := PointsPerMM
+	x0, y0 := x*k, (d.opt.Paper.Height-y-h)*k
+	c.raw("q")
+	c.raw(num(x0) + " " + num(y0) + " " + num(w*k) + " " + num(h*k) + " re W n")
+	c.raw("1 0 0 1 " + num(x0) + " " + num(y0) + " cm")
+	c.stack = []canvasState{{stroke: color.NRGBA{A: 255}, fill: color.NRGBA{A: 255}, alpha: 1, width: 1}}
+	c.raw("0 0 0 RG 0 0 0 rg 1 w [] 0 d 0 J 0 j")
+	return c
+}
+
+// Close ends the canvas and restores the document's graphics state.
+func (c *Canvas) Close() {
+	if c.closed {
+		return
+	}
+	c.closed = true
+	for len(c.stack) > 1 {
+		c.Pop()
+	}
+	c.raw("Q")
+	d := c.d
+	d.canvasOn = false
+	// Q restored the PDF state; tell fpdf what it now is.
+	d.f.SetAlpha(1, "Normal")
+	d.f.SetLineWidth(0.2)
+	d.f.SetDashPattern(nil, 0)
+	d.f.SetDrawColor(0, 0, 0)
+	d.f.SetFillColor(255, 255, 255)
+	d.SetTextColor(d.text)
+	d.SetFont(c.font)
+}
+
+func (c *Canvas) raw(s string) { c.d.f.RawWriteStr(s) }
+
+func (c *Canvas) top() *canvasState { return &c.stack[len(c.stack)-1] }
+
+// num formats a coordinate with at most 3 decimals (1/1000 pt is far below
+// any printer's resolution) and no exponent.
+func num(v float64) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		v = 0
+	}
+	s := strconv.FormatFloat(v, 'f', 3, 64)
+	// Trim trailing zeros for smaller streams.
+	for len(s) > 1 && s[len(s)-1] == '0' {
+		s = s[:len(s)-1]
+	}
+	if s[len(s)-1] == '.' {
+		s = s[:len(s)-1]
+	}
+	if s == "-0" {
+		s = "0"
+	}
+	return s
+}
+
+// Size implements vg.Canvas.
+func (c *Canvas) Size() (w, h vg.Length) { return c.w, c.h }
+
+// SetLineWidth implements vg.Canvas.
+func (c *Canvas) SetLineWidth(w vg.Length) {
+	c.top().width = w
+	c.raw(num(float64(w)) + " w")
+}
+
+// SetLineDash implements vg.Canvas.
+func (c *Canvas) SetLineDash(pattern []vg.Length, offset vg.Length) {
+	b := []byte{'['}
+	for i, p := range pattern {
+		if i > 0 {
+			b = append(b, ' ')
+		}
+		b = append(b, num(float64(p))...)
+	}
+	b = append(b, "] "...)
+	b = append(b, num(float64(offset))...)
+	b = append(b, " d"...)
+	c.raw(string(b))
+}
+
+// SetColor implements vg.Canvas: it sets stroke, fill and text colour, and
+// the constant alpha through an ExtGState when the colour is translucent.
+func (c *Canvas) SetColor(clr color.Color) {
+	if clr == nil {
+		clr = color.Black
+	}
+	n := color.NRGBAModel.Convert(clr).(color.NRGBA)
+	st := c.top()
+	st.stroke, st.fill = n, n
+	rgb := num(float64(n.R)/255) + " " + num(float64(n.G)/255) + " " + num(float64(n.B)/255)
+	c.raw(rgb + " RG " + rgb + " rg")
+	a := math.Round(float64(n.A)/255*1000) / 1000
+	if a != st.alpha {
+		st.alpha = a
+		c.d.f.SetAlpha(a, "Normal")
+	}
+}
+
+// Rotate implements vg.Canvas (radians, anticlockwise).
+func (c *Canvas) Rotate(rad float64) {
+	s, co := math.Sincos(rad)
+	c.raw(num(co) + " " + num(s) + " " + num(-s) + " " + num(co) + " 0 0 cm")
+}
+
+// Translate implements vg.Canvas.
+func (c *Canvas) Translate(pt vg.Point) {
+	c.raw("1 0 0 1 " + num(float64(pt.X)) + " " + num(float64(pt.Y)) + " cm")
+}
+
+// Scale implements vg.Canvas.
+func (c *Canvas) Scale(x, y float64) {
+	c.raw(num(x) + " 0 0 " + num(y) + " 0 0 cm")
+}
+
+// Push implements vg.Canvas.
+func (c *Canvas) Push() {
+	c.stack = append(c.stack, *c.top())
+	c.raw("q")
+}
+
+// Pop implements vg.Canvas.
+func (c *Canvas) Pop() {
+	if len(c.stack) <= 1 {
+		return
+	}
+	prev := c.top().alpha
+	c.stack = c.stack[:len(c.stack)-1]
+	c.raw("Q")
+	if c.top().alpha != prev {
+		// Q restored the ExtGState already; keep fpdf's record in step.
+		c.d.f.SetAlpha(c.top().alpha, "Normal")
+	}
+}
+
+// Stroke implements vg.Canvas.
+func (c *Canvas) Stroke(p vg.Path) {
+	if c.top().width <= 0 || len(p) == 0 {
+		return
+	}
+	c.path(p, "S")
+}
+
+// Fill implements vg.Canvas (non-zero winding rule).
+func (c *Canvas) Fill(p vg.Path) {
+	if len(p) == 0 {
+		return
+	}
+	c.path(p, "f")
+}
+
+// pathWriter accumulates one path's operators.
+type pathWriter struct{ b []byte }
+
+func (w *pathWriter) pt(x, y vg.Length) {
+	w.b = append(w.b, num(float64(x))...)
+	w.b = append(w.b, ' ')
+	w.b = append(w.b, num(float64(y))...)
+	w.b = append(w.b, ' ')
+}
+
+func (w *pathWriter) op(s string) {
+	w.b = append(w.b, s...)
+	w.b = append(w.b, ' ')
+}
+
+func (c *Canvas) path(p vg.Path, op string) {
+	w := &pathWriter{b: c.buf[:0]}
+	var cur, start vg.Point
+	open := false
+	for _, comp := range p {
+		switch comp.Type {
+		case vg.MoveComp:
+			w.pt(comp.Pos.X, comp.Pos.Y)
+			w.op("m")
+			cur, start, open = comp.Pos, comp.Pos, true
+		case vg.LineComp:
+			w.pt(comp.Pos.X, comp.Pos.Y)
+			w.op(lineOrMove(open))
+			cur, open = comp.Pos, true
+		case vg.CurveComp:
+			if !open {
+				w.pt(cur.X, cur.Y)
+				w.op("m")
+				open = true
+			}
+			switch len(comp.Control) {
+			case 1:
+				// Raise the quadratic to a cubic: control points 2/3 of the
+				// way from each end to the quadratic control point.
+				q := comp.Control[0]
+				w.pt(cur.X+2*(q.X-cur.X)/3, cur.Y+2*(q.Y-cur.Y)/3)
+				w.pt(comp.Pos.X+2*(q.X-comp.Pos.X)/3, comp.Pos.Y+2*(q.Y-comp.Pos.Y)/3)
+			case 2:
+				w.pt(comp.Control[0].X, comp.Control[0].Y)
+				w.pt(comp.Control[1].X, comp.Control[1].Y)
+			default:
+				w.pt(comp.Pos.X, comp.Pos.Y)
+				w.op("l")
+				cur = comp.Pos
+				continue
+			}
+			w.pt(comp.Pos.X, comp.Pos.Y)
+			w.op("c")
+			cur = comp.Pos
+		case vg.ArcComp:
+			cur = w.arc(comp, open)
+			open = true
+		case vg.CloseComp:
+			if open {
+				w.op("h")
+			}
+			cur = start
+		}
+	}
+	if !open {
+		return
+	}
+	w.b = append(w.b, op...)
+	c.buf = w.b
+	c.d.f.RawWriteStr(string(w.b))
+}
+
+func lineOrMove(open bool) string {
+	if open {
+		return "l"
+	}
+	return "m"
+}
+
+// arc appends an arc as cubic Bézier segments of at most 90 degrees, each
+// with control points at distance 4/3 tan(θ/4) of the radius along the
+// tangents (the standard approximation; see Riškus 2006, "Approximation of
+// a cubic Bézier curve by circular arcs and vice versa"). A line joins the
+// current point to the arc's start, as vg's arcs require.
+func (w *pathWriter) arc(comp vg.PathComp, open bool) vg.Point {
+	r := float64(comp.Radius)
+	cx, cy := float64(comp.Pos.X), float64(comp.Pos.Y)
+	a0, sweep := comp.Start, comp.Angle
+	w.pt(vg.Length(cx+r*math.Cos(a0)), vg.Length(cy+r*math.Sin(a0)))
+	w.op(lineOrMove(open))
+	n := int(math.Ceil(math.Abs(sweep) / (math.Pi / 2)))
+	if n < 1 {
+		n = 1
+	}
+	step := sweep / float64(n)
+	k := 4.0 / 3.0 * math.Tan(step/4)
+	a := a0
+	for i := 0; i < n; i++ {
+		s0, c0 := math.Sincos(a)
+		s1, c1 := math.Sincos(a + step)
+		w.pt(vg.Length(cx+r*(c0-k*s0)), vg.Length(cy+r*(s0+k*c0)))
+		w.pt(vg.Length(cx+r*(c1+k*s1)), vg.Length(cy+r*(s1-k*c1)))
+		w.pt(vg.Length(cx+r*c1), vg.Length(cy+r*s1))
+		w.op("c")
+		a += step
+	}
+	return vg.Point{X: vg.Length(cx + r*math.Cos(a0+sweep)), Y: vg.Length(cy + r*math.Sin(a0+sweep))}
+}
+
+// FontFor maps a gonum font to the document's face: Variant "Serif" and
+// "Mono" pick those families, anything else Sans; weight bold or heavier
+// and italic or oblique style pick the styles.
+func FontFor(f font.Font) Font {
+	fam := Sans
+	switch f.Variant {
+	case "Serif":
+		fam = Serif
+	case "Mono":
+		fam = Mono
+	}
+	st := Regular
+	bold := f.Weight >= stdfnt.WeightBold
+	ital := f.Style == stdfnt.StyleItalic || f.Style == stdfnt.StyleOblique
+	switch {
+	case bold && ital:
+		st = BoldItalic
+	case bold:
+		st = Bold
+	case ital:
+		st = Italic
+	}
+	return Font{Family: fam, Style: st, Size: float64(f.Size.Points())}
+}
+
+// FillString implements vg.Canvas: text with its baseline's left end at pt.
+func (c *Canvas) FillString(f font.Face, pt vg.Point, text string) {
+	if f.Font.Size <= 0 || text == "" {
+		return
+	}
+	d := c.d
+	d.SetFont(FontFor(f.Font))
+	// fpdf's Text writes x*k, (H - y)*k in the current matrix; invert that
+	// so the text lands on pt in canvas points. Fill and text colour are
+	// equal in fpdf's record, so it emits no colour of its own and the
+	// canvas's rg applies.
+	k := PointsPerMM
+	d.f.Text(float64(pt.X)/k, d.opt.Paper.Height-float64(pt.Y)/k, text)
+}
+
+// DrawImage implements vg.Canvas: the image is embedded as a PNG, the one
+// raster element a chart may carry.
+func (c *Canvas) DrawImage(rect vg.Rectangle, img image.Image) {
+	b := img.Bounds()
+	if b.Dx() <= 0 || b.Dy() <= 0 || b.Dx() > MaxImageSide || b.Dy() > MaxImageSide {
+		return
+	}
+	nrgba := image.NewNRGBA(b)
+	draw.Draw(nrgba, b, img, b.Min, draw.Src)
+	var buf bytes.Buffer
+	if err := png.Encode(&buf, nrgba); err != nil {
+		return
+	}
+	d := c.d
+	d.images++
+	name := "chartimg" + strconv.Itoa(d.images)
+	opts := imageOptions("png")
+	d.f.RegisterImageOptionsReader(name, opts, &buf)
+	k := PointsPerMM
+	w := float64(rect.Max.X-rect.Min.X) / k
+	h := float64(rect.Max.Y-rect.Min.Y) / k
+	// Same inversion as for text: fpdf places the image's top-left corner.
+	x := float64(rect.Min.X) / k
+	y := d.opt.Paper.Height - float64(rect.Max.Y)/k
+	d.f.ImageOptions(name, x, y, w, h, false, opts, 0, "")
+}
+
+// DPI implements vg's optional DPI reporting: vector output at 72 points
+// to the inch.
+func (c *Canvas) DPI() float64 { return 72 }
+
+var _ vg.Canvas = (*Canvas)(nil)

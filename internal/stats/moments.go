@@ -1,0 +1,66 @@
+package stats
+
+import "math"
+
+// Mean is the arithmetic mean of x (no missing values); NaN when x is
+// empty. It sums in one pass and corrects with a second pass over the
+// deviations (the "corrected two-pass" form of Chan, Golub and LeVeque
+// 1983), so large, similar values do not lose digits.
+func Mean(x []float64) float64 {
+	n := len(x)
+	if n == 0 {
+		return math.NaN()
+	}
+	s := 0.0
+	for _, v := range x {
+		s += v
+	}
+	m := s / float64(n)
+	c := 0.0
+	for _, v := range x {
+		c += v - m
+	}
+	return m + c/float64(n)
+}
+
+// MeanSD returns the mean and the sample standard deviation
+// sqrt(sum((x-mean)^2) / (n-1)) of x (no missing values). The SD is NaN
+// for fewer than two values. Corrected two-pass algorithm (Chan, Golub and
+// LeVeque 1983, "Algorithms for computing the sample variance", The
+// American Statistician 37(3)).
+func MeanSD(x []float64) (mean, sd float64) {
+	n := len(x)
+	mean = Mean(x)
+	if n < 2 {
+		return mean, math.NaN()
+	}
+	ss, c := 0.0, 0.0
+	for _, v := range x {
+		d := v - mean
+		ss += d * d
+		c += d
+	}
+	variance := (ss - c*c/float64(n)) / float64(n-1)
+	if variance < 0 {
+		variance = 0
+	}
+	return mean, math.Sqrt(variance)
+}
+
+// SD is the sample standard deviation (divisor n-1); NaN for fewer than two
+// values.
+func SD(x []float64) float64 {
+	_, sd := MeanSD(x)
+	return sd
+}
+
+// Z is the z-score (v - mean) / sd of a value against a group, with the
+// group's sample standard deviation. It keeps the sign of the raw scale
+// (positive means above the mean whatever the indicator's polarity) and is
+// NaN when the SD is zero or undefined.
+func Z(v, mean, sd float64) float64 {
+	if !(sd > 0) || math.IsNaN(v) || math.IsNaN(mean) {
+		return math.NaN()
+	}
+	return (v - mean) / sd
+}

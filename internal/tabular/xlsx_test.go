@@ -1,0 +1,225 @@
+package tabular
+
+import (
+	"archive/zip"
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+)
+
+var xlsxDir = filepath.Join("..", "..", "testdata", "data", "xlsx")
+
+// TestXLSXMatchesCSV reads workbooks written by openpyxl 3.0.9 (Debian
+// python3-openpyxl; testdata/data/xlsx/generate.py) and the same data
+// written as CSV by Python's csv module, and requires identical text in
+// every cell. The values workbook holds the data on its second sheet,
+// named "Values".
+func TestXLSXMatchesCSV(t *testing.T) {
+	fsys := os.DirFS(xlsxDir)
+	for _, pair := range [][2]string{{"institutions.xlsx", "institutions.csv"}, {"values.xlsx#Values", "values.csv"}} {
+		x, err := ReadTable(fsys, pair[0])
+		if err != nil {
+			t.Fatalf("%s: %v", pair[0], err)
+		}
+		c, err := ReadTable(fsys, pair[1])
+		if err != nil {
+			t.Fatalf("%s: %v", pair[1], err)
+		}
+		gx, gc := texts(x), texts(c)
+		if len(gx) != len(gc) {
+			t.Fatalf("%s has %d rows, %s %d", pair[0], len(gx), pair[1], len(gc))
+		}
+		for i := range gx {
+			for j := range gx[i] {
+				if !sameCell(gx[i][j], gc[i][j]) {
+					t.Errorf("%s row %d: %q, CSV %q", pair[0], i+1, gx[i], gc[i])
+					break
+				}
+			}
+		}
+		// Positions: row r of the sheet is line r, column C is 3.
+		if cell := x.Rows[1][2]; cell.Line != 3 || cell.Col != 3 {
+			t.Errorf("%s: cell C3 at %d:%d", pair[0], cell.Line, cell.Col)
+		}
+	}
+}
+
+// sameCell compares texts, and numbers by value: Python's csv module
+// writes the float 8.0 as "8.0" where the workbook stores 8.
+func sameCell(a, b string) bool {
+	if a == b {
+		return true
+	}
+	x, ex, errX := ParseNumber(a)
+	y, ey, errY := ParseNumber(b)
+	return errX == nil && errY == nil && !ex && !ey && x == y
+}
+
+func TestXLSXSheets(t *testing.T) {
+	fsys := os.DirFS(xlsxDir)
+	tb, err := ReadTable(fsys, "values.xlsx")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if tb.Header[0].Text != "Invented demo values" {
+		t.Errorf("first sheet header %q", tb.Header[0].Text)
+	}
+	_, err = ReadTable(fsys, "values.xlsx#Value")
+	if err == nil || !strings.Contains(err.Error(), `no sheet named "Value"; did you mean "Values"?`) {
+		t.Errorf("got %v", err)
+	}
+}
+
+// book builds a minimal workbook by hand (ECMA-376 Part 1 part names) with
+// the given sheet XML and shared strings.
+func book(t *testing.T, sheet, sst string) []byte {
+	t.Helper()
+	var buf bytes.Buffer
+	zw := zip.NewWriter(&buf)
+	put := func(name, body string) {
+		w, err := zw.Create(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		w.Write([]byte(body))
+	}
+	put("_rels/.rels", `<?xml version="1.0"?><Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships"><Relationship Id="rId1" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/officeDocument" Target="xl/workbook.xml"/></Relationships>`)
+	put("xl/workbook.xml", `<?xml version="1.0"?><workbook xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main" xmlns:r="http://schemas.openxmlformats.org/officeDocument/2006/relationships"><sheets><sheet name="Data" sheetId="1" r:id="rId1"/></sheets></workbook>`)
+	rels := `<Relationship Id="rId1" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/worksheet" Target="worksheets/sheet1.xml"/>`
+	if sst != "" {
+		rels += `<Relationship Id="rId2" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/sharedStrings" Target="sharedStrings.xml"/>`
+		put("xl/sharedStrings.xml", `<?xml version="1.0"?><sst xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main">`+sst+`</sst>`)
+	}
+	put("xl/_rels/workbook.xml.rels", `<?xml version="1.0"?><Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships">`+rels+`</Relationships>`)
+	put("xl/worksheets/sheet1.xml", `<?xml version="1.0"?><worksheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"><sheetData>`+sheet+`</sheetData></worksheet>`)
+	if err := zw.Close(); err != nil {
+		t.Fatal(err)
+	}
+	return buf.Bytes()
+}
+
+// TestXLSXCellKinds covers what Excel writes and openpyxl does not: shared
+// strings with rich-text runs and phonetic runs, booleans, cached formula
+// results, cells without an r attribute, skipped empty rows and a
+// floating-point value stored with 17 digits.
+func TestXLSXCellKinds(t *testing.T) {
+	sst := `<si><t>id</t></si><si><t>flag</t></si><si><r><t>Rich </t></r><r><t>text</t></r><rPh><t>ignored</t></rPh></si><si><t>value</t></si>`
+	sheet := `<row r="1"><c r="A1" t="s"><v>0</v></c><c r="B1" t="s"><v>1</v></c><c r="C1" t="s"><v>3</v></c></row>` +
+		`<row r="3"><c r="A3" t="s"><v>2</v></c><c r="B3" t="b"><v>1</v></c><c r="C3"><f>1/10</f><v>0.10000000000000001</v></c></row>` +
+		`<row r="4"><c t="inlineStr"><is><t>inline</t></is></c><c t="b"><v>0</v></c><c t="str"><f>A4</f><v>inline</v></c></row>` +
+		`<row r="5"><c r="C5"><v>2024</v></c></row>`
+	tb, err := ParseXLSX("b.xlsx", book(t, sheet, sst), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := [][]string{{"id", "flag", "value"}, {"Rich text", "TRUE", "0.1"}, {"inline", "FALSE", "inline"}, {"", "", "2024"}}
+	got := texts(tb)
+	if len(got) != len(want) {
+		t.Fatalf("got %q", got)
+	}
+	for i := range want {
+		if strings.Join(got[i], "|") != strings.Join(want[i], "|") {
+			t.Errorf("row %d: %q, want %q", i, got[i], want[i])
+		}
+	}
+	if c := tb.Rows[0][0]; c.Line != 3 || c.Col != 1 {
+		t.Errorf("A3 at %d:%d", c.Line, c.Col)
+	}
+	if c := tb.Rows[1][1]; c.Line != 4 || c.Col != 2 {
+		t.Errorf("B4 at %d:%d", c.Line, c.Col)
+	}
+}
+
+func TestXLSXProblems(t *testing.T) {
+	_, err := ParseXLSX("b.xlsx", book(t, `<row r="1"><c r="A1" t="inlineStr"><is><t>a</t></is></c></row><row r="2"><c r="A2"><v>1</v></c><c r="D2"><v>5</v></c></row>`, ""), "")
+	if err == nil || !strings.HasPrefix(err.Error(), "b.xlsx:2:4: cell D2 holds \"5\" but the header row has no column D") {
+		t.Errorf("got %v", err)
+	}
+	_, err = ParseXLSX("b.xlsx", book(t, `<row r="1"><c r="A1" t="s"><v>0</v></c><c r="B1" t="s"><v>7</v></c></row>`, `<si><t>a</t></si>`), "")
+	if err == nil || !strings.Contains(err.Error(), "shared string \"7\" does not exist") {
+		t.Errorf("got %v", err)
+	}
+	_, err = ParseXLSX("b.xlsx", []byte("not a zip"), "")
+	if err == nil || !strings.Contains(err.Error(), "not a readable XLSX workbook") {
+		t.Errorf("got %v", err)
+	}
+}
+
+// TestXLSXBomb: a part that inflates past MaxPartBytes is refused while
+// inflating, whatever the archive's headers claim.
+func TestXLSXBomb(t *testing.T) {
+	if testing.Short() {
+		t.Skip("inflates 256 MiB")
+	}
+	var buf bytes.Buffer
+	zw := zip.NewWriter(&buf)
+	good := book(t, `<row r="1"><c r="A1"><v>1</v></c></row>`, "")
+	zr, _ := zip.NewReader(bytes.NewReader(good), int64(len(good)))
+	for _, f := range zr.File {
+		if f.Name == "xl/worksheets/sheet1.xml" {
+			continue
+		}
+		rc, _ := f.Open()
+		w, _ := zw.Create(f.Name)
+		var b bytes.Buffer
+		b.ReadFrom(rc)
+		w.Write(b.Bytes())
+	}
+	w, _ := zw.CreateHeader(&zip.FileHeader{Name: "xl/worksheets/sheet1.xml", Method: zip.Deflate})
+	chunk := bytes.Repeat([]byte(" "), 1<<20)
+	w.Write([]byte(`<worksheet><sheetData>`))
+	for i := 0; i < MaxPartBytes>>20+1; i++ {
+		w.Write(chunk)
+	}
+	zw.Close()
+	_, err := ParseXLSX("bomb.xlsx", buf.Bytes(), "")
+	if err == nil || !strings.Contains(err.Error(), "inflates") {
+		t.Fatalf("got %v", err)
+	}
+}
+
+func TestCellRef(t *testing.T) {
+	// Column letters per ECMA-376 Part 1, 18.3.1.4 (A = 1, Z = 26, AA = 27,
+	// XFD = 16384).
+	for ref, want := range map[string][2]int{"A1": {1, 1}, "C12": {3, 12}, "Z9": {26, 9}, "AA3": {27, 3}, "XFD1048576": {16384, 1048576}} {
+		c, r, ok := cellRef(ref)
+		if !ok || c != want[0] || r != want[1] {
+			t.Errorf("%s: %d %d %v", ref, c, r, ok)
+		}
+		if ColumnName(c) != strings.TrimRight(ref, "0123456789") {
+			t.Errorf("ColumnName(%d) = %s", c, ColumnName(c))
+		}
+	}
+	for _, bad := range []string{"", "1A", "A", "a1", "XFE1", "A0", "A1048577"} {
+		if _, _, ok := cellRef(bad); ok {
+			t.Errorf("%q accepted", bad)
+		}
+	}
+}
+
+func FuzzXLSX(f *testing.F) {
+	for _, name := range []string{"institutions.xlsx", "values.xlsx"} {
+		if b, err := os.ReadFile(filepath.Join(xlsxDir, name)); err == nil {
+			f.Add(b, "")
+		}
+	}
+	f.Fuzz(func(t *testing.T, data []byte, sheet string) {
+		tm := time.AfterFunc(2*time.Second, func() { os.WriteFile("/tmp/slowfuzz.xlsx", data, 0o644); os.WriteFile("/tmp/slowfuzz.sheet", []byte(sheet), 0o644) })
+		defer tm.Stop()
+		tb, err := ParseXLSX("f.xlsx", data, sheet)
+		if err != nil {
+			if err.Error() == "" {
+				t.Fatal("empty message")
+			}
+			return
+		}
+		for _, r := range tb.Rows {
+			if len(r) != len(tb.Header) {
+				t.Fatalf("row of %d cells, header %d", len(r), len(tb.Header))
+			}
+		}
+	})
+}

@@ -140,7 +140,7 @@ func (bc *BarsChart) panels() *panels {
 	th := bc.Theme
 	ps := &panels{legend: &legend{th: th}, count: 1}
 	ps.panelHeight = func(vg.Length) vg.Length { return vg.Points(barPitch*float64(len(bc.Items)) + 18) }
-	ps.make = func(vg.Length, bool) []*plot.Plot {
+	ps.make = func(vg.Length, int) []*plot.Plot {
 		p := newPlot(th)
 		p.HideAxes()
 		p.Add(&BarsPlotter{Chart: bc})

@@ -26,7 +26,7 @@ type BoxRow struct {
 	// FocusOutside marks a group the focus does not belong to: its mark
 	// shows where it would sit among the members.
 	FocusOutside bool
-	Box     stats.Box
+	Box          stats.Box
 	// Focus is the focus institution's value, NaN when it has none;
 	// FocusText is that value as printed in tables.
 	Focus     float64
@@ -155,6 +155,15 @@ func (b *BoxPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 			for _, o := range r.Outliers {
 				OutlierMarker().Draw(&c, at(o, cat))
 			}
+		}
+		if bx.N == 0 {
+			// Say so rather than leave a row blank.
+			mid := at((p.X.Min+p.X.Max)/2, cat)
+			if b.Vertical {
+				mid = at((p.Y.Min+p.Y.Max)/2, cat)
+			}
+			sty := b.Theme.tickStyle()
+			fillText(&c, sty, mid.X, mid.Y-textHeight(sty)/2+sty.FontExtents().Descent, draw.XCenter, "no values")
 		}
 		for _, mk := range r.Marks {
 			if math.IsNaN(mk.Value) {

@@ -71,7 +71,7 @@ func (bc *BoxChart) panels() *panels {
 	th := bc.Theme
 	ps := &panels{legend: &legend{th: th}, count: len(bc.Panels), minPanel: vg.Points(150)}
 	var missing []string
-	named := false
+	named, outliers := false, false
 	n := 0
 	for _, pn := range bc.Panels {
 		n = max(n, len(pn.Rows))
@@ -80,21 +80,26 @@ func (bc *BoxChart) panels() *panels {
 				missing = append(missing, fmt.Sprintf("%s %d", r.Label, r.Box.Missing))
 			}
 			named = named || len(r.Marks) > 0
+			outliers = outliers || len(r.Outliers) > 0
 		}
 	}
-	ps.make = func(w vg.Length, stacked bool) []*plot.Plot {
+	ps.make = func(w vg.Length, cols int) []*plot.Plot {
 		out := make([]*plot.Plot, len(bc.Panels))
+		labelW := boxLabelWidth(w)
+		if bc.Vertical {
+			labelW = 0
+		}
 		for k, pn := range bc.Panels {
-			out[k] = boxPanel(pn, bc.Vertical, k == 0 || stacked, w, th)
+			out[k] = boxPanel(pn, bc.Vertical, k%cols == 0, w, ps.dataWidth(w, cols, labelW), th)
 		}
 		return out
 	}
 	if bc.Vertical {
-		ps.panelHeight = func(w vg.Length) vg.Length { return max(min(w*0.55, vg.Points(320)), vg.Points(170)) }
+		ps.panelHeight = func(pw vg.Length) vg.Length { return max(min(pw, vg.Points(320)), vg.Points(190)) }
 	} else {
 		ps.panelHeight = func(vg.Length) vg.Length { return vg.Points(boxPitch*float64(n) + 34) }
 	}
-	boxLegend(ps.legend, bc.FocusName, named)
+	boxLegend(ps.legend, bc.FocusName, named, outliers)
 	if len(missing) > 0 {
 		ps.legend.note = "Institutions without a value: " + strings.Join(missing, ", ") + "."
 	}
@@ -137,7 +142,12 @@ func boxRows(m *figures.Model, spec *brief.ChartBlock, ind dataset.Indicator, gr
 }
 
 // boxPanel dresses one indicator's BoxPlotter in a plot.
-func boxPanel(pn BoxPanel, vertical, first bool, width vg.Length, th Theme) *plot.Plot {
+// boxLabelWidth caps the group names left of a horizontal box chart.
+func boxLabelWidth(w vg.Length) vg.Length { return min(vg.Points(160), w*0.34) }
+
+// boxPanel builds one panel; width is the chart's, dataW the panel's data
+// area (for axis titles and tick density).
+func boxPanel(pn BoxPanel, vertical, first bool, width, dataW vg.Length, th Theme) *plot.Plot {
 	p := newPlot(th)
 	bp := &BoxPlotter{Rows: pn.Rows, Vertical: vertical, Theme: th, LabelMarks: first}
 	p.Add(grid(!vertical, vertical), bp)
@@ -150,10 +160,10 @@ func boxPanel(pn BoxPanel, vertical, first bool, width vg.Length, th Theme) *plo
 		label := ""
 		switch {
 		case vertical:
-			slot := width/vg.Length(max(len(pn.Rows), 1)) - 6
+			slot := dataW/vg.Length(max(len(pn.Rows), 1)) - 6
 			label = fitText(r.Label, th.tickStyle(), slot) + "\n" + size
 		case first:
-			label = fitText(r.Label, th.tickStyle(), min(vg.Points(160), width*0.34)) + "\n" + size
+			label = fitText(r.Label, th.tickStyle(), boxLabelWidth(width)) + "\n" + size
 		}
 		ticks[i] = plot.Tick{Value: bp.slot(i), Label: label}
 	}
@@ -163,9 +173,10 @@ func boxPanel(pn BoxPanel, vertical, first bool, width vg.Length, th Theme) *plo
 	}
 	value.Label.Text = axisTitle(pn.Indicator)
 	if vertical {
-		value.Label.Text = fitAxisTitle(pn.Indicator, th, max(min(width*0.55, vg.Points(320)), vg.Points(170))-40)
+		value.Label.Text = fitAxisTitle(pn.Indicator, th, max(min(dataW, vg.Points(320)), vg.Points(190))-40)
 	} else {
-		value.Label.Text = fitAxisTitle(pn.Indicator, th, width*0.6)
+		value.Label.Text = fitAxisTitle(pn.Indicator, th, dataW+8)
+		value.Tick.Marker = ticksFor(dataW)
 	}
 	cat.Tick.Marker = ticks
 	cat.Tick.Length = 0
@@ -174,12 +185,14 @@ func boxPanel(pn BoxPanel, vertical, first bool, width vg.Length, th Theme) *plo
 }
 
 // boxLegend explains every mark of a box chart.
-func boxLegend(l *legend, focusName string, withNamed bool) {
+func boxLegend(l *legend, focusName string, withNamed, withOutliers bool) {
 	l.add(legendEntry{Text: focusName, Bold: true, Thumb: markerThumb(FocusMarker())})
 	if withNamed {
 		l.add(legendEntry{Text: "Named institution", Thumb: markerThumb(NamedMarker())})
 	}
 	l.add(legendEntry{Text: "Median and middle half (quartiles)", Width: 20, Thumb: boxThumb})
 	l.add(legendEntry{Text: "Whiskers: within 1.5 × IQR of the box", Width: 20, Thumb: whiskerThumb})
-	l.add(legendEntry{Text: "Beyond the whiskers", Thumb: markerThumb(OutlierMarker())})
+	if withOutliers {
+		l.add(legendEntry{Text: "Beyond the whiskers", Thumb: markerThumb(OutlierMarker())})
+	}
 }

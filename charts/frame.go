@@ -50,32 +50,55 @@ func grid(vertical, horizontal bool) *plotter.Grid {
 	return g
 }
 
-// panels draws plots side by side above a legend, their data areas
-// aligned and equally sized (gonum's plot.Align). When the width leaves a
-// panel less than minPanel, the panels are stacked instead, each at the
-// full width.
+// panels draws plots in a grid above a legend, their data areas aligned
+// and equally sized (gonum's plot.Align): side by side when the width
+// allows every panel minPanel, else in as many columns as fit, row after
+// row (a half-width chart stacks them).
 type panels struct {
 	count int
-	// make builds the plots for a width; stacked tells each panel it
-	// stands alone (and so carries its own category labels).
-	make   func(width vg.Length, stacked bool) []*plot.Plot
+	// make builds the plots for a chart width laid out in cols columns;
+	// a panel at the start of a row carries the category labels.
+	make   func(width vg.Length, cols int) []*plot.Plot
 	legend *legend
-	// panelHeight is one panel's height (without legend) at a width.
-	panelHeight func(width vg.Length) vg.Length
+	// panelHeight is one panel's height at a panel width.
+	panelHeight func(panelWidth vg.Length) vg.Length
 	minPanel    vg.Length
 }
 
 const panelGap = 10
 
-func (ps *panels) stacked(width vg.Length) bool {
-	return ps.count > 1 && (width-vg.Length(ps.count-1)*panelGap)/vg.Length(ps.count) < ps.minPanel
+// cols is the number of panel columns at a chart width.
+func (ps *panels) cols(width vg.Length) int {
+	if ps.count <= 1 || ps.minPanel <= 0 {
+		return max(ps.count, 1)
+	}
+	n := int((width + panelGap) / (ps.minPanel + panelGap))
+	return max(1, min(ps.count, n))
+}
+
+func (ps *panels) rows(width vg.Length) int {
+	c := ps.cols(width)
+	return (max(ps.count, 1) + c - 1) / c
+}
+
+// panelWidth is one grid cell's width.
+func (ps *panels) panelWidth(width vg.Length) vg.Length {
+	c := ps.cols(width)
+	return (width - vg.Length(c-1)*panelGap) / vg.Length(c)
+}
+
+// dataWidth estimates one panel's data area at a chart width, with
+// labels of labelW left of the first panel of each row; plot.Align makes
+// the data areas of the panels equal.
+func (ps *panels) dataWidth(width vg.Length, cols int, labelW vg.Length) vg.Length {
+	const axisRoom = 14 // tick marks, padding and a tick label's overhang
+	cols = max(cols, 1)
+	return (width - labelW - vg.Length(cols-1)*panelGap - vg.Length(cols)*axisRoom) / vg.Length(cols)
 }
 
 func (ps *panels) plotsHeight(width vg.Length) vg.Length {
-	if ps.stacked(width) {
-		return vg.Length(ps.count)*ps.panelHeight(width) + vg.Length(ps.count-1)*panelGap
-	}
-	return ps.panelHeight(width)
+	r := ps.rows(width)
+	return vg.Length(r)*ps.panelHeight(ps.panelWidth(width)) + vg.Length(r-1)*panelGap
 }
 
 // Height implements Chart.
@@ -95,26 +118,23 @@ func (ps *panels) Draw(c draw.Canvas) (err error) {
 	w := c.Max.X - c.Min.X
 	lh := ps.legend.height(w)
 	area := draw.Crop(c, 0, 0, lh, 0)
-	stacked := ps.stacked(w)
-	plots := ps.make(w, stacked)
-	switch {
-	case len(plots) == 1:
+	cols := ps.cols(w)
+	plots := ps.make(w, cols)
+	if len(plots) == 1 {
 		plots[0].Draw(area)
-	case stacked:
-		tiles := draw.Tiles{Rows: len(plots), Cols: 1, PadY: panelGap}
-		grid := make([][]*plot.Plot, len(plots))
-		for i, p := range plots {
-			grid[i] = []*plot.Plot{p}
+	} else if len(plots) > 1 {
+		rows := (len(plots) + cols - 1) / cols
+		grid := make([][]*plot.Plot, rows)
+		for r := range grid {
+			grid[r] = make([]*plot.Plot, cols)
 		}
+		for i, p := range plots {
+			grid[i/cols][i%cols] = p
+		}
+		tiles := draw.Tiles{Rows: rows, Cols: cols, PadX: panelGap, PadY: panelGap}
 		cs := plot.Align(grid, tiles, area)
 		for i, p := range plots {
-			p.Draw(cs[i][0])
-		}
-	default:
-		tiles := draw.Tiles{Rows: 1, Cols: len(plots), PadX: panelGap}
-		cs := plot.Align([][]*plot.Plot{plots}, tiles, area)
-		for i, p := range plots {
-			p.Draw(cs[0][i])
+			p.Draw(cs[i/cols][i%cols])
 		}
 	}
 	if lh > 0 {

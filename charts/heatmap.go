@@ -4,8 +4,10 @@ import (
 	"fmt"
 	"image/color"
 	"math"
+	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
@@ -65,26 +67,31 @@ func (h *HeatmapPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 	hc := h.Chart
 	th := hc.Theme
 	w := c.Max.X - c.Min.X
-	nameW := min(w*0.34, vg.Points(170))
-	cols := max(len(hc.Columns), 1)
-	cellW := (w - nameW) / vg.Length(cols)
+	g := hc.geometry(w)
+	nameW, cellW, headH := g.nameW, g.cellW, g.headH
 	top := c.Max.Y
-	head := th.text(sizeTick, false, PaletteBlack)
-	if cellW < vg.Points(56) {
-		head = th.text(sizeTick-1, false, PaletteBlack)
-	}
+	head := g.head
 	for j, col := range hc.Columns {
 		x := c.Min.X + nameW + cellW*vg.Length(j) + cellW/2
+		if g.rotated {
+			// Read upwards from just above the cells, as in a printed
+			// table with narrow columns.
+			sty := head
+			sty.Rotation = math.Pi / 2
+			sty.XAlign, sty.YAlign = draw.XLeft, draw.YCenter
+			c.FillText(sty, vg.Point{X: x, Y: top - headH + 3}, fitText(col, head, headH-5))
+			continue
+		}
 		lines := wrapText(col, head, cellW-4, 3)
 		for k, line := range lines {
-			base := top - heatHeaderH + 4 + (textHeight(head)+1)*vg.Length(len(lines)-1-k) + head.FontExtents().Descent
+			base := top - headH + 4 + (textHeight(head)+1)*vg.Length(len(lines)-1-k) + head.FontExtents().Descent
 			fillText(&c, head, x, base, draw.XCenter, line)
 		}
 	}
 	cellText := th.text(sizeTick, false, PaletteBlack)
 	cellTextDark := th.text(sizeTick, false, whiteColor)
 	for i, r := range hc.Rows {
-		y1 := top - heatHeaderH - heatRowH*vg.Length(i)
+		y1 := top - headH - heatRowH*vg.Length(i)
 		y0 := y1 - heatRowH
 		sty := th.labelStyle()
 		if r.Focus {
@@ -135,20 +142,73 @@ func (h *HeatmapPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 	}
 }
 
+// heatGeometry is the heatmap's layout at a width.
+type heatGeometry struct {
+	nameW, cellW, headH vg.Length
+	head                text.Style
+	// rotated headers read upwards when a column is too narrow for its
+	// name on three lines.
+	rotated bool
+}
+
+func (hc *HeatmapChart) geometry(w vg.Length) heatGeometry {
+	th := hc.Theme
+	// Names take a third of a full-width chart and more of a narrow one,
+	// where the percentile cells need less room than the names.
+	g := heatGeometry{nameW: min(w*0.34, vg.Points(170)), headH: heatHeaderH, head: th.text(sizeTick, false, PaletteBlack)}
+	if w < vg.Points(300) {
+		g.nameW = w * 0.42
+	}
+	g.cellW = (w - g.nameW) / vg.Length(max(len(hc.Columns), 1))
+	for _, col := range hc.Columns {
+		for _, line := range wrapText(col, g.head, g.cellW-4, 3) {
+			if strings.HasSuffix(line, "…") && !strings.HasSuffix(col, "…") {
+				g.rotated = true
+			}
+		}
+	}
+	if g.rotated {
+		longest := vg.Length(0)
+		for _, col := range hc.Columns {
+			longest = max(longest, g.head.Width(col))
+		}
+		g.headH = min(longest+8, vg.Points(110))
+	}
+	return g
+}
+
 func (hc *HeatmapChart) panels() *panels {
 	if hc.built != nil {
 		return hc.built
 	}
 	th := hc.Theme
 	ps := &panels{legend: &legend{th: th}, count: 1}
-	ps.panelHeight = func(vg.Length) vg.Length { return vg.Points(heatHeaderH + heatRowH*float64(len(hc.Rows)) + 2) }
-	ps.make = func(vg.Length, bool) []*plot.Plot {
+	ps.panelHeight = func(w vg.Length) vg.Length {
+		return hc.geometry(w).headH + vg.Points(heatRowH*float64(len(hc.Rows))+2)
+	}
+	ps.make = func(vg.Length, int) []*plot.Plot {
 		p := newPlot(th)
 		p.HideAxes()
 		p.Add(&HeatmapPlotter{Chart: hc})
 		return []*plot.Plot{p}
 	}
 	l := ps.legend
+	for _, r := range hc.Rows {
+		if r.Focus {
+			mk := FocusMarker()
+			mk.Radius = vg.Points(3.4)
+			l.add(legendEntry{Text: r.Label + " (framed row)", Bold: true, Thumb: markerThumb(mk)})
+			break
+		}
+	}
+	for _, r := range hc.Rows {
+		if r.Named {
+			mk := NamedMarker()
+			mk.Radius = vg.Points(2.6)
+			l.add(legendEntry{Text: "Named institution", Thumb: markerThumb(mk)})
+			break
+		}
+	}
 	l.add(legendEntry{Text: "Percentile rank in " + hc.Group + ":", Width: 0.01})
 	for k, col := range heatClasses {
 		lo, hi := 20*k, 20*(k+1)

@@ -61,7 +61,7 @@ func placeLabels(reqs []labelRequest, bounds vg.Rectangle, obstacles []vg.Rectan
 		r := reqs[i]
 		w, h := r.Style.Width(r.Text), textHeight(r.Style)
 		ok := false
-		for ring, dist := range []vg.Length{r.Gap + 1.5, r.Gap + 9, r.Gap + 18} {
+		for ring, dist := range []vg.Length{r.Gap + 1.5, r.Gap + 9, r.Gap + 18, r.Gap + 30, r.Gap + 45} {
 			for _, d := range candidateDirs(r.Prefer) {
 				rect := labelRect(r.Anchor, d, dist, w, h)
 				if !inside(rect, bounds) || overlapsAny(rect, taken) || crossesAny(rect, lines) {
@@ -104,11 +104,17 @@ func candidateDirs(prefer []int) [][2]float64 {
 // direction d, aligned so that the label grows away from the anchor.
 func labelRect(a vg.Point, d [2]float64, dist, w, h vg.Length) vg.Rectangle {
 	var x, y vg.Length
+	// Corner positions hug the anchor sideways so the label still reads
+	// as belonging to it.
+	dx := dist
+	if d[0] != 0 && d[1] != 0 {
+		dx = min(dist, 2)
+	}
 	switch {
 	case d[0] > 0:
-		x = a.X + dist
+		x = a.X + dx
 	case d[0] < 0:
-		x = a.X - dist - w
+		x = a.X - dx - w
 	default:
 		x = a.X - w/2
 	}

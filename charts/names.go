@@ -52,9 +52,3 @@ func fitText(s string, sty text.Style, width vg.Length) string {
 	}
 	return out
 }
-
-// displayName is the label of an institution in charts: its short name
-// when the register has one and the full name is longer than maxRunes.
-func displayName(in dataset.Institution, sty text.Style, width vg.Length) string {
-	return fitName(in, sty, width)
-}

@@ -3,6 +3,7 @@ package charts
 import (
 	"math"
 	"strconv"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
@@ -69,11 +70,35 @@ func axisTitle(ind dataset.Indicator) string {
 // of ten; Heckbert 1990, "Nice numbers for graph labels", Graphics Gems),
 // aiming at about five labels, printed with the format package (thousands
 // separators, true minus sign); the unit is in the axis title.
-type valueTicks struct{}
+type valueTicks struct {
+	// n is the number of labels aimed at; 0 means 5.
+	n int
+}
+
+// ticksFor is the label count an axis of the given length can carry
+// without crowding: about one label per 55 pt, 3 to 6 of them.
+func ticksFor(length vg.Length) valueTicks {
+	return valueTicks{n: max(3, min(6, int(length/vg.Points(55))))}
+}
 
 // Ticks implements plot.Ticker.
-func (valueTicks) Ticks(lo, hi float64) []plot.Tick {
-	step := niceStep(lo, hi, 5)
+func (vt valueTicks) Ticks(lo, hi float64) []plot.Tick {
+	n := vt.n
+	if n == 0 {
+		n = 5
+	}
+	ts := niceTicks(lo, hi, n)
+	// A short axis may leave fewer than three labels inside the range:
+	// ask for a finer step then.
+	for k := n + 1; len(ts) < 3 && k <= n+4; k++ {
+		ts = niceTicks(lo, hi, k)
+	}
+	return ts
+}
+
+// niceTicks labels [lo, hi] at Heckbert's step for about n labels.
+func niceTicks(lo, hi float64, n int) []plot.Tick {
+	step := niceStep(lo, hi, n)
 	if step <= 0 || math.IsNaN(step) || math.IsInf(step, 0) {
 		return nil
 	}
@@ -116,34 +141,51 @@ func niceStep(lo, hi float64, n int) float64 {
 	return f * mag
 }
 
-// yearTicks labels whole years only.
-type yearTicks struct{ years []int }
+// yearTicks labels whole years only, along an axis of length room.
+type yearTicks struct {
+	years []int
+	room  vg.Length
+}
 
-// Ticks implements plot.Ticker: every year when few, else every other.
+// Ticks implements plot.Ticker: every year when they fit (about 30 pt a
+// label), else every second or third counting back from the latest.
 func (y yearTicks) Ticks(lo, hi float64) []plot.Tick {
 	step := 1
-	if len(y.years) > 8 {
+	if y.room > 0 {
+		for step < 5 && vg.Length(len(y.years))/vg.Length(step)*vg.Points(30) > y.room {
+			step++
+		}
+	} else if len(y.years) > 8 {
 		step = 2
 	}
 	var ts []plot.Tick
 	for i, yr := range y.years {
-		if i%step == 0 || i == len(y.years)-1 {
+		// Count back from the latest year, which is always labelled.
+		if (len(y.years)-1-i)%step == 0 {
 			ts = append(ts, plot.Tick{Value: float64(yr), Label: strconv.Itoa(yr)})
 		}
 	}
 	return ts
 }
 
-// fitAxisTitle is the axis title, dropping the better-direction words and
-// then shortening when the axis is too short for it.
+// fitAxisTitle is the axis title on one line when it fits, else on two
+// lines, else without the better-direction words, shortened at the end
+// as a last resort.
 func fitAxisTitle(ind dataset.Indicator, th Theme, length vg.Length) string {
 	sty := th.axisStyle()
-	if t := axisTitle(ind); sty.Width(t) <= length {
-		return t
+	full := axisTitle(ind)
+	if sty.Width(full) <= length {
+		return full
 	}
-	t := shortName(ind)
+	short := shortName(ind)
 	if u := unitWords(ind); u != "" {
-		t += " (" + u + ")"
+		short += " (" + u + ")"
 	}
-	return fitText(t, sty, length)
+	for _, t := range []string{full, short} {
+		lines := wrapText(t, sty, length, 2)
+		if !strings.HasSuffix(lines[len(lines)-1], "…") {
+			return strings.Join(lines, "\n")
+		}
+	}
+	return strings.Join(wrapText(short, sty, length, 2), "\n")
 }

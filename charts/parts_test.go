@@ -5,9 +5,13 @@ import (
 	"strings"
 	"testing"
 
+	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/font/liberation"
 	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/recorder"
 
 	"peerpack/internal/dataset"
+	"peerpack/internal/stats"
 )
 
 func TestNiceStep(t *testing.T) {
@@ -135,6 +139,90 @@ func TestSerifTheme(t *testing.T) {
 	for _, a := range record(t, ch, fullWidth).Actions {
 		if fs, ok := a.(interface{ Call() string }); ok && strings.Contains(fs.Call(), "LiberationSans") {
 			t.Fatalf("serif theme drew %s", fs.Call())
+		}
+	}
+}
+
+// TestAnyWidthDrawsWithoutPanic draws every fixture chart from the narrow
+// to the very wide: a chart may look cramped, but must never panic or
+// fail at a width a layout could ask for.
+func TestAnyWidthDrawsWithoutPanic(t *testing.T) {
+	m, b := buildModel(t, 60, goldenBody)
+	for _, spec := range chartBlocks(b) {
+		for _, w := range []vg.Length{120, 200, 300, 481.89, 800} {
+			ch, err := New(m, spec, Theme{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if h := ch.Height(w); h <= 0 || math.IsNaN(float64(h)) {
+				t.Errorf("%s at %v pt: height %v", blockName(spec), w, h)
+			}
+			record(t, ch, w)
+		}
+	}
+}
+
+func TestBoxEmptyRowSaysNoValues(t *testing.T) {
+	rows := fxBoxRows(fxFWCI, 1, 1.137)
+	rows = append(rows, BoxRow{Label: "Empty group", Box: stats.BoxOf(nil, stats.Type7), Focus: math.NaN()})
+	bc := &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFWCI, Rows: rows}}}
+	if !hasText(record(t, bc, fullWidth).Actions, "no values") {
+		t.Error("an empty group's row does not say it has no values")
+	}
+}
+
+// TestNoOverlappingText reads every upright string a fixture chart draws
+// back from the recording and checks that no two ink boxes overlap
+// (common practice, no source: overlapping labels are unreadable).
+func TestNoOverlappingText(t *testing.T) {
+	m, b := buildModel(t, 60, goldenBody)
+	cache := font.NewCache(liberation.Collection())
+	all := fixtureCharts()
+	for _, spec := range chartBlocks(b) {
+		ch, err := New(m, spec, Theme{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		all = append(all, fixtureChart{"model " + blockName(spec), ch})
+	}
+	for _, fx := range all {
+		for _, w := range []vg.Length{fullWidth, halfWidth} {
+			ch := fx.chart
+			type box struct {
+				s string
+				r vg.Rectangle
+			}
+			var boxes []box
+			depth, rotated := 0, map[int]bool{}
+			for _, a := range record(t, ch, w).Actions {
+				switch a := a.(type) {
+				case *recorder.Push:
+					depth++
+				case *recorder.Pop:
+					delete(rotated, depth)
+					depth--
+				case *recorder.Rotate:
+					rotated[depth] = true
+				case *recorder.FillString:
+					if len(rotated) > 0 {
+						continue
+					}
+					face := cache.Lookup(a.Font, a.Size)
+					e := face.Extents()
+					r := vg.Rectangle{Min: vg.Point{X: a.Point.X, Y: a.Point.Y - e.Descent}, Max: vg.Point{X: a.Point.X + face.Width(a.String), Y: a.Point.Y + e.Ascent}}
+					// Shrink by half a point: glyph boxes of adjacent
+					// lines may touch without ink overlapping.
+					r.Min.X, r.Min.Y, r.Max.X, r.Max.Y = r.Min.X+0.5, r.Min.Y+0.5, r.Max.X-0.5, r.Max.Y-0.5
+					boxes = append(boxes, box{a.String, r})
+				}
+			}
+			for i := range boxes {
+				for j := i + 1; j < len(boxes); j++ {
+					if overlaps(boxes[i].r, boxes[j].r) {
+						t.Errorf("%s at %.0f pt: %q and %q overlap", fx.name, float64(w), boxes[i].s, boxes[j].s)
+					}
+				}
+			}
 		}
 	}
 }

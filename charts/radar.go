@@ -224,8 +224,12 @@ func (rc *RadarChart) panels() *panels {
 	}
 	th := rc.Theme
 	ps := &panels{legend: &legend{th: th}, count: 1}
-	ps.panelHeight = func(w vg.Length) vg.Length { return max(min(w*0.62, vg.Points(330)), vg.Points(200)) }
-	ps.make = func(vg.Length, bool) []*plot.Plot {
+	ps.panelHeight = func(w vg.Length) vg.Length {
+		// As tall as the widest radar the width allows, plus label room.
+		lw := max(min(w*0.2, vg.Points(88)), vg.Points(50))
+		return max(min(2*(w/2-lw-8)+vg.Points(70), vg.Points(330)), vg.Points(160))
+	}
+	ps.make = func(vg.Length, int) []*plot.Plot {
 		p := newPlot(th)
 		p.HideAxes()
 		p.Add(&RadarPlotter{Chart: rc})
@@ -288,7 +292,7 @@ func newRadar(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error)
 			}
 			rc.Series = append(rc.Series, s)
 		}
-		rc.Note = "Percentile ranks run in each indicator's better direction: outward is better on every spoke."
+		rc.Note = radarNote(inds, true)
 	case "range":
 		for _, ind := range inds {
 			lo, hi := math.Inf(1), math.Inf(-1)
@@ -325,9 +329,41 @@ func newRadar(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error)
 			f.Values = append(f.Values, v)
 		}
 		rc.Series = append(rc.Series, f)
-		rc.Note = "Each spoke runs from the lowest to the highest value in the groups shown (worse to better, outward); spokes are not comparable with each other."
+		rc.Note = radarNote(inds, false)
 	default:
 		return nil, specError(spec, "scale %q: use percentile or range", spec.Scale)
 	}
 	return rc, nil
+}
+
+// radarNote says how to read the spokes; it speaks of better and worse
+// only for indicators with a declared better direction.
+func radarNote(inds []dataset.Indicator, percentile bool) string {
+	judged, neutral := 0, 0
+	for _, ind := range inds {
+		if ind.Better == dataset.Neutral {
+			neutral++
+		} else {
+			judged++
+		}
+	}
+	var s string
+	switch {
+	case percentile && neutral == 0:
+		s = "Percentile ranks run in each indicator's better direction: outward is better on every spoke."
+	case percentile && judged == 0:
+		s = "Percentile ranks: outward means a higher value than more of the group; no direction is better."
+	case percentile:
+		s = "Percentile ranks: outward is better on spokes with a better direction and simply higher on neutral ones."
+	case neutral == 0:
+		s = "Each spoke runs from the worst value in the groups shown (centre) to the best (rim)."
+	case judged == 0:
+		s = "Each spoke runs from the lowest value in the groups shown (centre) to the highest (rim); no direction is better."
+	default:
+		s = "Each spoke runs from the worst value in the groups shown to the best, or from lowest to highest on neutral spokes."
+	}
+	if !percentile {
+		s += " Spokes have different scales and are not comparable with each other."
+	}
+	return s
 }

@@ -146,7 +146,7 @@ func (sc *ScatterChart) panels() *panels {
 	th := sc.Theme
 	ps := &panels{legend: &legend{th: th}, count: 1}
 	ps.panelHeight = func(w vg.Length) vg.Length { return max(min(w*0.62, vg.Points(340)), vg.Points(170)) }
-	ps.make = func(w vg.Length, _ bool) []*plot.Plot {
+	ps.make = func(w vg.Length, _ int) []*plot.Plot {
 		p := newPlot(th)
 		p.Add(grid(true, true), &ScatterPlotter{Chart: sc})
 		p.X.Label.Text = fitAxisTitle(sc.XInd, th, w-40)

@@ -227,23 +227,20 @@ func (tc *TrendChart) panels() *panels {
 	}
 	th := tc.Theme
 	ps := &panels{legend: &legend{th: th}, count: len(tc.Panels), minPanel: vg.Points(170)}
-	ps.make = func(w vg.Length, stacked bool) []*plot.Plot {
+	ps.make = func(w vg.Length, cols int) []*plot.Plot {
+		ph := ps.panelHeight(ps.panelWidth(w))
 		out := make([]*plot.Plot, len(tc.Panels))
 		for k, pn := range tc.Panels {
 			p := newPlot(th)
 			p.Add(grid(false, true), &TrendPlotter{Panel: pn, Theme: th})
-			p.X.Tick.Marker = yearTicks{years: pn.Years}
-			p.Y.Label.Text = fitAxisTitle(pn.Indicator, th, ps.panelHeight(w)-30)
+			p.X.Tick.Marker = yearTicks{years: pn.Years, room: ps.dataWidth(w, cols, vg.Points(40))}
+			p.Y.Label.Text = fitAxisTitle(pn.Indicator, th, ph-30)
+			p.Y.Tick.Marker = ticksFor(ph - 30)
 			out[k] = p
 		}
 		return out
 	}
-	ps.panelHeight = func(w vg.Length) vg.Length {
-		if tc.stackedAt(ps, w) {
-			return max(min(w*0.5, vg.Points(260)), vg.Points(150))
-		}
-		return max(min(w/vg.Length(max(len(tc.Panels), 1))*0.75, vg.Points(260)), vg.Points(150))
-	}
+	ps.panelHeight = func(pw vg.Length) vg.Length { return max(min(pw*0.62, vg.Points(260)), vg.Points(150)) }
 	l := ps.legend
 	focus := FocusMarker()
 	focus.Radius = vg.Points(3.6)
@@ -265,9 +262,6 @@ func (tc *TrendChart) panels() *panels {
 	tc.built = ps
 	return ps
 }
-
-// stackedAt avoids recursion between panelHeight and stacked.
-func (tc *TrendChart) stackedAt(ps *panels, w vg.Length) bool { return ps.stacked(w) }
 
 // Height implements Chart.
 func (tc *TrendChart) Height(w vg.Length) vg.Length { return tc.panels().Height(w) }

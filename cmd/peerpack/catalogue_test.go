@@ -19,7 +19,6 @@ func TestMalformedCatalogue(t *testing.T) {
 	if len(cases) < 40 {
 		t.Errorf("the catalogue has %d cases; keep at least 40", len(cases))
 	}
-	wd, _ := os.Getwd()
 	for _, dir := range cases {
 		dir := dir
 		t.Run(filepath.Base(filepath.Dir(dir))+"/"+filepath.Base(dir), func(t *testing.T) {
@@ -29,13 +28,14 @@ func TestMalformedCatalogue(t *testing.T) {
 			}
 			lines := strings.Split(strings.TrimRight(string(raw), "\n"), "\n")
 			want, wantCode := lines[0], 1
+			if want == "ok" {
+				// a valid edge case: it must load, with nothing on stderr
+				want, wantCode = "", 0
+			}
 			if len(lines) > 1 && strings.HasPrefix(lines[1], "exit ") {
 				wantCode, _ = strconv.Atoi(strings.TrimPrefix(lines[1], "exit "))
 			}
-			if err := os.Chdir(dir); err != nil {
-				t.Fatal(err)
-			}
-			defer os.Chdir(wd)
+			t.Chdir(dir)
 			var stdout, stderr bytes.Buffer
 			code := run(context.Background(), &env{stdout: &stdout, stderr: &stderr}, []string{"check", "brief.md"})
 			got := strings.SplitN(stderr.String(), "\n", 2)[0]

@@ -235,11 +235,12 @@ func runOne(ctx context.Context, base *build.Inputs, j Job, opt Options) (o Outc
 		o.Err = err
 		return o
 	}
-	pdf, _, err := build.Pack(in, opt.Created, opt.Version)
+	packed, err := build.Pack(in, opt.Created, opt.Version)
 	if err != nil {
 		o.Err = err
 		return o
 	}
+	pdf := packed.PDF
 	if err := atomicfile.WriteFile(ctx, filepath.Join(opt.OutDir, j.Output), pdf, 0o644); err != nil {
 		o.Err = err
 		return o

@@ -103,10 +103,7 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 	}
 	briefDir := path.Dir(src.Brief)
 	b.Dir = briefDir
-	if err := rebaseDataPaths(b, briefDir); err != nil {
-		probs.Add(err)
-		return nil, probs.Err()
-	}
+	rebaseDataPaths(b, briefDir)
 	if probs.Len() > 0 {
 		// Front matter problems make loading the data pointless.
 		return nil, probs.Err()
@@ -125,43 +122,37 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 }
 
 // rebaseDataPaths makes the brief's data paths relative to the root, so a
-// brief in a subfolder of --root may name ../shared/values.csv, while no
-// path may leave the root.
-func rebaseDataPaths(b *brief.Brief, dir string) error {
-	var l diag.List
-	fix := func(key string, p *string) {
-		if *p == "" {
+// brief in a subfolder of --root may name ../shared/values.csv. A path that
+// is not a plain relative path, or that would leave the root, is left as
+// written: the dataset stage refuses it with a message at the brief key.
+func rebaseDataPaths(b *brief.Brief, dir string) {
+	if dir == "." {
+		return
+	}
+	fix := func(p *string) {
+		orig := filepath.ToSlash(*p)
+		if orig == "" || strings.Contains(orig, "://") || path.IsAbs(orig) || filepath.IsAbs(*p) {
 			return
 		}
-		orig := *p
-		if strings.Contains(orig, "://") {
-			pos := b.PosOf(key)
-			l.Addf(b.File, pos.Line, pos.Column, "%s is %q, a URL; peerpack never reads from the network: download the file and name its path", key, orig)
-			return
-		}
-		if path.IsAbs(filepath.ToSlash(orig)) || filepath.IsAbs(orig) {
-			pos := b.PosOf(key)
-			l.Addf(b.File, pos.Line, pos.Column, "%s is the absolute path %q; write it relative to the brief's folder", key, orig)
-			return
-		}
-		joined := path.Clean(path.Join(dir, filepath.ToSlash(orig)))
+		file, sheet, hasSheet := strings.Cut(orig, "#")
+		joined := path.Clean(path.Join(dir, file))
 		if !fs.ValidPath(joined) {
-			pos := b.PosOf(key)
-			l.Addf(b.File, pos.Line, pos.Column, "%s %q leads outside the brief's folder; keep data beside the brief or give a wider --root", key, orig)
 			return
+		}
+		if hasSheet {
+			joined += "#" + sheet
 		}
 		*p = joined
 	}
-	fix("data.register", &b.Data.Register)
-	fix("data.dictionary", &b.Data.Dictionary)
-	fix("data.ppp", &b.Data.PPP)
-	fix("data.papers", &b.Data.Papers)
-	fix("data.votes", &b.Data.Votes)
+	fix(&b.Data.Register)
+	fix(&b.Data.Dictionary)
+	fix(&b.Data.PPP)
+	fix(&b.Data.Papers)
+	fix(&b.Data.Votes)
 	for i := range b.Data.Values {
-		fix("data.values", &b.Data.Values[i])
+		fix(&b.Data.Values[i])
 	}
-	fix("theme.logo", &b.Theme.Logo)
-	return l.Err()
+	fix(&b.Theme.Logo)
 }
 
 // Options are the outputs and settings of one build.
@@ -172,6 +163,9 @@ type Options struct {
 	Created  time.Time
 	Version  string
 	Override func(*brief.Brief)
+	// AfterStage, when set, is called after each stage ("load", "pack")
+	// with the stage's name; tests use it to interrupt a build part way.
+	AfterStage func(stage string)
 }
 
 // Result describes a finished build.
@@ -181,8 +175,18 @@ type Result struct {
 	Inputs *Inputs
 }
 
-// Pack renders the PDF bytes and the figures file of loaded inputs.
-func Pack(in *Inputs, created time.Time, version string) (pdf []byte, figuresCSV []byte, err error) {
+// Packed is a laid-out pack: the PDF, the figures file and the commentary
+// written for it.
+type Packed struct {
+	PDF        []byte
+	FiguresCSV []byte
+	Commentary *narrative.Commentary
+}
+
+// Pack writes the commentary, lays out the PDF and renders the figures file
+// of loaded inputs. It composes the commentary into in.Figures, so it runs
+// once per figures model.
+func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("internal error while laying out the pack (please report it with the brief): %v\n%s", r, debug.Stack())
@@ -190,20 +194,20 @@ func Pack(in *Inputs, created time.Time, version string) (pdf []byte, figuresCSV
 	}()
 	com, err := narrative.Compose(in.Figures, in.Brief)
 	if err != nil {
-		return nil, nil, err
+		return nil, err
 	}
-	pdf, err = layout.Render(layout.Input{
+	pdf, err := layout.Render(layout.Input{
 		Brief: in.Brief, Model: in.Figures, Commentary: com, FS: in.FS,
 		Created: created, Version: version,
 	})
 	if err != nil {
-		return nil, nil, err
+		return nil, err
 	}
 	var buf bytes.Buffer
 	if err := figures.WriteCSV(&buf, in.Figures); err != nil {
-		return nil, nil, err
+		return nil, err
 	}
-	return pdf, buf.Bytes(), nil
+	return &Packed{PDF: pdf, FiguresCSV: buf.Bytes(), Commentary: com}, nil
 }
 
 // Build runs the whole pipeline for one brief and writes the outputs.
@@ -213,17 +217,25 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 			err = fmt.Errorf("internal error (please report it with the brief): %v\n%s", r, debug.Stack())
 		}
 	}()
+	after := func(stage string) {
+		if opt.AfterStage != nil {
+			opt.AfterStage(stage)
+		}
+	}
 	in, err := Load(src, opt.Override)
 	if err != nil {
 		return nil, err
 	}
+	after("load")
 	if err := ctx.Err(); err != nil {
 		return nil, interrupted(opt.Output)
 	}
-	pdf, figs, err := Pack(in, opt.Created, opt.Version)
+	packed, err := Pack(in, opt.Created, opt.Version)
 	if err != nil {
 		return nil, err
 	}
+	pdf, figs := packed.PDF, packed.FiguresCSV
+	after("pack")
 	if err := ctx.Err(); err != nil {
 		return nil, interrupted(opt.Output)
 	}

@@ -52,8 +52,14 @@ func (l *loader) load() *Dataset {
 	}
 	check("data.register", b.Data.Register)
 	check("data.dictionary", b.Data.Dictionary)
+	listed := map[string]bool{}
 	for _, v := range b.Data.Values {
-		check("data.values", v)
+		if check("data.values", v) && listed[v] {
+			p := b.PosOf("data.values")
+			l.probs.Addf(b.File, p.Line, p.Column, "data.values lists %q twice; every value in it would be a duplicate, so list each file once", v)
+			ok = false
+		}
+		listed[v] = true
 	}
 	if b.Data.PPP != "" {
 		check("data.ppp", b.Data.PPP)

@@ -271,7 +271,9 @@ func TestSuspicious(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if rep.SuspiciousCount[SuspectFarOut] != 1 || rep.SuspiciousCount[SuspectLowCoverage] != 1 {
+	// The 900 is both far from the 2024 median and 53 times its own other
+	// years' median (17).
+	if rep.SuspiciousCount[SuspectFarOut] != 1 || rep.SuspiciousCount[SuspectLowCoverage] != 1 || rep.SuspiciousCount[SuspectJump] != 1 {
 		t.Fatalf("counts %v: %+v", rep.SuspiciousCount, rep.Suspicious)
 	}
 	var far Suspicion

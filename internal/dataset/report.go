@@ -19,9 +19,10 @@ type Report struct {
 	// Indicators has one entry per dictionary indicator, in dictionary
 	// order.
 	Indicators []IndicatorCoverage
-	// Suspicious lists values that are legal but worth a look, at most
-	// MaxSuspicious per kind and indicator; SuspiciousCount has the totals
-	// by kind.
+	// Suspicious lists findings that are legal but worth a look, the most
+	// extreme MaxSuspicious per kind and indicator; SuspiciousCount has the
+	// totals by kind. A far-from-the-median finding covers one institution
+	// and indicator over all the years it is far out.
 	Suspicious      []Suspicion
 	SuspiciousCount map[string]int
 	Derived         []DerivedOutcome
@@ -41,6 +42,7 @@ const MaxSuspicious = 5
 type FileSummary struct {
 	Role string // register, dictionary, values (long), values (wide), PPP factors
 	Path string
+	// Rows counts data rows, or indicators for the dictionary.
 	Rows int
 }
 
@@ -61,6 +63,8 @@ const (
 	SuspectFarOut       = "far from the median"
 	SuspectLowCoverage  = "low coverage year"
 	SuspectOutOfRange   = "derived value out of range"
+	SuspectJump         = "jump from the institution's other years"
+	JumpFactor          = 10.0 // a value this many times its own other years' median (or a tenth of it)
 	FarOutIQRs          = 10.0 // how many interquartile ranges from the median is "far"
 	LowCoverageFraction = 0.5  // a year below this fraction of the usual coverage is flagged
 )
@@ -131,7 +135,14 @@ func (r *Report) Write(w io.Writer) {
 	p := func(format string, args ...any) { fmt.Fprintf(w, format, args...) }
 	p("Data for %s\n", r.Brief)
 	for _, f := range r.Files {
-		p("  %-15s %s (%s rows)\n", f.Role, f.Path, thousands(f.Rows))
+		what := plural(f.Rows, "row", "rows")
+		switch f.Role {
+		case "dictionary":
+			what = plural(f.Rows, "indicator", "indicators")
+		case "register":
+			what = plural(f.Rows, "institution", "institutions")
+		}
+		p("  %-15s %s (%s %s)\n", f.Role, f.Path, thousands(f.Rows), what)
 	}
 	p("\n%s institutions in %s countries", thousands(r.Institutions), thousands(r.Countries))
 	if len(r.Years) > 0 {
@@ -225,7 +236,7 @@ func (r *Report) Write(w io.Writer) {
 		total += n
 	}
 	if total > 0 {
-		p("\nWorth a look (%s values; not errors)\n", thousands(total))
+		p("\nWorth a look (%s %s; not errors)\n", thousands(total), plural(total, "finding", "findings"))
 		for _, s := range r.Suspicious {
 			where := ""
 			if s.Where != "" {
@@ -237,7 +248,7 @@ func (r *Report) Write(w io.Writer) {
 		for _, s := range r.Suspicious {
 			listed[s.Kind]++
 		}
-		for _, k := range []string{SuspectFarOut, SuspectOutOfRange, SuspectLowCoverage} {
+		for _, k := range []string{SuspectFarOut, SuspectJump, SuspectOutOfRange, SuspectLowCoverage} {
 			if n := r.SuspiciousCount[k] - listed[k]; n > 0 {
 				p("  ... and %s more %s\n", thousands(n), k)
 			}

@@ -101,3 +101,19 @@ func BenchmarkLoadWorld(b *testing.B) {
 	}
 	b.ReportMetric(float64(peak)/(1<<20), "heap-sys-MB")
 }
+
+// BenchmarkLoadRows loads datasets of 1/20, 1/10 and 1/5 of the world's
+// size; ns/op should grow in proportion to the rows (200 per institution).
+func BenchmarkLoadRows(b *testing.B) {
+	for _, n := range []int{worldInstitutions / 20, worldInstitutions / 10, worldInstitutions / 5} {
+		b.Run(fmt.Sprintf("rows=%d", n*worldIndicators*worldYears), func(b *testing.B) {
+			dir := b.TempDir()
+			writeWorld(b, dir, n)
+			b.ReportAllocs()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				loadWorld(b, dir)
+			}
+		})
+	}
+}

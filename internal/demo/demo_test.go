@@ -41,7 +41,7 @@ func TestFilesDeterministic(t *testing.T) {
 
 func TestOtherSeedDiffers(t *testing.T) {
 	// Guards against a generator that ignores its seed.
-	if bytes.Equal(generate(Seed)[ValuesName], generate(Seed+1)[ValuesName]) {
+	if bytes.Equal(generate(Seed)[ValuesName], generate(Seed + 1)[ValuesName]) {
 		t.Error("values.csv is the same for two seeds")
 	}
 }
@@ -92,6 +92,9 @@ func TestBriefParsesAndRefersToScenario(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, p := range s.Check(b) {
+		t.Error(p)
+	}
+	for _, p := range demotest.Unscoped(b) {
 		t.Error(p)
 	}
 	if b.Focus != FocusID {

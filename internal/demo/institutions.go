@@ -118,7 +118,7 @@ func drawInstitution(r *rng, ci int, m mission, k int) institution {
 		// The first few are the old research-intensive universities.
 		if k < 3 {
 			in.Founded = 1380 + r.intn(320)
-			in.Research = 2.0 - 0.2*float64(k) + 0.15*r.normal()
+			in.Research = 1.75 - 0.15*float64(k) + 0.12*r.normal()
 		} else {
 			in.Founded = 1850 + r.intn(110)
 			in.Research = 1.3 + 0.3*r.normal()
@@ -169,7 +169,7 @@ func drawInstitution(r *rng, ci int, m mission, k int) institution {
 	in.Intl += c.Intl + 0.6*r.normal() + 0.25*in.Research
 	in.IntlTrend = c.IntlTrend + 0.02*r.normal()
 	in.StudentShift += -0.12*in.Research + 0.15*r.normal()
-	in.FundingShift = c.Funding + 0.35*r.normal()
+	in.FundingShift = c.Funding + 0.25*r.normal()
 	in.IndustryShift += 0.6 * r.normal()
 	in.ImpactShift = 0.12 * r.normal()
 	in.Profile = drawProfile(r, m, in.Spec)

@@ -7,10 +7,9 @@ import (
 	"image/png"
 )
 
-// logoPNG draws the invented client's logo for the client-report template:
-// a deep teal square with three rising bars, the mark of an invented
-// consultancy. It is drawn in code, so no image file is copied from
-// anywhere.
+// logoPNG draws the logo of the client-report template's invented client
+// university: a deep teal square with three rising bars. It is drawn in
+// code, so no image file is copied from anywhere.
 func logoPNG() []byte {
 	const size = 240
 	img := image.NewNRGBA(image.Rect(0, 0, size, size))

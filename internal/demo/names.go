@@ -49,7 +49,7 @@ var placeParts = map[nameStyle]struct{ stems, endings []string }{
 		endings: []string{"ennes", "ac", "ières", "ois", "eux", "ville", "court", "mont", "ange", "anne", "elles", "ignan"},
 	},
 	styleNordvaldic: {
-		stems:   []string{"Vård", "Skjær", "Bjør", "Fjell", "Hå", "Lø", "Mør", "Nord", "Rå", "Sø", "Tind", "Ulv", "Ås", "Grø", "Kvi", "Lyng", "Strø", "Ørn"},
+		stems:   []string{"Vård", "Skjær", "Bjør", "Fjell", "Hå", "Lø", "Mør", "Skarv", "Rå", "Sø", "Tind", "Ulv", "Ås", "Grø", "Kvi", "Lyng", "Strø", "Ørn"},
 		endings: []string{"ø", "nes", "vik", "dal", "berg", "heim", "sund", "fjord", "stad", "våg", "land", "øy"},
 	},
 	styleWieldanian: {
@@ -58,7 +58,7 @@ var placeParts = map[nameStyle]struct{ stems, endings []string }{
 	},
 	styleLusmaran: {
 		stems:   []string{"Alvar", "Brav", "Cerr", "Dour", "Estr", "Ferrag", "Gand", "Lous", "Mirag", "Orv", "Quint", "Ribal", "Santel", "Tarr", "Valder", "Zamb", "Alcor", "Belm"},
-		endings: []string{"ém", "ão", "osa", "ada", "ela", "inho", "ales", "edo", "ira", "ança", "ilha", "ares"},
+		endings: []string{"ém", "ão", "osa", "ada", "ela", "eiro", "ales", "edo", "ira", "ança", "ilha", "ares"},
 	},
 }
 

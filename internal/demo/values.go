@@ -28,13 +28,22 @@ var missingRate = map[string]float64{
 	"research_income": 0.02, "doctorates": 0.03, "intl_staff": 0.02, "academic_fte": 0.004,
 }
 
-// cellNotes are the footnotes a few long-format values carry.
-var cellNotes = []string{
-	"Estimate: the staff census was not returned this year.",
-	"Restated by the institution after audit.",
-	"Includes a college merged into the institution this year.",
-	"Provisional figure; final accounts not yet published.",
-	"Financial year changed; figure covers fifteen months scaled to twelve.",
+// cellNotes are the footnotes a few long-format values carry, by
+// indicator.
+var cellNotes = map[string][]string{
+	"research_income": {
+		"Restated by the institution after audit.",
+		"Provisional figure; final accounts not yet published.",
+		"Includes a college merged into the institution this year.",
+	},
+	"industry_income": {
+		"Restated by the institution after audit.",
+		"Financial year changed; figure covers fifteen months scaled to twelve.",
+	},
+	"doctorates": {
+		"Includes degrees awarded jointly with a partner institution.",
+		"Provisional count; the graduation register closes after the census date.",
+	},
 }
 
 // values holds every generated value: v[inst][year index][key] with NaN for
@@ -76,10 +85,10 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 			R := in.Research + (in.ResearchTrend+c.ResearchTrend)*ft + 0.05*r.normal()
 			I := in.Intl + in.IntlTrend*ft + 0.05*r.normal()
 			students := acad * c.StudentRatio * math.Exp(in.StudentShift+0.03*r.normal())
-			papers := math.Round(acad * math.Exp(-0.55+0.75*R+0.08*r.normal()))
+			papers := math.Round(acad * math.Exp(-0.5+0.68*R+0.08*r.normal()))
 			intlP := math.Round(papers * logistic(-0.35+0.55*I+0.3*R+0.06*r.normal()))
 			fwci := math.Exp(-0.2 + 0.22*R + 0.12*I + in.ImpactShift + 0.9/math.Sqrt(papers+5)*r.normal())
-			resPer := math.Exp(10.9 + 0.75*R + in.FundingShift + 0.015*ft + 0.08*r.normal())
+			resPer := math.Exp(10.95 + 0.6*R + in.FundingShift + 0.015*ft + 0.08*r.normal())
 			indPer := math.Exp(8.6 + 0.4*R + in.IndustryShift + 0.15*r.normal())
 			docs := math.Round(acad * math.Exp(-2.6+0.7*R+0.1*r.normal()))
 			votes := float64(r.poisson(math.Exp(1.2 + 1.5*R + 0.6*math.Log(acad/1000))))
@@ -150,7 +159,7 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 		if insts[i].ID == FocusID || math.IsNaN(out.v[i][k][t]) {
 			continue
 		}
-		out.notes[cell{i, t, k}] = pick(r, cellNotes)
+		out.notes[cell{i, t, k}] = pick(r, cellNotes[k])
 	}
 	return out
 }

@@ -2,6 +2,7 @@ package figures
 
 import (
 	"math"
+	"slices"
 
 	"peerpack/internal/stats"
 )
@@ -130,7 +131,7 @@ func (m *Model) PlaceOf(group, indicator string, inst, year int) (*Position, boo
 	v := m.Data.Column(k, year)[inst]
 	var pl stats.Placement
 	if !math.IsNaN(v) {
-		pl = stats.PlaceUnsorted(values, v, direction(ind.Better), g.Has(inst))
+		pl = stats.PlaceUnsorted(values, v, RankDirection(ind.Better), g.Has(inst))
 	}
 	return position(g, ind, inst, year, v, len(values), pl, d), true
 }
@@ -144,4 +145,32 @@ func (m *Model) Tracked(inst int) bool {
 		}
 	}
 	return false
+}
+
+// MemberPlace is one member's value and placement in its group.
+type MemberPlace struct {
+	Institution int
+	Value       float64
+	stats.Placement
+}
+
+// MemberPlaces places every member of a group that has a value of the
+// indicator in the year, best first (ties in register order), with the
+// same definitions as the stored positions: for charts and tables that
+// show every member (bars, heatmaps, league tables). One sort, O(n log n).
+func (m *Model) MemberPlaces(group, indicator string, year int) []MemberPlace {
+	k := m.Data.Dictionary.Index(indicator)
+	insts, values := m.Members(group, indicator, year)
+	if len(insts) == 0 {
+		return nil
+	}
+	dir := RankDirection(m.Data.Dictionary.Indicators[k].Better)
+	sorted := slices.Clone(values)
+	slices.Sort(sorted)
+	out := make([]MemberPlace, len(insts))
+	for i, inst := range insts {
+		out[i] = MemberPlace{Institution: inst, Value: values[i], Placement: stats.Place(sorted, values[i], dir, true)}
+	}
+	slices.SortStableFunc(out, func(a, b MemberPlace) int { return a.Rank - b.Rank })
+	return out
 }

@@ -1,6 +1,7 @@
 package figures
 
 import (
+	"fmt"
 	"math"
 	"runtime"
 	"slices"
@@ -34,14 +35,18 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		return nil, err
 	}
 
+	first, last := b.Years.First, b.Years.Last
+	if first == 0 && last == 0 {
+		first, last = b.Year, b.Year // a brief built without a span
+	}
 	m := &Model{
 		Data:    d,
 		Focus:   focus,
 		FocusID: b.Focus,
 		Named:   tracked,
 		Year:    b.Year,
-		First:   b.Years.First,
-		Last:    b.Years.Last,
+		First:   first,
+		Last:    last,
 		Method:  stats.ParseQuantileMethod(b.Quantiles),
 		Groups:  groups,
 		dist:    map[distKey]*Distribution{},
@@ -55,13 +60,17 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 			m.Years = append(m.Years, y)
 		}
 	}
-	m.compute()
+	if err := m.compute(); err != nil {
+		probs.Add(err)
+		return nil, probs
+	}
 	return m, nil
 }
 
-// direction maps a dictionary polarity to a ranking direction; neutral
-// indicators rank by value, highest first.
-func direction(p dataset.Polarity) stats.Direction {
+// RankDirection maps a dictionary polarity to a ranking direction;
+// neutral indicators rank by value, highest first. Every rank and
+// percentile of a pack uses it.
+func RankDirection(p dataset.Polarity) stats.Direction {
 	if p == dataset.LowerIsBetter {
 		return stats.LowerFirst
 	}
@@ -77,8 +86,9 @@ type columnResult struct {
 
 // compute fills the model, spreading (group, indicator) jobs over the
 // available processors; results land in fixed slots, so the outcome does
-// not depend on scheduling.
-func (m *Model) compute() {
+// not depend on scheduling. A panic in a worker (a defect, never expected)
+// is turned into an error so that it cannot reach the user as a crash.
+func (m *Model) compute() error {
 	nInd := len(m.Data.Dictionary.Indicators)
 	m.yearOrder = registerOrders(m.Data, m.Year)
 	results := make([]columnResult, len(m.Groups)*nInd)
@@ -89,10 +99,23 @@ func (m *Model) compute() {
 		workers = len(results) + len(m.Groups)
 	}
 	var wg sync.WaitGroup
+	var failMu sync.Mutex
+	var failure error
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			defer func() {
+				if r := recover(); r != nil {
+					failMu.Lock()
+					if failure == nil {
+						failure = fmt.Errorf("internal error while computing the figures (%v); please report it with the brief and data", r)
+					}
+					failMu.Unlock()
+					for range jobs { // drain, so the feeder is not blocked
+					}
+				}
+			}()
 			var buf []float64
 			for j := range jobs {
 				if j < len(results) {
@@ -115,6 +138,9 @@ func (m *Model) compute() {
 	close(jobs)
 	wg.Wait()
 	m.yearOrder = nil
+	if failure != nil {
+		return failure
+	}
 
 	for _, res := range results {
 		for _, d := range res.dists {
@@ -136,7 +162,13 @@ func (m *Model) compute() {
 			m.Correlations = append(m.Correlations, c)
 		}
 	}
+	return nil
 }
+
+// manyTracked is the number of tracked institutions above which placing
+// them by one sort and binary searches (O(n log n + k log n)) beats one
+// counting pass (O(n k)).
+const manyTracked = 8
 
 // column computes one group's indicator over every year of the span.
 // Each year's values are gathered once; the quartiles come by selection
@@ -144,11 +176,12 @@ func (m *Model) compute() {
 // placed in one counting pass, so no column is ever fully sorted.
 func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64) {
 	ind := m.Data.Dictionary.Indicators[k]
-	dir := direction(ind.Better)
+	dir := RankDirection(ind.Better)
 	nt := len(m.Named)
 	targets := make([]float64, nt)
 	member := make([]bool, nt)
 	placed := make([]stats.Placement, nt)
+	var sorted []float64
 	for j, inst := range m.Named {
 		member[j] = g.Has(inst)
 	}
@@ -168,7 +201,19 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 		for j, inst := range m.Named {
 			targets[j] = col[inst]
 		}
-		stats.PlaceAll(vals, targets, member, dir, placed)
+		if nt <= manyTracked {
+			stats.PlaceAll(vals, targets, member, dir, placed)
+		} else {
+			// many tracked institutions: one sort, then binary searches
+			sorted = append(sorted[:0], vals...)
+			slices.Sort(sorted)
+			for j, v := range targets {
+				placed[j] = stats.Placement{}
+				if !math.IsNaN(v) {
+					placed[j] = stats.Place(sorted, v, dir, member[j])
+				}
+			}
+		}
 		dist.Box = stats.BoxOfUnsorted(vals, len(g.Members)-len(vals), m.Method)
 		if len(dist.Box.OutlierValues) > 0 {
 			dist.Outliers = outlierMembers(g.Members, col, dist.Box)

@@ -345,6 +345,9 @@ func (r *resolver) nearest(spec *brief.GroupSpec, over string) []*Group {
 	}
 	g := newGroup(spec.Name, "nearest", r.d.Register.Len())
 	g.Defined = fmt.Sprintf("the %d institutions nearest %s on %s in %d (standardised Euclidean distance)", len(cands), r.b.Focus, strings.Join(ns.Indicators, ", "), year)
+	if len(cands) < ns.Count {
+		g.Defined += fmt.Sprintf("; %d were asked for, but only %d institutions have every one of these indicators", ns.Count, len(cands))
+	}
 	if ns.Where != nil {
 		g.Defined += ", among those where " + describeFilter(ns.Where)
 	}
@@ -394,7 +397,7 @@ func (r *resolver) each(spec *brief.GroupSpec, over string) []*Group {
 			g = newGroup(name, "each", n)
 			g.EachField, g.EachValue = spec.Each, v
 			g.Defined = fmt.Sprintf("%s is %s", spec.Each, v)
-			if spec.Where != nil {
+			if restrictsOther(spec.Where, spec.Each) {
 				g.Defined += ", among those where " + describeFilter(spec.Where)
 			}
 			byValue[v] = g
@@ -418,4 +421,19 @@ func unknownIndicator(d *dataset.Dataset, where, key string) string {
 		msg += fmt.Sprintf("; did you mean %q?", s)
 	}
 	return msg
+}
+
+// restrictsOther reports whether a filter has a condition on a field other
+// than field; a where that only picks which values of an each field to
+// expand need not be restated in every group's definition.
+func restrictsOther(f *brief.Filter, field string) bool {
+	if f == nil {
+		return false
+	}
+	for _, c := range f.Conds {
+		if c.Attr != field {
+			return true
+		}
+	}
+	return false
 }

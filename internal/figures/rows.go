@@ -198,8 +198,20 @@ func (m *Model) Rows() []Row {
 	}
 
 	rows = append(rows, m.extra...)
-	slices.SortStableFunc(rows, func(a, b Row) int { return compareKeys(a.Key, b.Key) })
-	return rows
+	// Sort an index rather than the rows (large structs), with the input
+	// position as the last tie-break, so equal keys keep their order.
+	idx := make([]int32, len(rows))
+	for i := range idx {
+		idx[i] = int32(i)
+	}
+	slices.SortFunc(idx, func(a, b int32) int {
+		return cmp.Or(compareKeys(rows[a].Key, rows[b].Key), cmp.Compare(a, b))
+	})
+	out := make([]Row, len(rows))
+	for i, j := range idx {
+		out[i] = rows[j]
+	}
+	return out
 }
 
 // PairKey is the indicator column of a correlation row: the two keys in

@@ -1,12 +1,16 @@
 package layout
 
 import (
+	"math"
 	"strconv"
 	"strings"
 
 	"github.com/yuin/goldmark/ast"
 	east "github.com/yuin/goldmark/extension/ast"
+	"gonum.org/v1/plot/vg"
 
+	"peerpack/charts"
+	"peerpack/internal/brief"
 	"peerpack/internal/pdf"
 )
 
@@ -77,8 +81,35 @@ func (w *writer) heading(n ast.Node, entering bool) ast.WalkStatus {
 	}
 	spans := append([]span(nil), w.spans...)
 	w.spans = w.spans[:0]
+	w.keep = w.followingNeed(n.NextSibling())
 	w.setHeading(strings.TrimSpace(title.String()), h.Level, spans)
+	w.keep = 0
 	return ast.WalkContinue
+}
+
+// followingNeed is the room a heading must keep below it for the start of
+// what follows: a chart whole (with its caption), a table's caption,
+// header and first rows, else about three lines of text.
+func (w *writer) followingNeed(next ast.Node) float64 {
+	switch blk := w.blockOf(next).(type) {
+	case *brief.ChartBlock:
+		ch, err := charts.New(w.m, blk, w.chartTheme())
+		if err != nil {
+			return keepWithNext
+		}
+		width := w.width - w.indent
+		if blk.Size == "half" {
+			width = (width - chartGap) / 2
+		}
+		h := float64(ch.Height(vg.Length(width*pdf.PointsPerMM))) / pdf.PointsPerMM
+		if h <= 0 || h != h {
+			return keepWithNext
+		}
+		return math.Min(h+chartSpacing+2*w.st.lineHeight(captionSize), w.bottom()-w.frameTop()-30)
+	case *brief.TableBlock:
+		return 40
+	}
+	return keepWithNext
 }
 
 // sectionHeading sets a heading the pack adds itself (executive summary,
@@ -111,7 +142,11 @@ func (w *writer) setHeading(title string, level int, spans []span) {
 	}
 	toks := w.tokenize(spans)
 	lines := w.wrap(spans, toks, w.width-w.indent, w.width-w.indent)
-	need := before + float64(len(lines))*lh + keepWithNext
+	keep := w.keep
+	if keep <= 0 {
+		keep = keepWithNext
+	}
+	need := before + float64(len(lines))*lh + keep
 	if w.y+need > w.bottom() {
 		w.nextFrame()
 		before = 0
@@ -157,11 +192,14 @@ func (w *writer) setHeading(title string, level int, spans []span) {
 	}
 }
 
+// nest enters a list or quote, refusing nesting beyond MaxNesting; a
+// refused node is remembered so that leaving it undoes nothing.
 func (w *writer) nest(n ast.Node) bool {
 	w.depth++
 	if w.depth > MaxNesting {
 		w.failAt(w.nodePos(n), "lists and quotes are nested %d deep here; at most %d levels print legibly, so flatten this part of the brief", w.depth, MaxNesting)
 		w.depth--
+		w.consumed[n] = true
 		return false
 	}
 	return true
@@ -176,6 +214,9 @@ func (w *writer) list(n ast.Node, entering bool) ast.WalkStatus {
 		w.lists = append(w.lists, &listState{ordered: l.IsOrdered(), next: l.Start, marker: l.Marker})
 		w.indent += 6
 		w.tight = l.IsTight
+		return ast.WalkContinue
+	}
+	if w.consumed[n] {
 		return ast.WalkContinue
 	}
 	w.depth--
@@ -216,6 +257,9 @@ func (w *writer) blockquote(n ast.Node, entering bool) ast.WalkStatus {
 		}
 		w.quotes = append(w.quotes, w.indent+1)
 		w.indent += 5
+		return ast.WalkContinue
+	}
+	if w.consumed[n] {
 		return ast.WalkContinue
 	}
 	w.depth--

@@ -69,7 +69,11 @@ func (w *writer) coverage() {
 		caption: fmt.Sprintf("Indicators and their coverage in %s, %d", gr.Name, w.m.Year),
 	}
 	for _, ind := range d.Dictionary.Indicators {
-		row := []cell{{text: indicatorLabel(ind, false)}, {text: string(ind.Unit)}, {text: betterWords(ind.Better)}, {text: orDash(ind.Source)}}
+		src := orDash(ind.Source)
+		if ind.Derive != "" && strings.TrimSpace(ind.Source) == "" {
+			src = "derived: " + ind.Derive
+		}
+		row := []cell{{text: indicatorLabel(ind, false)}, {text: string(ind.Unit)}, {text: betterWords(ind.Better)}, {text: src}}
 		if dist, ok := w.m.Distribution(gr.Name, ind.Key, w.m.Year); ok {
 			row = append(row, cell{text: format.Int(dist.N)}, cell{text: format.Int(dist.Missing)})
 		} else {

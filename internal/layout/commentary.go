@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"peerpack/internal/brief"
 	"peerpack/internal/narrative"
 	"peerpack/internal/pdf"
 )
@@ -31,9 +32,17 @@ func (w *writer) paragraphs(ps []narrative.Paragraph) {
 
 // summary sets the executive summary after the contents, when the
 // commentary wrote one.
+//
+// A brief that places the summary itself, with a commentary block of style
+// summary, gets no second one.
 func (w *writer) summary() {
 	if w.com == nil || len(w.com.Summary) == 0 {
 		return
+	}
+	for _, blk := range w.b.Blocks {
+		if cb, ok := blk.(*brief.CommentaryBlock); ok && cb.Style == "summary" {
+			return
+		}
 	}
 	w.newPage()
 	w.sectionHeading("Executive summary", 1)

@@ -91,6 +91,12 @@ func fixtureInput(t testing.TB, n int) Input {
 	if err != nil {
 		t.Fatal(err)
 	}
+	return fixtureInputFrom(t, n, src)
+}
+
+// fixtureInputFrom is fixtureInput over a variant of the brief.
+func fixtureInputFrom(t testing.TB, n int, src []byte) Input {
+	t.Helper()
 	b, err := brief.Parse("brief.md", src)
 	if err != nil {
 		t.Fatalf("fixture brief: %v", err)

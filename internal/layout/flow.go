@@ -152,7 +152,12 @@ func (w *writer) drawLine(spans []span, ln line, x, y float64) {
 		if s.link != "" {
 			h := pdf.PtToMM(s.font.Size)
 			w.doc.LinkURL(pos, y-h*0.8, adv, h, s.link)
-			w.doc.Line(pos, y+0.6, pos+t.width, y+0.6, 0.15, s.color)
+			// Underline the space too when the link goes on.
+			ul := t.width
+			if i < len(ln.toks)-1 && spans[ln.toks[i+1].sp].link == s.link {
+				ul = adv
+			}
+			w.doc.Line(pos, y+0.6, pos+ul, y+0.6, 0.15, s.color)
 		}
 		if s.strike {
 			h := pdf.PtToMM(s.font.Size)
@@ -183,14 +188,16 @@ func (w *writer) para(spans []span, indent float64, marker *span, size float64, 
 	if len(lines) == 0 {
 		lines = []line{{}}
 	}
-	keep := 2
-	if len(lines) < 2 {
-		keep = len(lines)
+	// A paragraph of up to three lines is kept whole; a longer one keeps
+	// its first two lines together (no orphan) and its last two (no
+	// widow).
+	if len(lines) <= 3 {
+		w.ensure(float64(len(lines)) * lh)
+	} else {
+		w.ensure(2 * lh)
 	}
-	w.ensure(float64(keep) * lh)
 	for i, ln := range lines {
-		// Keep the last two lines together too (no widow).
-		if i == len(lines)-2 && i > 0 {
+		if i == len(lines)-2 && i >= 2 {
 			w.ensure(2 * lh)
 		} else {
 			w.ensure(lh)

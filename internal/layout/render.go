@@ -44,6 +44,11 @@ type Input struct {
 // found while laying out (an unknown placeholder figure, nesting too deep,
 // a chart that cannot be drawn) are returned together as a *diag.List.
 func Render(in Input) (out []byte, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			out, err = nil, fmt.Errorf("internal error while laying out the pack (please report it with the brief): %v", r)
+		}
+	}()
 	if in.Brief == nil || in.Model == nil {
 		return nil, fmt.Errorf("internal error: layout needs a brief and a figures model")
 	}
@@ -100,6 +105,7 @@ func pass(in Input, known *passRecord) (*writer, error) {
 	w.summary()
 	w.body()
 	w.cautions()
+	w.sources()
 	if err := doc.Err(); err != nil {
 		return nil, fmt.Errorf("the PDF could not be laid out: %v", err)
 	}

@@ -194,4 +194,3 @@ func signedPercent(v float64) string {
 	}
 	return signed(v, 1) + "%"
 }
-

@@ -257,9 +257,9 @@ func (w *writer) setTable(g grid) {
 // the key reads in greyscale print and for readers who do not see colour.
 func (w *writer) quartileLegend(x float64) {
 	h := pdf.PtToMM(legendSize) * 1.5
-	w.ensure(h + 1)
+	w.ensure(2*h + 1)
 	if w.measuring {
-		w.y += h + 1
+		w.y += 2*h + 1
 		return
 	}
 	f := w.st.font(pdf.Regular, legendSize)
@@ -352,8 +352,32 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 			widths[first] += room - textNat
 		}
 	case textMin <= room:
-		// Text columns wrap: each gets its minimum plus a share of the
-		// rest in proportion to how much more it would like.
+		// Text columns wrap. Short ones (group names, quarters) keep their
+		// natural width when the first, label column can take the squeeze
+		// without going below its longest word or minTextCol; otherwise
+		// each gets its minimum plus a share of the rest in proportion to
+		// how much more it would like.
+		first := -1
+		others := 0.0
+		for c := 0; c < ncol; c++ {
+			if g.align[c] != 'L' {
+				continue
+			}
+			if first < 0 {
+				first = c
+				continue
+			}
+			others += nat[c] + 2*cellPadX
+		}
+		if rest := room - others; first >= 0 && rest >= math.Max(word[first]+2*cellPadX, minTextCol) {
+			for c := 0; c < ncol; c++ {
+				if g.align[c] == 'L' {
+					widths[c] = nat[c] + 2*cellPadX
+				}
+			}
+			widths[first] = rest
+			break
+		}
 		spare := room - textMin
 		want := textNat - textMin
 		for c := 0; c < ncol; c++ {

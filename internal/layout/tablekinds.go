@@ -203,7 +203,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 				case "quarter":
 					cl.text = "–"
 					if has {
-						cl.text = quartileWords(pos.Quartile)
+						cl.text = quarterShort(pos.Quartile)
 					}
 				case "median", "q1", "q3":
 					cl.text = "–"
@@ -434,4 +434,20 @@ func (w *writer) populationTable(tb *brief.TableBlock) {
 		ex.rows = append(ex.rows, []cell{{text: in.Name}, {text: in.Country}, {text: strings.Join(d.Population.Excluded[i], "; ")}})
 	}
 	w.setTable(ex)
+}
+
+// quarterShort names a quarter in a table's quarter column, whose header
+// already says "Quarter".
+func quarterShort(q int) string {
+	switch q {
+	case 1:
+		return "top"
+	case 2:
+		return "second"
+	case 3:
+		return "third"
+	case 4:
+		return "bottom"
+	}
+	return "–"
 }

@@ -2,8 +2,8 @@ package layout
 
 import (
 	"fmt"
-	"math"
 	"image/color"
+	"math"
 	"strconv"
 
 	"github.com/yuin/goldmark/ast"
@@ -64,6 +64,7 @@ type writer struct {
 	// frame's left edge; every set line draws the bars beside it.
 	quotes []float64
 	tight  bool
+	keep   float64 // room the heading being set must keep below it
 
 	// Numbering and records.
 	figureNo, tableNo int
@@ -221,6 +222,5 @@ func (w *writer) setColumns(n int) {
 	w.colTop, w.colMax = w.y, w.y
 	w.setFrame()
 }
-
 
 func itoa(i int) string { return strconv.Itoa(i) }

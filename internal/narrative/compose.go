@@ -24,8 +24,11 @@ type Commentary struct {
 	// blocks in brief order), for the sources appendix.
 	Sentences []Sentence
 
-	// rankBands is the brief's rank_bands, needed to re-read banded ranks.
+	// rankBands is the brief's rank_bands, needed to re-read banded ranks;
+	// wording is the language the sentences were written in, needed to
+	// recognise indicator names inside them.
 	rankBands int
+	wording   Wording
 }
 
 // Compose writes the executive summary and the text of every commentary
@@ -34,7 +37,7 @@ type Commentary struct {
 // (see rows.go). An unknown indicator or group in a block, or years
 // outside the brief's span, is reported at the block's position.
 func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
-	if m == nil || b == nil || m.Data == nil || m.Data.Register == nil {
+	if m == nil || b == nil || m.Data == nil || m.Data.Register == nil || m.Data.Dictionary == nil {
 		return nil, errors.New("internal error: commentary needs a computed figures model and its brief")
 	}
 	w, err := WordingFor(b.Language)
@@ -43,7 +46,7 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 		return nil, diag.At(b.File, p.Line, p.Column, "%v", err)
 	}
 	c := newComposer(m, b, w)
-	out := &Commentary{Blocks: map[*brief.CommentaryBlock][]Paragraph{}, rankBands: b.RankBands}
+	out := &Commentary{Blocks: map[*brief.CommentaryBlock][]Paragraph{}, rankBands: b.RankBands, wording: w}
 	out.Summary = c.write(c.executiveScope())
 
 	var probs diag.List
@@ -73,7 +76,13 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 	if err := checkCites(m, out.Sentences); err != nil {
 		return nil, err
 	}
-	m.Add(commentaryRows(out.Sentences)...)
+	rows := commentaryRows(out.Sentences)
+	if len(rows) > 0 {
+		if _, done := m.Lookup(rows[0].Key); done {
+			return nil, errors.New("internal error: commentary was already composed for this figures model; compose once per model so the figures file has each sentence once")
+		}
+	}
+	m.Add(rows...)
 	return out, nil
 }
 
@@ -105,10 +114,13 @@ type composer struct {
 	w     Wording
 	focus string // the focus institution's name as sentences use it
 	part  string
+	// introduced records, per part, the groups the focus has been said
+	// not to belong to, so the long form is written once.
+	introduced map[string]bool
 }
 
 func newComposer(m *figures.Model, b *brief.Brief, w Wording) *composer {
-	c := &composer{m: m, b: b, w: w}
+	c := &composer{m: m, b: b, w: w, introduced: map[string]bool{}}
 	if m.Focus >= 0 && m.Focus < m.Data.Register.Len() {
 		in := m.Data.Register.Institutions[m.Focus]
 		c.focus = in.Name
@@ -164,12 +176,49 @@ func topicSet(style string, topics []string) map[string]bool {
 	return set
 }
 
-// executiveScope covers every indicator and group of the pack.
+// executiveScope is the executive summary's scope: the indicators and
+// groups of the brief's first summary-style commentary block when it has
+// one (the author's choice of headline indicators), else every indicator
+// and group; it always ends with the caveats and the standing cautions.
 func (c *composer) executiveScope() *scope {
 	sc := &scope{part: "summary", style: "summary", inds: c.m.Data.Dictionary.Indicators, year: c.m.Year,
 		topics: topicSet("summary", nil), executive: true}
-	c.splitGroups(sc, c.m.Groups)
+	groups := c.m.Groups
+	for _, blk := range c.b.Blocks {
+		cb, ok := blk.(*brief.CommentaryBlock)
+		if !ok || cb.Style != "summary" {
+			continue
+		}
+		if own, err := c.scopeOf(cb, "summary"); err == nil {
+			if len(cb.Indicators) > 0 {
+				sc.inds = own.inds
+			}
+			if len(cb.Groups) > 0 {
+				groups = append(append([]*figures.Group(nil), own.groups...), own.systems...)
+				if sameSet(own.groups, own.systems) {
+					groups = own.groups
+				}
+			}
+			if own.has("gaps") {
+				sc.topics["gaps"] = true
+			}
+		}
+		break
+	}
+	c.splitGroups(sc, groups)
 	return sc
+}
+
+func sameSet(a, b []*figures.Group) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		if a[i] != b[i] {
+			return false
+		}
+	}
+	return true
 }
 
 // scopeOf resolves a commentary block's scope against the model.

@@ -81,3 +81,21 @@ func TestDemoTraceable(t *testing.T) {
 		t.Log("\n" + sb.String())
 	}
 }
+
+// BenchmarkComposeDemo writes and verifies the demo pack's commentary.
+// Each iteration needs a fresh model (Compose adds its rows to the model),
+// so the model is recomputed outside the timer.
+func BenchmarkComposeDemo(b *testing.B) {
+	for i := 0; i < b.N; i++ {
+		b.StopTimer()
+		m, br := demoModel(b)
+		b.StartTimer()
+		c, err := narrative.Compose(m, br)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if err := narrative.Verify(m, c); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

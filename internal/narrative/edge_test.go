@@ -197,3 +197,43 @@ block: {style: detail}
 		t.Fatalf("no commentary written:\n%s", first)
 	}
 }
+
+// One member outside the focus: the singular, and a rank of two.
+func TestOutsideGroupOfOne(t *testing.T) {
+	got := edge(t, `
+columns: [intl@2025]
+institutions:
+  F: [Kestria, Arlen University, 45.2]
+  D: [Veldra, Elswick Polytechnic, 50]
+groups:
+  - {name: Veldra partner, members: [D]}
+block: {style: detail, topics: [position], indicators: [intl]}
+`)
+	// Placed beside 50.0 the focus is 2nd of 2, percentile 100 x 0.5 / 2
+	// = 25, bottom quarter; the median of one value is the value. With a
+	// single member there is no quartile target to state.
+	want := "International staff share: Arlen University is not a member of Veldra partner; placed beside its one member that reports international staff share, its 45.2% in 2025 would rank 2nd of 2, in the bottom quarter. That is 4.8 percentage points below the group median of 50.0%.\n"
+	if got != want {
+		t.Fatalf("got\n%s\nwant\n%s", got, want)
+	}
+}
+
+// No value at the start of the block's years: the change cannot be given,
+// and the sentence says so instead of falling silent.
+func TestChangeWithoutAStartValue(t *testing.T) {
+	got := edge(t, `
+years: [2021, 2023, 2025]
+columns: [intl@2021, intl@2023, intl@2025]
+institutions:
+  F: [Kestria, Arlen University, 35, ~, 42]
+  A: [Kestria, Bexmoor College, 30, 30, 31]
+  B: [Kestria, Corrin Institute, 38, 36, 39]
+groups:
+  - {name: Kestria sector, where: {country: Kestria}}
+block: {style: detail, topics: [change], indicators: [intl], years: [2023, 2025]}
+`)
+	want := "International staff share: Arlen University reports no international staff share for 2023, so its movement since then cannot be given.\n"
+	if got != want {
+		t.Fatalf("got\n%s\nwant\n%s", got, want)
+	}
+}

@@ -60,7 +60,7 @@ func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence
 	var out []Sentence
 	label := c.w.Indicator(ind)
 	if c.pppConverted(ind) {
-		out = append(out, c.say(ind.Key, c.w.PPP(CaveatFact{Seed: ind.Key, Indicator: label})))
+		out = append(out, c.say(ind.Key, c.w.PPP(CaveatFact{Seed: ind.Key, Indicators: []string{label}})))
 	}
 	if judged(ind) && strings.TrimSpace(ind.Judgement) != "" {
 		out = append(out, c.say(ind.Key, c.w.Judgement(CaveatFact{Seed: ind.Key, Indicator: label, Better: ind.Better, Judgement: ind.Judgement})))
@@ -80,12 +80,8 @@ func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence
 			if !ok || d.N == 0 {
 				continue // no comparison is written, so no caveat on it
 			}
-			if total := d.N + d.Missing; 100*float64(d.N) < MinCoverage*float64(total) {
-				f := CaveatFact{Seed: g.Name + ind.Key, Group: g.Name, Indicator: label, Year: printYear(sc.year),
-					N: printCount(d.N), Missing: printCount(d.Missing), Threshold: printCount(int(MinCoverage))}
-				s := c.say(ind.Key, c.w.LowCoverage(f), distKey(g.Name, ind.Key, sc.year, mN), distKey(g.Name, ind.Key, sc.year, mMissing))
-				s.Thresholds = []float64{MinCoverage}
-				out = append(out, s)
+			if 100*float64(d.N) < MinCoverage*float64(d.N+d.Missing) {
+				out = append(out, c.coverage(g, ind, sc.year))
 			}
 		}
 	}
@@ -139,4 +135,74 @@ func (c *composer) imputed(ind dataset.Indicator, year int) (string, bool) {
 		}
 	}
 	return "", false
+}
+
+// condensedCaveats are the caveats of a whole scope in few sentences, for
+// the summary and bullets styles: the group caveats, one sentence for
+// every indicator converted with PPP, the value judgements and estimates
+// one by one (each has its own reason), and per group either the coverage
+// caveat of its one indicator under the floor or one sentence listing them
+// all.
+func (c *composer) condensedCaveats(sc *scope) []Sentence {
+	out := c.groupCaveats(sc)
+	var ppp []string
+	for _, ind := range sc.inds {
+		if c.pppConverted(ind) {
+			ppp = append(ppp, c.w.Indicator(ind))
+		}
+	}
+	if len(ppp) > 0 {
+		out = append(out, c.say("", c.w.PPP(CaveatFact{Seed: "ppp", Indicators: ppp})))
+	}
+	for _, ind := range sc.inds {
+		if judged(ind) && strings.TrimSpace(ind.Judgement) != "" {
+			out = append(out, c.say(ind.Key, c.w.Judgement(CaveatFact{Seed: ind.Key, Indicator: c.w.Indicator(ind), Better: ind.Better, Judgement: ind.Judgement})))
+		}
+		if note, ok := c.imputed(ind, sc.year); ok {
+			f := CaveatFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind), Year: printYear(sc.year), Note: note}
+			out = append(out, c.say(ind.Key, c.w.Imputed(f), posKey(c.anyGroup(sc), ind.Key, c.m.FocusID, sc.year, mValue)))
+		}
+	}
+	seen := map[string]bool{}
+	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
+		for _, g := range gs {
+			if seen[g.Name] {
+				continue
+			}
+			seen[g.Name] = true
+			var low []dataset.Indicator
+			for _, ind := range sc.inds {
+				if d, ok := c.m.Distribution(g.Name, ind.Key, sc.year); ok && d.N > 0 && 100*float64(d.N) < MinCoverage*float64(d.N+d.Missing) {
+					low = append(low, ind)
+				}
+			}
+			switch len(low) {
+			case 0:
+				continue
+			case 1:
+				out = append(out, c.coverage(g, low[0], sc.year))
+			default:
+				f := CaveatFact{Seed: g.Name, Group: g.Name, Year: printYear(sc.year), Threshold: printCount(int(MinCoverage))}
+				var cites []figures.Key
+				for _, ind := range low {
+					f.Indicators = append(f.Indicators, c.w.Indicator(ind))
+					cites = append(cites, distKey(g.Name, ind.Key, sc.year, mN), distKey(g.Name, ind.Key, sc.year, mMissing))
+				}
+				s := c.say("", c.w.LowCoverageList(f), cites...)
+				s.Thresholds = []float64{MinCoverage}
+				out = append(out, s)
+			}
+		}
+	}
+	return out
+}
+
+// coverage is the caveat of one indicator reported by too few members.
+func (c *composer) coverage(g *figures.Group, ind dataset.Indicator, year int) Sentence {
+	d, _ := c.m.Distribution(g.Name, ind.Key, year)
+	f := CaveatFact{Seed: g.Name + ind.Key, Group: g.Name, Indicator: c.w.Indicator(ind), Year: printYear(year),
+		N: printCount(d.N), Missing: printCount(d.Missing), Threshold: printCount(int(MinCoverage))}
+	s := c.say(ind.Key, c.w.LowCoverage(f), distKey(g.Name, ind.Key, year, mN), distKey(g.Name, ind.Key, year, mMissing))
+	s.Thresholds = []float64{MinCoverage}
+	return s
 }

@@ -97,12 +97,35 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 	return cd, true
 }
 
+// noChange says why no change is written when the focus has a value in
+// the reporting year but not at the start of the block's years, or in no
+// earlier year of the span.
+func (c *composer) noChange(sc *scope, g *figures.Group, ind dataset.Indicator) []Sentence {
+	p1, ok := c.m.Position(g.Name, ind.Key, c.m.Focus, sc.year)
+	if !ok || !p1.HasValue || c.m.First == c.m.Last {
+		return nil
+	}
+	y0 := sc.first
+	if y0 == 0 {
+		y0 = c.m.First
+	}
+	if y0 >= sc.year {
+		return nil
+	}
+	p0, ok := c.m.Position(g.Name, ind.Key, c.m.Focus, y0)
+	if !ok || p0.HasValue {
+		return nil
+	}
+	f := MissingFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind), Group: g.Name, Year: printYear(y0)}
+	return []Sentence{c.say(ind.Key, c.w.ChangeMissing(f), posKey(g.Name, ind.Key, c.m.FocusID, y0, "has_value"))}
+}
+
 // change writes the focus's movement, the group median's movement and,
 // when the group's size changed a lot, the comparison by percentile.
 func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []Sentence {
 	cd, ok := c.changeData(sc, g, ind)
 	if !ok {
-		return nil
+		return c.noChange(sc, g, ind)
 	}
 	f, id := cd.f, c.m.FocusID
 	p0k := func(m string) figures.Key { return posKey(g.Name, ind.Key, id, cd.p0.Year, m) }

@@ -15,7 +15,7 @@ func (c *composer) competition(sc *scope, g *figures.Group) []Sentence {
 	var out []Sentence
 	if len(ps) > 0 {
 		var cites []figures.Key
-		f.Top, f.Bottom, cites = c.quarters(g, ps)
+		f.Top, f.Bottom, _, _, cites = c.quarters(g, ps)
 		out = append(out, c.say("", c.w.CompetitionPlace(f), cites...))
 	}
 	var cites, all []figures.Key

@@ -10,17 +10,27 @@ import (
 // better), when the focus has not reached it. Neutral indicators have no
 // target.
 func (c *composer) gap(g *figures.Group, ind dataset.Indicator, year int) []Sentence {
-	if !judged(ind) {
+	f, cites, ok := c.gapFact(g, ind, year)
+	if !ok {
 		return nil
+	}
+	return []Sentence{c.say(ind.Key, c.w.Gap(f), cites...)}
+}
+
+// gapFact gathers the gap to the top-quarter threshold; ok is false when
+// there is none to state.
+func (c *composer) gapFact(g *figures.Group, ind dataset.Indicator, year int) (GapFact, []figures.Key, bool) {
+	if !judged(ind) {
+		return GapFact{}, nil, false
 	}
 	p, okp := c.m.Position(g.Name, ind.Key, c.m.Focus, year)
 	d, okd := c.m.Distribution(g.Name, ind.Key, year)
 	if !okp || !okd || !p.HasValue || p.Rank == 0 || d.N < 2 {
-		return nil
+		return GapFact{}, nil, false
 	}
 	t := targetValue(ind, d)
 	if !ahead(ind, t, p.Value) {
-		return nil
+		return GapFact{}, nil, false
 	}
 	id := c.m.FocusID
 	f := GapFact{Seed: posKey(g.Name, ind.Key, id, year, mGapBetter).String(), Focus: c.focus, Indicator: c.w.Indicator(ind),
@@ -32,5 +42,5 @@ func (c *composer) gap(g *figures.Group, ind dataset.Indicator, year int) []Sent
 	} else {
 		cites = append(cites, posKey(g.Name, ind.Key, id, year, mValue))
 	}
-	return []Sentence{c.say(ind.Key, c.w.Gap(f), cites...)}
+	return f, cites, true
 }

@@ -70,13 +70,16 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	}
 	f := c.positionFact(g, ind, p, d)
 	f.Seed = seed
+	intro := c.part + "\x00" + g.Name
+	f.Introduced = c.introduced[intro]
 	if p.InGroup && d.N == 1 {
 		return []Sentence{c.say(ind.Key, c.w.Alone(f), posKey(g.Name, ind.Key, id, year, mValue), distKey(g.Name, ind.Key, year, mN))}
 	}
 	cites := []figures.Key{posKey(g.Name, ind.Key, id, year, mValue), posKey(g.Name, ind.Key, id, year, mRank),
 		posKey(g.Name, ind.Key, id, year, mOf), posKey(g.Name, ind.Key, id, year, mQuartile)}
-	if !p.InGroup {
+	if !p.InGroup && !f.Introduced {
 		cites = append(cites, distKey(g.Name, ind.Key, year, mN))
+		c.introduced[intro] = true
 	}
 	out := []Sentence{c.say(ind.Key, c.w.Position(f), cites...)}
 	dc := []figures.Key{distKey(g.Name, ind.Key, year, mMedian)}

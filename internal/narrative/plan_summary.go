@@ -33,20 +33,36 @@ func (c *composer) placements(sc *scope, g *figures.Group) []placed {
 	return out
 }
 
-// quarters lists the indicators in the best and the worst quarter.
-func (c *composer) quarters(g *figures.Group, ps []placed) (top, bottom []string, cites []figures.Key) {
+// quarters lists the indicators in the best and the worst quarter, the
+// most extreme first, at most OverviewItems of each; more reports a list
+// that was cut.
+func (c *composer) quarters(g *figures.Group, ps []placed) (top, bottom []string, moreTop, moreBottom bool, cites []figures.Key) {
+	var hi, lo []placed
 	for _, x := range ps {
 		switch x.p.Quartile {
 		case 1:
-			top = append(top, c.w.Indicator(x.ind))
+			hi = append(hi, x)
 		case 4:
-			bottom = append(bottom, c.w.Indicator(x.ind))
-		default:
-			continue
+			lo = append(lo, x)
 		}
+	}
+	sort.SliceStable(hi, func(i, j int) bool { return hi[i].p.Percentile > hi[j].p.Percentile })
+	sort.SliceStable(lo, func(i, j int) bool { return lo[i].p.Percentile < lo[j].p.Percentile })
+	if len(hi) > OverviewItems {
+		hi, moreTop = hi[:OverviewItems], true
+	}
+	if len(lo) > OverviewItems {
+		lo, moreBottom = lo[:OverviewItems], true
+	}
+	for _, x := range hi {
+		top = append(top, c.w.Indicator(x.ind))
 		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile))
 	}
-	return top, bottom, cites
+	for _, x := range lo {
+		bottom = append(bottom, c.w.Indicator(x.ind))
+		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile))
+	}
+	return top, bottom, moreTop, moreBottom, cites
 }
 
 // overview says, within the reference group, which indicators are in the
@@ -60,8 +76,8 @@ func (c *composer) overview(sc *scope) []Sentence {
 	if len(ps) == 0 {
 		return nil
 	}
-	top, bottom, cites := c.quarters(g, ps)
-	f := OverviewFact{Seed: g.Name, Focus: c.focus, Group: g.Name, Top: top, Bottom: bottom}
+	top, bottom, moreTop, moreBottom, cites := c.quarters(g, ps)
+	f := OverviewFact{Seed: g.Name, Focus: c.focus, Group: g.Name, Top: top, Bottom: bottom, MoreTop: moreTop, MoreBottom: moreBottom}
 	return []Sentence{c.say("", c.w.Overview(f), cites...)}
 }
 
@@ -74,8 +90,23 @@ func (c *composer) strengthsAndRisks(sc *scope) []Sentence {
 	if g == nil {
 		return nil
 	}
+	up, down := c.rankedLists(sc, g)
+	var out []Sentence
+	if len(up) > 0 {
+		f, cites := c.ranked(g, up)
+		out = append(out, c.say("", c.w.Strengths(f), cites...))
+	}
+	if len(down) > 0 {
+		f, cites := c.ranked(g, down)
+		out = append(out, c.say("", c.w.Risks(f), cites...))
+	}
+	return out
+}
+
+// rankedLists orders the judged indicators above the middle of the group
+// (best first) and below it (worst first).
+func (c *composer) rankedLists(sc *scope, g *figures.Group) (up, down []placed) {
 	ps := c.placements(sc, g)
-	var up, down []placed
 	for _, x := range ps {
 		switch r := math.Round(x.p.Percentile); {
 		case r > 50:
@@ -87,16 +118,36 @@ func (c *composer) strengthsAndRisks(sc *scope) []Sentence {
 	// Stable sorts keep dictionary order among equal gaps.
 	sort.SliceStable(up, func(i, j int) bool { return up[i].p.Percentile > up[j].p.Percentile })
 	sort.SliceStable(down, func(i, j int) bool { return down[i].p.Percentile < down[j].p.Percentile })
-	var out []Sentence
-	if len(up) > 0 {
-		f, cites := c.ranked(g, up)
-		out = append(out, c.say("", c.w.Strengths(f), cites...))
+	return up, down
+}
+
+// riskGaps says what it would take to reach the top quarter on the
+// summary's risks.
+func (c *composer) riskGaps(sc *scope) []Sentence {
+	if sc.ref == nil {
+		return nil
 	}
-	if len(down) > 0 {
-		f, cites := c.ranked(g, down)
-		out = append(out, c.say("", c.w.Risks(f), cites...))
+	_, down := c.rankedLists(sc, sc.ref)
+	if len(down) > SummaryItems {
+		down = down[:SummaryItems]
 	}
-	return out
+	var facts []GapFact
+	var about []string
+	var cites []figures.Key
+	for _, x := range down {
+		if f, k, ok := c.gapFact(sc.ref, x.ind, sc.year); ok {
+			facts = append(facts, f)
+			about = append(about, x.ind.Key)
+			cites = append(cites, k...)
+		}
+	}
+	switch len(facts) {
+	case 0:
+		return nil
+	case 1:
+		return []Sentence{c.say(about[0], c.w.Gap(facts[0]), cites...)}
+	}
+	return []Sentence{c.say("", c.w.GapList(facts), cites...)}
 }
 
 func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.Key) {

@@ -26,4 +26,7 @@ const (
 	// SummaryItems is how many strengths and risks the executive summary
 	// names.
 	SummaryItems = 3
+	// OverviewItems caps the indicators an overview lists for each of the
+	// top and bottom quarters; the most extreme come first.
+	OverviewItems = 4
 )

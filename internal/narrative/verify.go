@@ -25,7 +25,11 @@ func Verify(m *figures.Model, c *Commentary) error {
 	if m == nil || c == nil {
 		return fmt.Errorf("internal error: nothing to verify")
 	}
-	names := verifyNames(m)
+	w := c.wording
+	if w == nil {
+		w = english{}
+	}
+	names := verifyNames(m, w)
 	var probs diag.List
 	for _, s := range c.Sentences {
 		text := s.Text
@@ -68,7 +72,7 @@ func keyList(ks []figures.Key) string {
 
 // verifyNames lists the names a sentence may contain, longest first so a
 // name containing another is removed whole.
-func verifyNames(m *figures.Model) []string {
+func verifyNames(m *figures.Model, w Wording) []string {
 	set := map[string]bool{}
 	add := func(s string) {
 		if s = strings.TrimSpace(s); s != "" && strings.IndexFunc(s, unicode.IsDigit) >= 0 {
@@ -93,7 +97,7 @@ func verifyNames(m *figures.Model) []string {
 	}
 	for _, ind := range m.Data.Dictionary.Indicators {
 		add(ind.Label)
-		add(english{}.Indicator(ind))
+		add(w.Indicator(ind))
 		add(ind.Judgement)
 		add(lowerFirst(ind.Judgement))
 	}

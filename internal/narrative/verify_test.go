@@ -125,3 +125,15 @@ func parseKey(t *testing.T, s string) figures.Key {
 	}
 	return k
 }
+
+// Composing twice on one model would write every sentence twice.
+func TestComposeTwiceFails(t *testing.T) {
+	s := parseSituation(t, traceSituation)
+	m, b := s.build(t)
+	if _, err := Compose(m, b); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Compose(m, b); err == nil || !strings.Contains(err.Error(), "already composed") {
+		t.Fatalf("second Compose = %v, want an error", err)
+	}
+}

@@ -33,6 +33,7 @@ type Wording interface {
 	Change(f ChangeFact) string
 	ChangeMedian(f ChangeFact) string
 	ChangePercentile(f ChangeFact) string
+	ChangeMissing(f MissingFact) string
 
 	Overview(f OverviewFact) string
 	Strengths(f RankedFact) string
@@ -44,13 +45,18 @@ type Wording interface {
 	CompetitionBehind(f CompetitionFact) string
 
 	Gap(f GapFact) string
+	GapList(fs []GapFact) string
 
 	SmallGroup(f CaveatFact) string
 	LowCoverage(f CaveatFact) string
+	LowCoverageList(f CaveatFact) string
 	Imputed(f CaveatFact) string
 	PPP(f CaveatFact) string
 	Judgement(f CaveatFact) string
 	OneCountry(f CaveatFact) string
+	// LowerPercentiles explains that percentiles run in the better
+	// direction for the lower-is-better indicators listed.
+	LowerPercentiles(inds []string) string
 	Cautions() string
 }
 
@@ -107,8 +113,9 @@ type PositionFact struct {
 	Target    string
 	GapTarget string
 	Reached   bool
-	// Country is set when every member of the group is in one country.
-	Country string
+	// Introduced is set once the sentences of a part have said that the
+	// focus is not a member of this group.
+	Introduced bool
 }
 
 // MissingFact describes a value that is not there.
@@ -119,7 +126,6 @@ type MissingFact struct {
 	Group     string
 	Year      string
 	Median    string
-	Of        string
 }
 
 // ChangeFact is the focus's movement over the span in a group.
@@ -162,6 +168,8 @@ type OverviewFact struct {
 	Group  string
 	Top    []string
 	Bottom []string
+	// MoreTop and MoreBottom mark lists cut to OverviewItems.
+	MoreTop, MoreBottom bool
 }
 
 // RankedItem is one strength or risk: an indicator and its percentile.
@@ -228,4 +236,6 @@ type CaveatFact struct {
 	Note      string
 	Judgement string
 	Country   string
+	// Indicators lists indicators a caveat covers together.
+	Indicators []string
 }

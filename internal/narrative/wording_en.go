@@ -157,11 +157,17 @@ func (english) quarter(better dataset.Polarity, q int) string {
 func (e english) Position(f PositionFact) string {
 	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group,
 		"value", f.Value, "year", f.Year, "rank", e.rank(f), "quarter", e.quarter(f.Better, f.Quartile), "members", f.Members}
-	if !f.InGroup {
+	if !f.InGroup && !f.Introduced {
+		if f.Members == "1" {
+			return e.fill("{focus} is not a member of {group}; placed beside its one member that reports {ind}, its {value} in {year} would rank {rank}, {quarter}.", kv...)
+		}
 		return e.fill("{focus} is not a member of {group}; placed among the {members} members that report {ind}, its {value} in {year} would rank {rank}, {quarter}.", kv...)
 	}
+	if !f.InGroup {
+		return e.fill("Placed among {group} on {ind}, {focus} would rank {rank} at {value} in {year}, {quarter}.", kv...)
+	}
 	tmpl := [...]string{
-		"At {value} in {year}, {focus's} {ind} ranks {rank} in {group}, {quarter}.",
+		"At {value} in {year}, {focus} ranks {rank} in {group} on {ind}, {quarter}.",
 		"{focus} ranks {rank} in {group} on {ind} ({value} in {year}), {quarter}.",
 		"On {ind}, {focus} stands {rank} in {group} at {value} in {year}, {quarter}.",
 	}
@@ -250,23 +256,23 @@ func (e english) Change(f ChangeFact) string {
 	if f.Direction == Level {
 		switch {
 		case f.From == f.To:
-			return e.fill("{focus's} {ind} was broadly unchanged at {to} between {fromYear} and {toYear}.", kv...)
+			return e.fill("{focus's} figure for {ind} was broadly unchanged at {to} between {fromYear} and {toYear}.", kv...)
 		case f.NoiseIQR != "":
 			// "a twentieth" is NoiseIQRShare in words.
-			return e.fill("{focus's} {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement of less than a twentieth of the group's interquartile range ({iqr}).", kv...)
+			return e.fill("{focus's} figure for {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement of less than a twentieth of the group's interquartile range ({iqr}).", kv...)
 		}
-		return e.fill("{focus's} {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement smaller than the last decimal the data reports.", kv...)
+		return e.fill("{focus's} figure for {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement smaller than the last decimal the data reports.", kv...)
 	}
 	verb, verbed, noun := "risen", "rose", "a rise"
 	if f.Direction == Below {
 		verb, verbed, noun = "fallen", "fell", "a fall"
 	}
 	if f.Diff == "" {
-		return e.fill("Since {fromYear}, {focus's} {ind} has "+verb+" from {from} to {to}.", kv...)
+		return e.fill("Since {fromYear}, {focus's} figure for {ind} has "+verb+" from {from} to {to}.", kv...)
 	}
 	tmpl := [...]string{
-		"Since {fromYear}, {focus's} {ind} has " + verb + " from {from} to {to}, " + noun + " of {diff}.",
-		"{focus's} {ind} " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}.",
+		"Since {fromYear}, {focus's} figure for {ind} has " + verb + " from {from} to {to}, " + noun + " of {diff}.",
+		"{focus's} figure for {ind} " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}.",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
 }
@@ -310,6 +316,12 @@ func (e english) ChangeMedian(f ChangeFact) string {
 	return e.fill(tmpl[variant(f.Seed+"/median", len(tmpl))], kv...)
 }
 
+// ChangeMissing: no value at the start, so no change.
+func (e english) ChangeMissing(f MissingFact) string {
+	return e.fill("{focus} reports no {ind} for {year}, so its movement since then cannot be given.",
+		"focus", f.Focus, "ind", f.Indicator, "year", f.Year)
+}
+
 // ChangePercentile: membership changed a lot, so percentiles are compared.
 func (e english) ChangePercentile(f ChangeFact) string {
 	grew := "grew"
@@ -320,13 +332,20 @@ func (e english) ChangePercentile(f ChangeFact) string {
 	if f.PctFrom == f.PctTo {
 		moved = "stayed at the {pt} percentile"
 	}
-	return e.fill("Because the number of {group} members reporting "+grew+" from {sf} to {st}, ranks from the two years do not compare; by percentile, {focus} "+moved+".",
+	return e.fill("Because the number of {group} members reporting "+grew+" from {sf} to {st}, the comparison is by percentile rather than rank: {focus} "+moved+".",
 		"focus", f.Focus, "group", f.Group, "sf", f.SizeFrom, "st", f.SizeTo, "pf", f.PctFrom, "pt", f.PctTo)
 }
 
 // Overview: which indicators are in the best and worst quarter.
 func (e english) Overview(f OverviewFact) string {
-	kv := []string{"focus", f.Focus, "group", f.Group, "top", e.List(f.Top), "bottom", e.List(f.Bottom)}
+	top, bottom := e.List(f.Top), e.List(f.Bottom)
+	if f.MoreTop {
+		top = strings.Join(f.Top, ", ") + ", among others"
+	}
+	if f.MoreBottom {
+		bottom = strings.Join(f.Bottom, ", ") + ", among others"
+	}
+	kv := []string{"focus", f.Focus, "group", f.Group, "top", top, "bottom", bottom}
 	switch {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
 		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
@@ -430,13 +449,31 @@ func (e english) Gap(f GapFact) string {
 	}
 	kv := []string{"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value}
 	if f.Amount == "" {
-		return e.fill("Reaching the "+q+" of {group} would take {focus's} {ind} from {value} to {target}.", append(kv, "focus's", possessive(f.Focus))...)
+		return e.fill("Reaching the "+q+" of {group} would take {focus's} figure for {ind} from {value} to {target}.", append(kv, "focus's", possessive(f.Focus))...)
 	}
 	tmpl := [...]string{
 		"Reaching the " + q + " of {group} ({target}) would take " + change + " of {amount} in {ind}.",
 		"To reach the top quarter of {group} on {ind}, {focus} would need " + change + " of {amount}, to {target}.",
+		"{focus} would need " + change + " of {amount} in {ind} to reach the " + q + " of {group} ({target}).",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+}
+
+// GapList: the gaps of several indicators in one sentence.
+func (e english) GapList(fs []GapFact) string {
+	parts := make([]string, len(fs))
+	for i, f := range fs {
+		change := "an increase"
+		if f.Better == dataset.LowerIsBetter {
+			change = "a reduction"
+		}
+		if f.Amount == "" {
+			parts[i] = "a move in " + f.Indicator + " from " + f.Value + " to " + f.Target
+		} else {
+			parts[i] = change + " of " + f.Amount + " in " + f.Indicator + " (to " + f.Target + ")"
+		}
+	}
+	return e.fill("Reaching the top quarter of {group} would take {items}.", "group", fs[0].Group, "items", e.List(parts))
 }
 
 // SmallGroup: fewer members than quartiles can bear.
@@ -460,14 +497,21 @@ func (e english) LowCoverage(f CaveatFact) string {
 
 // Imputed: the focus's value was estimated.
 func (e english) Imputed(f CaveatFact) string {
-	return e.fill("{focus's} {ind} for {year} is an estimate rather than a reported figure ({note}).",
+	return e.fill("{focus's} figure for {ind} in {year} is an estimate, not a reported value ({note}).",
 		"focus's", possessive(f.Focus), "ind", f.Indicator, "year", f.Year, "note", strings.TrimRight(f.Note, ". "))
 }
 
 // PPP: currency converted with purchasing-power parities.
 func (e english) PPP(f CaveatFact) string {
-	return e.fill("{ind} is converted from each country's currency with purchasing-power parity factors for each year, so it compares what the money buys rather than exchange-rate amounts.",
-		"ind", f.Indicator)
+	return e.fill("Figures for {list} are converted from each country's currency with purchasing-power parity factors for each year, so they compare what the money buys rather than exchange-rate amounts.",
+		"list", e.List(f.Indicators))
+}
+
+// LowCoverageList: several indicators of one group under the coverage
+// floor, in one sentence.
+func (e english) LowCoverageList(f CaveatFact) string {
+	return e.fill("Fewer than {threshold}% of the members of {group} report {list} for {year}; those not reporting may differ from those that do.",
+		"threshold", f.Threshold, "group", f.Group, "list", e.List(f.Indicators), "year", f.Year)
 }
 
 // Judgement: the indicator's direction is a value judgement.
@@ -480,18 +524,22 @@ func (e english) Judgement(f CaveatFact) string {
 	if j != "" && !strings.HasSuffix(j, ".") {
 		j += "."
 	}
-	return e.fill("Counting "+dir+" {ind} as better is a value judgement: {reason}", "ind", f.Indicator, "reason", lowerFirst(j))
+	return e.fill("Treating "+dir+" values of {ind} as better is a value judgement: {reason}", "ind", f.Indicator, "reason", lowerFirst(j))
 }
 
 // lowerFirst lowers the first letter of a text that goes inside a
 // sentence, unless its first word has another capital (an abbreviation
-// such as "FWCI" or "PhD").
+// such as "FWCI" or "PhD") or its capital is joined to what follows
+// ("A-level").
 func lowerFirst(s string) string {
 	r, n := utf8.DecodeRuneInString(s)
 	if r == utf8.RuneError || !unicode.IsUpper(r) {
 		return s
 	}
 	word := s[n:]
+	if r2, _ := utf8.DecodeRuneInString(word); word != "" && !unicode.IsLower(r2) && !unicode.IsSpace(r2) {
+		return s // "A-level", "X2 share"
+	}
 	if i := strings.IndexFunc(word, unicode.IsSpace); i >= 0 {
 		word = word[:i]
 	}
@@ -505,6 +553,12 @@ func lowerFirst(s string) string {
 func (e english) OneCountry(f CaveatFact) string {
 	return e.fill("Every member of {group} is in {country}, so it compares {focus} within one national system only.",
 		"group", f.Group, "country", f.Country, "focus", f.Focus)
+}
+
+// LowerPercentiles: percentiles run in the better direction.
+func (e english) LowerPercentiles(inds []string) string {
+	return e.fill("Percentiles run in the better direction: on {list}, where lower is better, a high percentile means a lower figure than most of the group.",
+		"list", e.List(inds))
 }
 
 // Cautions: what every pack says about its figures.

@@ -28,9 +28,13 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 	if sc.has("change") {
 		main = append(main, c.headline(sc)...)
 	}
+	if sc.has("gaps") {
+		main = append(main, c.riskGaps(sc)...)
+	}
 	var out []Paragraph
 	if len(main) > 0 {
-		out = append(out, Paragraph{Heading: c.w.Heading("summary"), Sentences: main})
+		// No run-in heading: the section it opens already names it.
+		out = append(out, Paragraph{Sentences: main})
 	}
 	if sc.has("competition") {
 		var comp []Sentence
@@ -42,11 +46,17 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 		}
 	}
 	if sc.has("caveats") {
-		cav := c.groupCaveats(sc)
-		for _, ind := range sc.inds {
-			cav = append(cav, c.indicatorCaveats(sc, ind)...)
-		}
+		cav := c.condensedCaveats(sc)
 		if sc.executive {
+			var lower []string
+			for _, ind := range sc.inds {
+				if ind.Better == dataset.LowerIsBetter {
+					lower = append(lower, c.w.Indicator(ind))
+				}
+			}
+			if len(lower) > 0 {
+				cav = append(cav, c.say("", c.w.LowerPercentiles(lower)))
+			}
 			cav = append(cav, c.say("", c.w.Cautions()))
 		}
 		if len(cav) > 0 {
@@ -160,11 +170,7 @@ func (c *composer) writeBullets(sc *scope) []Paragraph {
 		}
 	}
 	if sc.has("caveats") {
-		cav := c.groupCaveats(sc)
-		for _, ind := range sc.inds {
-			cav = append(cav, c.indicatorCaveats(sc, ind)...)
-		}
-		for _, s := range cav {
+		for _, s := range c.condensedCaveats(sc) {
 			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})
 		}
 	}

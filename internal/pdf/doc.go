@@ -30,7 +30,7 @@ type Options struct {
 	// Title, Author, Subject, Keywords, Creator and Producer fill the PDF
 	// information dictionary; Lang the catalog's /Lang (BCP 47, "en-GB").
 	Title, Author, Subject, Creator, Producer, Lang string
-	Keywords                                       []string
+	Keywords                                        []string
 	// Created stamps /CreationDate and /ModDate; the caller passes
 	// SOURCE_DATE_EPOCH when set, so that builds are reproducible.
 	Created time.Time

@@ -123,15 +123,25 @@ func planQuantile(n int, p float64, m QuantileMethod) quantilePlan {
 }
 
 // Box is the five-number summary with Tukey's (1977) whiskers: the most
-// extreme observations within 1.5 x IQR of the box.
+// extreme observations within 1.5 x IQR of the box (his "adjacent
+// values"). With interpolated quartiles and a small group, the adjacent
+// value can lie inside the box (Q3 interpolated towards an outlier); the
+// whisker values stay the observed ones, for audit, and DrawnWhiskers
+// gives the ends a chart draws.
 type Box struct {
-	N, Missing            int
-	Min, Q1, Median, Q3   float64
-	Max, IQR              float64
-	WhiskerLow            float64
-	WhiskerHigh           float64
+	N, Missing          int
+	Min, Q1, Median, Q3 float64
+	Max, IQR            float64
+	WhiskerLow          float64
+	WhiskerHigh         float64
 	// OutlierValues are the observations beyond the whiskers, ascending.
 	OutlierValues []float64
+}
+
+// DrawnWhiskers returns where whiskers end on a chart: the adjacent
+// values, but never inside the box (a whisker of zero length there).
+func (b Box) DrawnWhiskers() (low, high float64) {
+	return math.Min(b.WhiskerLow, b.Q1), math.Max(b.WhiskerHigh, b.Q3)
 }
 
 // BoxOf computes box statistics of values (NaN = missing) with the given

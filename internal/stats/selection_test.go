@@ -105,3 +105,27 @@ func TestPlaceAllMatchesPlace(t *testing.T) {
 		}
 	}
 }
+
+// FuzzBoxOfUnsorted: selection and sorting agree on any input.
+func FuzzBoxOfUnsorted(f *testing.F) {
+	f.Add([]byte{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20})
+	f.Add([]byte{5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 5, 1, 200})
+	f.Fuzz(func(t *testing.T, raw []byte) {
+		x := make([]float64, len(raw))
+		for i, c := range raw {
+			x[i] = float64(c % 37)
+		}
+		s := slices.Clone(x)
+		slices.Sort(s)
+		for _, m := range []QuantileMethod{Type7, Type6, Hinges} {
+			want := BoxOfSorted(s, 0, m)
+			got := BoxOfUnsorted(slices.Clone(x), 0, m)
+			if len(x) == 0 {
+				continue
+			}
+			if got.Q1 != want.Q1 || got.Median != want.Median || got.Q3 != want.Q3 || got.WhiskerLow != want.WhiskerLow || got.WhiskerHigh != want.WhiskerHigh {
+				t.Fatalf("%v on %v: got %+v want %+v", m, x, got, want)
+			}
+		}
+	})
+}

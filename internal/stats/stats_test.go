@@ -48,7 +48,7 @@ func TestHingesFivenum(t *testing.T) {
 	// R: fivenum(1:10) = 1, 3, 5.5, 8, 10 and fivenum(1:9) = 1, 3, 5, 7, 9
 	// (from memory).
 	cases := []struct {
-		n            int
+		n           int
 		lo, med, hi float64
 	}{{10, 3, 5.5, 8}, {9, 3, 5, 7}, {4, 1.5, 2.5, 3.5}, {5, 2, 3, 4}}
 	for _, c := range cases {
@@ -293,5 +293,20 @@ func TestSample200AgainstR(t *testing.T) {
 		p := Place(sx, v, HigherFirst, false)
 		near(t, fmt.Sprintf("outside percentile %g", v), p.Percentile, want(fmt.Sprintf("outside_percentile_higher_%g", v)), 1e-9)
 		near(t, fmt.Sprintf("outside rank %g", v), float64(p.Rank), want(fmt.Sprintf("outside_rank_higher_%g", v)), 0)
+	}
+}
+
+func TestWhiskerInsideTheBox(t *testing.T) {
+	// Type 7 on 1, 2, 3, 100: Q3 = 3 + 0.25 x 97 = 27.25, IQR = 25.5, upper
+	// fence 65.5, so the adjacent value is 3, inside the box; 100 is an
+	// outlier (arithmetic by hand, Tukey's 1.5 x IQR rule).
+	b := BoxOf([]float64{1, 2, 3, 100}, Type7)
+	near(t, "Q3", b.Q3, 27.25, 1e-12)
+	near(t, "upper whisker (adjacent value)", b.WhiskerHigh, 3, 0)
+	if lo, hi := b.DrawnWhiskers(); lo != 1 || hi != 27.25 {
+		t.Errorf("DrawnWhiskers = %v, %v; want 1 and 27.25", lo, hi)
+	}
+	if len(b.OutlierValues) != 1 || b.OutlierValues[0] != 100 {
+		t.Errorf("outliers %v", b.OutlierValues)
 	}
 }

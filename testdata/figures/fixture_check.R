@@ -15,7 +15,7 @@ groups <- list(
   "Competitor systems: Orvanne" = reg$id[ranked & reg$country == "Orvanne"],
   "Outside the north" = reg$id[reg$region != "North"]
 )
-tracked <- c("KE02", "AL01", "OR04")
+tracked <- c("KE02", "AL01", "OR03", "OR04")
 years <- 2021:2025
 out <- data.frame()
 put <- function(section, group, ind, inst, year, measure, v) {
@@ -76,6 +76,30 @@ for (ind in names(polarity)) {
   put("trend", "Everyone", ind, "KE02", "", "change", last - first)
   put("trend", "Everyone", ind, "KE02", "", "cagr", 100 * ((last / first)^(1 / span) - 1))
 }
+# Rank and percentile change of every tracked institution in Home sector,
+# from its first to its last year with a value (rank: ties share the best
+# rank; percentile: 100 x (average rank in the worse-first order - 0.5) / n).
+place <- function(g, ind, id, y) {
+  mem <- groups[[g]]
+  x <- sapply(mem, value_of, ind = ind, y = y)
+  xv <- x[!is.na(x)]
+  v <- value_of(id, ind, y)
+  inside <- id %in% mem
+  z <- if (inside) xv else c(xv, v)
+  self <- if (inside) which(names(xv) == id) else length(z)
+  better_first <- if (polarity[[ind]] == "lower") z else -z
+  c(rank = unname(rank(better_first, ties.method = "min")[self]),
+    pct = unname(100 * (rank(-better_first, ties.method = "average")[self] - 0.5) / length(z)))
+}
+for (id in tracked) for (ind in names(polarity)) {
+  ys <- sapply(years, function(y) value_of(id, ind, y))
+  ok <- which(!is.na(ys))
+  if (length(ok) < 2) next
+  a <- place("Home sector", ind, id, years[min(ok)])
+  b <- place("Home sector", ind, id, years[max(ok)])
+  put("trend", "Home sector", ind, id, "", "rank_change", a[["rank"]] - b[["rank"]])
+  put("trend", "Home sector", ind, id, "", "percentile_change", b[["pct"]] - a[["pct"]])
+}
 # Correlations over Everyone in 2025, complete pairs.
 inds <- names(polarity)
 for (a in 1:(length(inds) - 1)) for (b in (a + 1):length(inds)) {
@@ -92,3 +116,19 @@ writeLines(c(paste("# R version:", R.version.string),
            file.path(dir, "fixture_r.csv"))
 suppressWarnings(write.table(out, file.path(dir, "fixture_r.csv"), append = TRUE, sep = ",",
                              row.names = FALSE, quote = TRUE))
+# Nearest-profile peers of KE02 on fwci and students_per_academic in 2025:
+# each indicator standardised by the ranked population's mean and sample SD,
+# Euclidean distance, the four nearest (the focus excluded).
+ids <- reg$id[ranked]
+f <- sapply(ids, value_of, ind = "fwci", y = 2025)
+s <- sapply(ids, value_of, ind = "students_per_academic", y = 2025)
+zf <- (f - mean(f, na.rm = TRUE)) / sd(f, na.rm = TRUE)
+zs <- (s - mean(s, na.rm = TRUE)) / sd(s, na.rm = TRUE)
+dist <- sqrt((zf - zf["KE02"])^2 + (zs - zs["KE02"])^2)
+dist <- dist[!is.na(dist) & names(dist) != "KE02"]
+dist <- sort(dist)[1:4]
+extra <- data.frame(section = "group", group = "Profile peers", indicator = "",
+                    institution = names(dist), year = "", measure = "distance",
+                    value = sprintf("%.17g", dist))
+suppressWarnings(write.table(extra, file.path(dir, "fixture_r.csv"), append = TRUE, sep = ",",
+                             row.names = FALSE, col.names = FALSE, quote = TRUE))

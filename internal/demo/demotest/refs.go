@@ -216,3 +216,23 @@ func sortedKeys(m map[string]bool) []string {
 	sort.Strings(out)
 	return out
 }
+
+// Unscoped lists the commentary blocks that name no indicators although
+// they write about positions or changes. Such a block writes about every
+// indicator in the dictionary, pages of text no governing body reads, so
+// shipped briefs always say which indicators a block covers; a block of
+// caveats alone needs no list.
+func Unscoped(b *brief.Brief) []string {
+	var out []string
+	for _, blk := range b.Blocks {
+		c, ok := blk.(*brief.CommentaryBlock)
+		if !ok || len(c.Indicators) > 0 {
+			continue
+		}
+		if len(c.Topics) == 1 && c.Topics[0] == "caveats" {
+			continue
+		}
+		out = append(out, fmt.Sprintf("line %d: commentary block names no indicators; list the few it should discuss", c.At.Line))
+	}
+	return out
+}

@@ -1,0 +1,73 @@
+package figures
+
+import (
+	"io/fs"
+	"testing"
+
+	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
+	"peerpack/internal/demo"
+	"peerpack/internal/stats"
+)
+
+// TestDemoInvariants computes the demo scenario's figures and checks
+// properties every model must have, whatever the data (definitions in
+// DEVELOPERS.md): n + missing = members; min <= drawn low whisker <= q1
+// <= median <= q3 <= drawn high whisker <= max; 1 <= rank <= of; 0 < percentile <
+// 100; the quartile agrees with the percentile; a member's of equals the
+// group's n, an outsider's n + 1. (The demo's golden file comes with the
+// demo's own tests.)
+func TestDemoInvariants(t *testing.T) {
+	fsys := demo.FS()
+	src, err := fs.ReadFile(fsys, demo.BriefName)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := brief.Parse(demo.BriefName, src)
+	if err != nil {
+		t.Fatalf("demo brief: %v", err)
+	}
+	d, _, err := dataset.Load(fsys, b)
+	if err != nil {
+		t.Fatalf("demo data: %v", err)
+	}
+	m, err := Compute(d, b)
+	if err != nil {
+		t.Fatalf("demo figures: %v", err)
+	}
+	if len(m.Groups) == 0 || len(m.dist) == 0 || len(m.pos) == 0 {
+		t.Fatal("the demo model is empty")
+	}
+	for _, dist := range m.dist {
+		g, _ := m.Group(dist.Group)
+		if dist.N+dist.Missing != len(g.Members) {
+			t.Fatalf("%s %s %d: n %d + missing %d != %d members", dist.Group, dist.Indicator, dist.Year, dist.N, dist.Missing, len(g.Members))
+		}
+		if dist.N == 0 {
+			continue
+		}
+		lo, hi := dist.DrawnWhiskers()
+		chain := []float64{dist.Min, lo, dist.Q1, dist.Median, dist.Q3, hi, dist.Max}
+		for i := 1; i < len(chain); i++ {
+			if chain[i] < chain[i-1] {
+				t.Fatalf("%s %s %d: box out of order %v", dist.Group, dist.Indicator, dist.Year, chain)
+			}
+		}
+	}
+	for _, p := range m.pos {
+		if !p.HasValue || p.Rank == 0 {
+			continue
+		}
+		dist, _ := m.Distribution(p.Group, p.Indicator, p.Year)
+		wantOf := dist.N
+		if !p.InGroup {
+			wantOf++
+		}
+		if p.Rank < 1 || p.Rank > p.Of || p.Of != wantOf || !(p.Percentile > 0 && p.Percentile < 100) {
+			t.Fatalf("position out of range: %+v (n=%d)", p, dist.N)
+		}
+		if q := p.Quartile; q != stats.QuartileOf(p.Percentile) {
+			t.Fatalf("quartile %d for percentile %v", q, p.Percentile)
+		}
+	}
+}

@@ -1,0 +1,197 @@
+package layout
+
+import (
+	"bufio"
+	"bytes"
+	"errors"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"peerpack/internal/diag"
+	"peerpack/internal/narrative"
+)
+
+func renderFixture(t testing.TB) []byte {
+	t.Helper()
+	out, err := Render(fixtureInput(t, 60))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+// TestPackPassesPDFTools checks the pack with tools outside peerpack:
+// qpdf's structural check, pdffonts (every font embedded and subset),
+// pdfinfo (ISO 216 A4 page size) and pdftotext (headings, the focus name
+// with its diacritics, and table values equal to R's quartiles).
+func TestPackPassesPDFTools(t *testing.T) {
+	out := renderFixture(t)
+	runTool(t, out, "qpdf", "--check")
+
+	fonts := runTool(t, out, "pdffonts")
+	rows := strings.Split(strings.TrimSpace(fonts), "\n")
+	if len(rows) < 4 {
+		t.Fatalf("pdffonts lists too few fonts:\n%s", fonts)
+	}
+	for _, r := range rows[2:] {
+		f := strings.Fields(r)
+		// pdffonts columns end: emb sub uni object ID.
+		if len(f) < 6 || f[len(f)-5] != "yes" || f[len(f)-4] != "yes" || !strings.Contains(f[0], "+liberation") {
+			t.Errorf("font not embedded as a Liberation subset: %s", r)
+		}
+	}
+
+	info := runTool(t, out, "pdfinfo")
+	// A4 is 210 x 297 mm (ISO 216) = 595.276 x 841.89 pt at 72/25.4.
+	for _, want := range []string{"Page size:       595.28 x 841.89 pts (A4)", "Title:           International position of Université de Saint-Éluard", "Author:          Planning Office", "Producer:        peerpack test", "CreationDate:    Sat Mar  1 09:30:00 2025 UTC"} {
+		if !strings.Contains(info, want) {
+			t.Errorf("pdfinfo lacks %q:\n%s", want, info)
+		}
+	}
+
+	text := runTool(t, out, "pdftotext", "-layout")
+	for _, want := range []string{
+		"Where we stand", "Position in detail", "Peers", "Population and method", "About these figures", "Contents",
+		"Université de Saint-Éluard", "Høgskolen i Vårdø", "Politechnika Źródłowa",
+		"Commentary not available", "Page 3 of",
+		"{=value fwci}", // the escaped placeholder prints literally
+	} {
+		if !strings.Contains(text, want) {
+			t.Errorf("pdftotext lacks %q", want)
+		}
+	}
+	if strings.Contains(text, "{=value fwci}.") && strings.Count(text, "{=") > 1 {
+		t.Errorf("an unreplaced placeholder is left in the text")
+	}
+
+	// The position table's Field-weighted citation impact row shows the
+	// group median and quartiles R computes from the same values.
+	ref := readReference(t)
+	var row string
+	for _, l := range strings.Split(text, "\n") {
+		if strings.Contains(l, "Field-weighted citation") && strings.Contains(l, "10th of 18") {
+			row = l
+		}
+	}
+	if row == "" {
+		t.Fatalf("position table row for FWCI not found:\n%s", text)
+	}
+	for _, k := range []string{"median", "q1", "q3"} {
+		if !strings.Contains(row, ref[k]) {
+			t.Errorf("position row %q lacks R's %s %s", row, k, ref[k])
+		}
+	}
+}
+
+// readReference reads testdata/layout/reference_r.txt (R 4.2.2
+// quantile(type = 7), see testdata/layout/README.md).
+func readReference(t testing.TB) map[string]string {
+	f, err := os.Open(filepath.Join(fixtureDir, "reference_r.txt"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	out := map[string]string{}
+	sc := bufio.NewScanner(f)
+	for sc.Scan() {
+		if k, v, ok := strings.Cut(sc.Text(), " "); ok {
+			out[k] = v
+		}
+	}
+	return out
+}
+
+func TestPackIsReproducible(t *testing.T) {
+	a, b := renderFixture(t), renderFixture(t)
+	if !bytes.Equal(a, b) {
+		t.Fatal("two builds of the same pack differ byte for byte")
+	}
+}
+
+func TestLetterPaper(t *testing.T) {
+	in := fixtureInput(t, 60)
+	in.Brief.Theme.Paper = "letter"
+	out, err := Render(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// US Letter is 8.5 x 11 in (ANSI), 612 x 792 pt.
+	if info := runTool(t, out, "pdfinfo"); !strings.Contains(info, "Page size:       612 x 792 pts (letter)") {
+		t.Errorf("not US Letter:\n%s", info)
+	}
+}
+
+func TestPackWithCommentary(t *testing.T) {
+	in := fixtureInput(t, 60)
+	com, err := narrative.Compose(in.Model, in.Brief)
+	if err != nil {
+		t.Skipf("commentary stage not usable on this fixture yet: %v", err)
+	}
+	in.Commentary = com
+	in.Brief.Sources = true
+	out, err := Render(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := runTool(t, out, "pdftotext", "-layout")
+	if len(com.Summary) > 0 && !strings.Contains(text, "Executive summary") {
+		t.Error("the executive summary is missing")
+	}
+	if strings.Contains(text, "Commentary not available") {
+		t.Error("commentary was given but the pack says it is not available")
+	}
+	if !strings.Contains(text, "Sources of the commentary") {
+		t.Error("sources: true but no sources appendix")
+	}
+	if len(com.Sentences) > 0 && len(com.Sentences[0].Cites) > 0 {
+		// The first cited key's indicator part appears in the appendix.
+		k := com.Sentences[0].Cites[0]
+		if !strings.Contains(text, k.Section+"/") {
+			t.Errorf("appendix lacks the key %s", k)
+		}
+	}
+}
+
+// Problems in the brief that only layout can see come back positioned;
+// the expected lines and columns were counted in brief.md independently
+// (Python: index of the placeholder on its line, plus one).
+func TestPositionedProblems(t *testing.T) {
+	cases := []struct {
+		name, old, new, want string
+	}{
+		{"unknown indicator", "{=value fwci}\nin 2025", "{=value fwcx}\nin 2025", `brief.md:30:72: placeholder {=value fwcx} names indicator "fwcx", which the dictionary does not define; did you mean "fwci"?`},
+		{"unknown institution", "{=value fwci of OR002}", "{=value fwci of OR003}", `placeholder {=value fwci of OR003} names institution "OR003", which is not in the register; did you mean "OR002"?`},
+		{"unknown group", `{=percentile fwci in "Northern region"}`, `{=percentile fwci in "Northern regio"}`, `names group "Northern regio", which the brief does not define; did you mean "Northern region"?`},
+		{"nesting", "1. First ordered item", strings.Repeat("> ", 9) + "deep", "brief.md:45:19: lists and quotes are nested 9 deep here; at most 8 levels print legibly"},
+		{"logo", "organisation: Université de Saint-Éluard", "organisation: Université de Saint-Éluard\n  logo: missing.png", `logo: image "missing.png" cannot be opened`},
+	}
+	src, err := os.ReadFile(filepath.Join(fixtureDir, "brief.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			if !bytes.Contains(src, []byte(c.old)) {
+				t.Fatalf("fixture lacks %q", c.old)
+			}
+			in := fixtureInputFrom(t, 60, bytes.Replace(src, []byte(c.old), []byte(c.new), 1))
+			_, err := Render(in)
+			var l *diag.List
+			if err == nil || !errors.As(err, &l) {
+				t.Fatalf("want a *diag.List, got %v", err)
+			}
+			if !strings.Contains(err.Error(), c.want) {
+				t.Errorf("error %q lacks %q", err, c.want)
+			}
+		})
+	}
+}
+
+func TestCheckPlaceholders(t *testing.T) {
+	in := fixtureInput(t, 60)
+	if err := CheckPlaceholders(in.Brief, in.Model); err != nil {
+		t.Fatalf("fixture placeholders: %v", err)
+	}
+}

@@ -14,6 +14,7 @@ import (
 	"peerpack/internal/brief"
 	"peerpack/internal/figures"
 	"peerpack/internal/format"
+	"peerpack/internal/stats"
 )
 
 // HeatRow is one institution's row of percentile ranks (NaN: no value).
@@ -24,8 +25,9 @@ type HeatRow struct {
 	Percentiles []float64
 }
 
-// HeatmapChart shows institutions x indicators coloured by percentile
-// rank in a group, in five classes of twenty points each.
+// HeatmapChart shows institutions x indicators: each cell the percentile
+// rank in a group, shaded by the quarter it falls in (stats.QuartileOf,
+// as the tables shade).
 type HeatmapChart struct {
 	Columns []string
 	Rows    []HeatRow
@@ -36,23 +38,33 @@ type HeatmapChart struct {
 	built *panels
 }
 
-// heatClasses are a sequential single-hue ramp, light (low percentile) to
-// dark (high), so order survives greyscale print; the colours are
-// ColorBrewer's 5-class "Blues" (Brewer, Harrower and others,
-// colorbrewer2.org; Harrower and Brewer 2003, The Cartographic Journal
-// 40(1)).
-var heatClasses = []color.Color{
-	color.RGBA{0xef, 0xf3, 0xff, 0xff},
-	color.RGBA{0xbd, 0xd7, 0xe7, 0xff},
-	color.RGBA{0x6b, 0xae, 0xd6, 0xff},
-	color.RGBA{0x31, 0x82, 0xbd, 0xff},
-	color.RGBA{0x08, 0x51, 0x9c, 0xff},
+// QuartileShade is the fill of a figure in quarter q of its group (1 the
+// best .. 4 the worst; 0 or other values: none, white): one hue, the
+// palette's blue (Okabe and Ito 2008), in four lightness steps, darkest
+// for the best quarter, so the order survives greyscale print. Tables use
+// the same steps, so a heatmap cell and a table cell of the same quarter
+// look alike.
+func QuartileShade(q int) color.Color {
+	mix := func(t float64) color.Color {
+		f := func(x uint8) uint8 { return uint8(float64(x)*(1-t) + 255*t + 0.5) }
+		return color.RGBA{f(PaletteBlue.R), f(PaletteBlue.G), f(PaletteBlue.B), 0xff}
+	}
+	switch q {
+	case 1:
+		return mix(0.45)
+	case 2:
+		return mix(0.65)
+	case 3:
+		return mix(0.82)
+	case 4:
+		return mix(0.95)
+	}
+	return whiteColor
 }
 
-// heatClass is the class of a percentile: [0, 20), [20, 40), ..., [80, 100].
-func heatClass(p float64) int {
-	return min(int(p/20), 4)
-}
+// quarterWords name the quarters in the legend, with their percentile
+// bounds as stats.QuartileOf draws them.
+var quarterWords = []string{"top quarter (above 75)", "second (50–75)", "third (25–50)", "bottom (25 or below)"}
 
 const (
 	heatRowH    = 14
@@ -89,7 +101,6 @@ func (h *HeatmapPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		}
 	}
 	cellText := th.text(sizeTick, false, PaletteBlack)
-	cellTextDark := th.text(sizeTick, false, whiteColor)
 	for i, r := range hc.Rows {
 		y1 := top - headH - heatRowH*vg.Length(i)
 		y0 := y1 - heatRowH
@@ -124,14 +135,9 @@ func (h *HeatmapPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 				fillText(&c, cellText, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(cellText)/2+cellText.FontExtents().Descent, draw.XCenter, "–")
 				continue
 			}
-			k := heatClass(p)
-			c.SetColor(heatClasses[k])
+			c.SetColor(QuartileShade(stats.QuartileOf(p)))
 			c.Fill(cell.Path())
-			ts := cellText
-			if k >= 3 {
-				ts = cellTextDark
-			}
-			fillText(&c, ts, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(ts)/2+ts.FontExtents().Descent, draw.XCenter, format.Number(p, 0))
+			fillText(&c, cellText, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(cellText)/2+cellText.FontExtents().Descent, draw.XCenter, format.Number(p, 0))
 		}
 		if r.Focus {
 			// A black frame round the focus row, in any print.
@@ -209,10 +215,9 @@ func (hc *HeatmapChart) panels() *panels {
 			break
 		}
 	}
-	l.add(legendEntry{Text: "Percentile rank in " + hc.Group + ":", Width: 0.01})
-	for k, col := range heatClasses {
-		lo, hi := 20*k, 20*(k+1)
-		l.add(legendEntry{Text: fmt.Sprintf("%d–%d", lo, hi), Thumb: fillThumb(col, greyGrid)})
+	l.add(legendEntry{Text: "Percentile rank in " + hc.Group + "; shading by quarter:", Width: 0.01})
+	for q, words := range quarterWords {
+		l.add(legendEntry{Text: words, Thumb: fillThumb(QuartileShade(q+1), greyGrid)})
 	}
 	l.add(legendEntry{Text: "– no value", Width: 0.01})
 	l.note = hc.Note
@@ -317,7 +322,12 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 		}
 		hc.Rows = append(hc.Rows, r)
 	}
-	members := len(g.Members)
-	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown. Percentiles run in each indicator's better direction (higher is better).", shortName(inds[0]), len(hc.Rows), members)
+	shown := len(hc.Rows)
+	outside := ""
+	if !g.Has(m.Focus) {
+		shown--
+		outside = fmt.Sprintf(" %s is not a member: its row places it among them.", institution(m, m.Focus).Name)
+	}
+	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown.%s Percentile ranks run in each indicator's better direction (higher is better; for neutral indicators, higher values).", shortName(inds[0]), shown, len(g.Members), outside)
 	return hc, nil
 }

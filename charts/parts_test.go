@@ -45,13 +45,21 @@ func TestNiceStep(t *testing.T) {
 	}
 }
 
-func TestHeatClass(t *testing.T) {
-	// Five classes of twenty points, 100 in the top class (common
-	// practice, no source).
-	for p, want := range map[float64]int{0: 0, 19.99: 0, 20: 1, 59.9: 2, 60: 3, 80: 4, 100: 4} {
-		if got := heatClass(p); got != want {
-			t.Errorf("heatClass(%g) = %d, want %d", p, got, want)
+func TestQuartileShadesDarkenTowardsTheBest(t *testing.T) {
+	// Lightness must fall from the bottom quarter to the top so the order
+	// survives greyscale print (common practice, no source); luma by
+	// ITU-R BT.601 weights (from memory: 0.299, 0.587, 0.114).
+	luma := func(q int) float64 {
+		r, g, b, _ := QuartileShade(q).RGBA()
+		return 0.299*float64(r) + 0.587*float64(g) + 0.114*float64(b)
+	}
+	for q := 1; q < 4; q++ {
+		if !(luma(q) < luma(q+1)) {
+			t.Errorf("quarter %d is not darker than quarter %d", q, q+1)
 		}
+	}
+	if luma(4) >= luma(0) {
+		t.Error("the bottom quarter is as light as an unshaded cell")
 	}
 }
 

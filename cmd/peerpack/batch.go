@@ -11,23 +11,6 @@ import (
 	"peerpack/internal/demo"
 )
 
-func init() {
-	commands = append(commands, &command{name: "batch", summary: "build one pack per row of a plan or per member of a group", run: runBatch, usage: `Usage:
-  peerpack batch BRIEF.md --plan plan.csv --out DIR [--jobs N]
-  peerpack batch BRIEF.md --group "Home sector" --out DIR [--jobs N]
-  peerpack batch --demo --group "Home sector" --out DIR
-
-Reads the brief and its data once, then builds one pack per plan row (CSV
-columns focus,output and optionally title,subtitle,audience,accent) or per
-member of a group of the brief, in parallel over the cores. A failing pack
-never stops the others; the summary names each failure and the exit code
-is 1 when any pack failed.
-
-Examples:
-  peerpack batch brief.md --plan clients.csv --out packs
-  peerpack batch --demo --group "Home sector" --out packs`})
-}
-
 func runBatch(ctx context.Context, e *env, args []string) int {
 	c := findCommand("batch")
 	fs := newFlags(c, e)

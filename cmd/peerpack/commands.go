@@ -61,6 +61,20 @@ replace.
 Examples:
   peerpack new --template governing-body board
   peerpack new --template country-competition intl-office`},
+		{name: "batch", summary: "build one pack per row of a plan or per member of a group", run: runBatch, usage: `Usage:
+  peerpack batch BRIEF.md --plan plan.csv --out DIR [--jobs N]
+  peerpack batch BRIEF.md --group "Home sector" --out DIR [--jobs N]
+  peerpack batch --demo --group "Home sector" --out DIR
+
+Reads the brief and its data once, then builds one pack per plan row (CSV
+columns focus,output and optionally title,subtitle,audience,accent) or per
+member of a group of the brief, in parallel over the cores. A failing pack
+never stops the others; the summary names each failure and the exit code
+is 1 when any pack failed.
+
+Examples:
+  peerpack batch brief.md --plan clients.csv --out packs
+  peerpack batch --demo --group "Kestrian sector" --out packs`},
 		{name: "version", summary: "print the version", run: runVersion, usage: "Usage:\n  peerpack version"},
 		{name: "help", summary: "show help for a command", run: runHelp, usage: "Usage:\n  peerpack help [COMMAND]"},
 	}

@@ -332,3 +332,43 @@ func FuzzDictionary(f *testing.F) {
 		}
 	})
 }
+
+// FuzzLoad runs arbitrary values, dictionary and PPP files through the
+// whole of Load: whatever the input, it must return problems, never panic,
+// and never leave an infinity in the data.
+func FuzzLoad(f *testing.F) {
+	files := testFiles()
+	f.Add([]byte(files["long.csv"]), []byte(files["dict.yaml"]), []byte(files["ppp.csv"]))
+	f.Add([]byte("institution,year,papers,citations\nA1,2024,1,\"2\"\n"), []byte(testDict), []byte("country,year,factor\n"))
+	f.Fuzz(func(t *testing.T, values, dict, ppp []byte) {
+		b, err := brief.Parse("brief.md", []byte(testBrief))
+		if err != nil {
+			t.Fatal(err)
+		}
+		fsys := fstest.MapFS{
+			"reg.csv":   {Data: []byte(testRegister)},
+			"dict.yaml": {Data: dict},
+			"long.csv":  {Data: values},
+			"wide.csv":  {Data: []byte("institution,year\n")},
+			"ppp.csv":   {Data: ppp},
+		}
+		d, rep, err := Load(fsys, b)
+		if rep == nil {
+			t.Fatal("no report")
+		}
+		var out bytes.Buffer
+		rep.Write(&out)
+		if err != nil || d == nil {
+			return
+		}
+		for ind := range d.Dictionary.Indicators {
+			for _, y := range d.Years {
+				for _, v := range d.Column(ind, y) {
+					if math.IsInf(v, 0) {
+						t.Fatalf("infinity in %s %d", d.Dictionary.Indicators[ind].Key, y)
+					}
+				}
+			}
+		}
+	})
+}

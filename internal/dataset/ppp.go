@@ -148,7 +148,15 @@ func (l *loader) convertPPP(d *Dataset) {
 					col[inst] = math.NaN()
 					continue
 				}
-				col[inst] = ToInternational(v, f)
+				x := ToInternational(v, f)
+				if math.IsInf(x, 0) {
+					// Only absurd factors (below 1e-300) get here.
+					file, line, c := l.st.placeOf(year, ind, inst)
+					l.probs.Addf(file, line, c, "converting %s of %s in %d with factor %g overflows; check the factor for %s %d in %s", d.Dictionary.Indicators[ind].Key, d.Register.Institutions[inst].ID, year, f, country, year, d.PPP.File)
+					col[inst] = math.NaN()
+					continue
+				}
+				col[inst] = x
 				converted++
 			}
 		}

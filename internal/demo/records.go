@@ -104,6 +104,32 @@ func votesCSV(seed uint64, insts []institution) []byte {
 	for i, in := range insts {
 		base[i] = math.Exp(1.6*in.Research + 0.5*(in.LogAcademics-math.Log(1000)))
 	}
+	// The weights depend only on the year, the respondent's country, the
+	// subject and the kind of vote, so they are computed once per
+	// combination rather than once per respondent.
+	type wkey struct{ year, home, subject, kind int }
+	cache := map[wkey][]float64{}
+	weightsFor := func(k wkey) []float64 {
+		if w, ok := cache[k]; ok {
+			return w
+		}
+		weights := make([]float64, len(insts))
+		for i, in := range insts {
+			wgt := base[i] * (0.2 + in.Profile[k.subject])
+			if k.kind == 1 {
+				wgt = math.Sqrt(wgt) * (1 + 0.5*boolFloat(in.Mission == missionTeaching))
+			}
+			if in.Country == k.home {
+				wgt *= 4
+			}
+			if k.year < in.EntryYear {
+				wgt = 0
+			}
+			weights[i] = wgt
+		}
+		cache[k] = weights
+		return weights
+	}
 	n := 0
 	for _, year := range []int{LastYear - 1, LastYear} {
 		for k := 0; k < 600; k++ {
@@ -111,21 +137,8 @@ func votesCSV(seed uint64, insts []institution) []byte {
 			home := drawIndex(r, sizes)
 			subject := r.intn(len(subjects))
 			rid := fmt.Sprintf("R%04d", n)
-			for _, kind := range []string{"research", "teaching"} {
-				weights := make([]float64, len(insts))
-				for i, in := range insts {
-					wgt := base[i] * (0.2 + in.Profile[subject])
-					if kind == "teaching" {
-						wgt = math.Sqrt(wgt) * (1 + 0.5*boolFloat(in.Mission == missionTeaching))
-					}
-					if in.Country == home {
-						wgt *= 4
-					}
-					if year < in.EntryYear {
-						wgt = 0
-					}
-					weights[i] = wgt
-				}
+			for kind, kindName := range []string{"research", "teaching"} {
+				weights := weightsFor(wkey{year, home, subject, kind})
 				count := 1 + r.intn(3)
 				var chosen []int
 				for len(chosen) < count {
@@ -136,7 +149,7 @@ func votesCSV(seed uint64, insts []institution) []byte {
 				}
 				sort.Ints(chosen)
 				for _, j := range chosen {
-					w.row(rid, strconv.Itoa(year), countries[home].Name, subjects[subject].Key, kind, insts[j].ID)
+					w.row(rid, strconv.Itoa(year), countries[home].Name, subjects[subject].Key, kindName, insts[j].ID)
 				}
 			}
 		}

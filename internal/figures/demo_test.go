@@ -1,7 +1,9 @@
 package figures
 
 import (
+	"bytes"
 	"io/fs"
+	"math"
 	"testing"
 
 	"peerpack/internal/brief"
@@ -35,6 +37,12 @@ func TestDemoInvariants(t *testing.T) {
 	if err != nil {
 		t.Fatalf("demo figures: %v", err)
 	}
+	checkInvariants(t, m)
+}
+
+// checkInvariants checks the properties listed at TestDemoInvariants.
+func checkInvariants(t *testing.T, m *Model) {
+	t.Helper()
 	if len(m.Groups) == 0 || len(m.dist) == 0 || len(m.pos) == 0 {
 		t.Fatal("the demo model is empty")
 	}
@@ -69,5 +77,49 @@ func TestDemoInvariants(t *testing.T) {
 		if q := p.Quartile; q != stats.QuartileOf(p.Percentile) {
 			t.Fatalf("quartile %d for percentile %v", q, p.Percentile)
 		}
+	}
+}
+
+// TestEdgeCaseData: constant columns, a column with no values, heavy ties
+// and many missing values must give a model (no panic, no error) with the
+// invariants intact and undefined statistics left out, not invented.
+func TestEdgeCaseData(t *testing.T) {
+	d, b := worldFixture(300, 5, 3)
+	for _, y := range d.Years {
+		for i := 0; i < d.Register.Len(); i++ {
+			d.Set(0, i, y, 7)            // constant
+			d.Set(1, i, y, math.NaN())   // no values at all
+			d.Set(2, i, y, float64(i%3)) // three values, heavy ties
+			if i%2 == 0 {
+				d.Set(3, i, y, math.NaN()) // half missing
+			}
+		}
+	}
+	b.Groups[4].Nearest.Indicators = []string{"ind02", "ind04"} // ind01 has no values now
+	m, err := Compute(d, b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkInvariants(t, m)
+	dist, _ := m.Distribution("World", "ind00", d.Years[0])
+	if dist.SD != 0 || dist.IQR != 0 || len(dist.Outliers) != 0 {
+		t.Errorf("constant column: %+v", dist)
+	}
+	if c, _ := m.Correlation("World", "ind00", "ind02"); !math.IsNaN(c.Pearson) || !math.IsNaN(c.Spearman) {
+		t.Errorf("correlation with a constant must be undefined: %+v", c)
+	}
+	p, _ := m.Position("World", "ind00", m.Focus, d.Years[0])
+	if !math.IsNaN(p.Z) || p.Rank != 1 || p.Percentile != 50 {
+		t.Errorf("all tied: rank %d percentile %v z %v; want 1, 50, undefined", p.Rank, p.Percentile, p.Z)
+	}
+	if empty, _ := m.Distribution("World", "ind01", d.Years[0]); empty.N != 0 || empty.Missing != len(m.Groups[0].Members) {
+		t.Errorf("empty column: %+v", empty)
+	}
+	var buf bytes.Buffer
+	if err := WriteCSV(&buf, m); err != nil {
+		t.Fatal(err)
+	}
+	if bytes.Contains(buf.Bytes(), []byte("NaN")) {
+		t.Error("NaN written to the figures file")
 	}
 }

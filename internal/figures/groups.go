@@ -2,14 +2,12 @@ package figures
 
 import (
 	"fmt"
-	"math"
 	"sort"
 	"strings"
 
 	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
-	"peerpack/internal/stats"
 	"peerpack/internal/yamlx"
 )
 
@@ -89,111 +87,6 @@ func (g *Group) add(inst int) {
 
 func (g *Group) sortMembers() { sort.Ints(g.Members) }
 
-// checkFilter reports unknown fields and values of a filter; it returns
-// false when the filter cannot be applied.
-func (r *resolver) checkFilter(spec *brief.GroupSpec, f *brief.Filter) bool {
-	if f == nil {
-		return true
-	}
-	ok := true
-	for _, c := range f.Conds {
-		p := c.Pos
-		if p.Line == 0 {
-			p = spec.Pos
-		}
-		if !r.d.Register.HasAttr(c.Attr) {
-			fields := r.fields()
-			msg := fmt.Sprintf("group %q: %q is not a column of the register %s", spec.Name, c.Attr, r.d.Register.File)
-			if s := yamlx.Nearest(c.Attr, fields); s != "" {
-				msg += fmt.Sprintf("; did you mean %q?", s)
-			}
-			r.errAt(p, "%s (columns are %s)", msg, strings.Join(fields, ", "))
-			ok = false
-			continue
-		}
-		seen := r.attrValues(c.Attr)
-		for _, v := range c.Values {
-			if _, found := seen[v]; found {
-				continue
-			}
-			vals := make([]string, 0, len(seen))
-			for k := range seen {
-				vals = append(vals, k)
-			}
-			sort.Strings(vals)
-			msg := fmt.Sprintf("group %q: no institution in the register has %s %q", spec.Name, c.Attr, v)
-			if s := yamlx.Nearest(v, vals); s != "" {
-				msg += fmt.Sprintf("; did you mean %q?", s)
-			}
-			r.errAt(p, "%s; check the spelling against the register's %s column", msg, c.Attr)
-			ok = false
-		}
-	}
-	return ok
-}
-
-func (r *resolver) fields() []string {
-	return append([]string{"id", "name", "country", "region"}, r.d.Register.AttrNames...)
-}
-
-func (r *resolver) attrValues(attr string) map[string]struct{} {
-	seen := map[string]struct{}{}
-	for _, in := range r.d.Register.Institutions {
-		if v, ok := in.Attr(attr); ok {
-			seen[v] = struct{}{}
-		}
-	}
-	return seen
-}
-
-// matches applies a filter: every condition must hold; a condition holds
-// when the field's value is one of the listed values (or none of them,
-// with not).
-func matches(in dataset.Institution, f *brief.Filter) bool {
-	if f == nil {
-		return true
-	}
-	for _, c := range f.Conds {
-		v, _ := in.Attr(c.Attr)
-		hit := false
-		for _, want := range c.Values {
-			if v == want {
-				hit = true
-				break
-			}
-		}
-		if hit == c.Not {
-			return false
-		}
-	}
-	return true
-}
-
-// describeFilter restates a filter in words for the pack.
-func describeFilter(f *brief.Filter) string {
-	if f == nil || len(f.Conds) == 0 {
-		return "all institutions"
-	}
-	parts := make([]string, 0, len(f.Conds))
-	for _, c := range f.Conds {
-		verb := "is"
-		if c.Not {
-			verb = "is not"
-		}
-		if len(c.Values) == 1 {
-			parts = append(parts, fmt.Sprintf("%s %s %s", c.Attr, verb, c.Values[0]))
-			continue
-		}
-		if c.Not {
-			verb = "is none of"
-		} else {
-			verb = "is one of"
-		}
-		parts = append(parts, fmt.Sprintf("%s %s %s", c.Attr, verb, strings.Join(c.Values, ", ")))
-	}
-	return strings.Join(parts, " and ")
-}
-
 func (r *resolver) where(spec *brief.GroupSpec, over string) []*Group {
 	if !r.checkFilter(spec, spec.Where) {
 		return nil
@@ -261,104 +154,6 @@ func (r *resolver) nearestID(id string) string {
 	return yamlx.Nearest(id, ids)
 }
 
-// nearest picks the Count institutions closest to the focus by
-// standardised Euclidean distance over the chosen indicators in the brief
-// year: each indicator is standardised by the mean and sample SD of the
-// group's pool (the ranked population, or all institutions with over: all)
-// with a value; d = sqrt(sum(((x - focus) / sd)^2)). Institutions lacking
-// any of the indicators are skipped, the focus itself is never chosen, an
-// indicator with zero spread adds nothing, and equal distances are broken
-// by register id (ascending), so the choice is reproducible.
-func (r *resolver) nearest(spec *brief.GroupSpec, over string) []*Group {
-	ns := spec.Nearest
-	inds := make([]int, 0, len(ns.Indicators))
-	ok := true
-	for _, key := range ns.Indicators {
-		k := r.d.Dictionary.Index(key)
-		if k < 0 {
-			r.errAt(spec.Pos, "%s", unknownIndicator(r.d, fmt.Sprintf("group %q: nearest", spec.Name), key))
-			ok = false
-			continue
-		}
-		inds = append(inds, k)
-	}
-	if !ok || !r.checkFilter(spec, ns.Where) || r.focus < 0 {
-		return nil
-	}
-	year := r.b.Year
-	for _, k := range inds {
-		if _, has := r.d.Value(k, r.focus, year); !has {
-			r.errAt(spec.Pos, "group %q: the focus %s has no value of %q in %d, so no institution can be measured against it; choose indicators the focus reports", spec.Name, r.b.Focus, r.d.Dictionary.Indicators[k].Key, year)
-			ok = false
-		}
-	}
-	if !ok {
-		return nil
-	}
-	pool := r.pool(over)
-	sds := make([]float64, len(inds))
-	for j, k := range inds {
-		col := r.d.Column(k, year)
-		vals := make([]float64, 0, len(col))
-		for i, v := range col {
-			if pool[i] && !math.IsNaN(v) {
-				vals = append(vals, v)
-			}
-		}
-		_, sds[j] = stats.MeanSD(vals)
-	}
-	type cand struct {
-		inst int
-		dist float64
-	}
-	var cands []cand
-	for i, in := range r.d.Register.Institutions {
-		if i == r.focus || !pool[i] || !matches(in, ns.Where) {
-			continue
-		}
-		sum, complete := 0.0, true
-		for j, k := range inds {
-			v, has := r.d.Value(k, i, year)
-			if !has {
-				complete = false
-				break
-			}
-			if sds[j] > 0 {
-				f, _ := r.d.Value(k, r.focus, year)
-				z := (v - f) / sds[j]
-				sum += z * z
-			}
-		}
-		if complete {
-			cands = append(cands, cand{i, math.Sqrt(sum)})
-		}
-	}
-	ids := r.d.Register.Institutions
-	sort.Slice(cands, func(a, b int) bool {
-		if cands[a].dist != cands[b].dist {
-			return cands[a].dist < cands[b].dist
-		}
-		return ids[cands[a].inst].ID < ids[cands[b].inst].ID
-	})
-	if len(cands) > ns.Count {
-		cands = cands[:ns.Count]
-	}
-	g := newGroup(spec.Name, "nearest", r.d.Register.Len())
-	g.Defined = fmt.Sprintf("the %d institutions nearest %s on %s in %d (standardised Euclidean distance)", len(cands), r.b.Focus, strings.Join(ns.Indicators, ", "), year)
-	if len(cands) < ns.Count {
-		g.Defined += fmt.Sprintf("; %d were asked for, but only %d institutions have every one of these indicators", ns.Count, len(cands))
-	}
-	if ns.Where != nil {
-		g.Defined += ", among those where " + describeFilter(ns.Where)
-	}
-	for _, c := range cands {
-		g.add(c.inst)
-		g.Nearest = append(g.Nearest, Neighbour{Institution: c.inst, Distance: c.dist})
-	}
-	g.sortMembers()
-	return []*Group{g}
-}
-
 // each expands into one group per distinct non-empty value of a register
 // field among the pool (and the optional where), in sorted order of the
 // value so the order does not depend on the register's row order.
@@ -421,19 +216,4 @@ func unknownIndicator(d *dataset.Dataset, where, key string) string {
 		msg += fmt.Sprintf("; did you mean %q?", s)
 	}
 	return msg
-}
-
-// restrictsOther reports whether a filter has a condition on a field other
-// than field; a where that only picks which values of an each field to
-// expand need not be restated in every group's definition.
-func restrictsOther(f *brief.Filter, field string) bool {
-	if f == nil {
-		return false
-	}
-	for _, c := range f.Conds {
-		if c.Attr != field {
-			return true
-		}
-	}
-	return false
 }

@@ -63,8 +63,9 @@ type Model struct {
 	// Focus is the register position of the focus institution; FocusID its id.
 	Focus   int
 	FocusID string
-	// Named are register positions of further institutions whose positions
-	// are recorded (the focus first).
+	// Named are the register positions of the institutions whose positions
+	// and trends are recorded: the focus first, then the brief's named:
+	// list, then chart label: institutions, each once.
 	Named []int
 	Year  int
 	// Span is the trend span [First, Last]; Years lists every year in it

@@ -174,7 +174,11 @@ func (w *writer) setHeading(title string, level int, spans []span) {
 	idx := len(w.headings)
 	rec := headingRec{title: title, level: level, page: w.doc.PageNo()}
 	w.headings = append(w.headings, rec)
-	w.doc.Bookmark(title, level-1, top)
+	// Outline levels may rise by one at a time only (a level-3 heading
+	// straight under a level-1 one hangs one level below it).
+	ol := min(level-1, w.outlineLevel+1)
+	w.outlineLevel = ol
+	w.doc.Bookmark(title, ol, top)
 	if w.known != nil && idx < len(w.known.headings) && w.known.headings[idx].link > 0 {
 		w.doc.SetLink(w.known.headings[idx].link, top, 0)
 	}

@@ -2,6 +2,7 @@ package layout
 
 import (
 	"fmt"
+	"math"
 	"strings"
 
 	"peerpack/internal/pdf"
@@ -128,7 +129,8 @@ func (w *writer) coverLogo(right, top float64) {
 		w.failAt(p, "logo: %v", err)
 		return
 	}
-	iw, ih := fitBox(float64(info.Width), float64(info.Height), 44, 20)
+	natW, natH := naturalSize(info)
+	iw, ih := fitBox(float64(info.Width), float64(info.Height), math.Min(44, natW), math.Min(20, natH))
 	pad := 3.0
 	x := right - iw - 2*pad
 	w.doc.FillRect(x, top, iw+2*pad, ih+2*pad, white)

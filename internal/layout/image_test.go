@@ -59,3 +59,26 @@ func TestImagesAndRawHTML(t *testing.T) {
 		t.Error("image caption or the text around inline HTML is missing")
 	}
 }
+
+func TestIgnoredHTMLPositions(t *testing.T) {
+	src, err := os.ReadFile(filepath.Join(fixtureDir, "brief.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	src = bytes.Replace(src, []byte("Literal braces stay"), []byte("<b>x</b> Literal braces stay"), 1)
+	src = bytes.Replace(src, []byte("## Peers"), []byte("<div>\nblock\n</div>\n\n## Peers"), 1)
+	in := fixtureInputFrom(t, 60, src)
+	got := IgnoredHTML(in.Brief)
+	// Positions counted in brief.md (grep -n): "Literal braces stay" opens
+	// line 37, so <b> is at 37:1 and </b> at 37:5; the block <div> opens
+	// where "## Peers" was, line 88.
+	want := []string{"37:1", "37:5", "88:1"}
+	if len(got) != len(want) {
+		t.Fatalf("got %v, want %v", got, want)
+	}
+	for i := range want {
+		if got[i].String() != want[i] {
+			t.Errorf("HTML %d at %v, want %s", i, got[i], want[i])
+		}
+	}
+}

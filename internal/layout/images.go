@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
+	"math"
 	"path"
 	"strings"
 
@@ -48,7 +49,10 @@ func (w *writer) placeImages() {
 		}
 		maxW := w.width - w.indent
 		maxH := (w.bottom() - w.frameTop()) / 3
-		iw, ih := fitBox(float64(info.Width), float64(info.Height), maxW, maxH)
+		// Never enlarge beyond 150 pixels to the inch, where a raster
+		// starts to look soft in print (common practice, no source).
+		natW, natH := naturalSize(info)
+		iw, ih := fitBox(float64(info.Width), float64(info.Height), math.Min(maxW, natW), math.Min(maxH, natH))
 		w.figureNo++
 		capSp := w.captionSpans("Figure", w.figureNo, r.alt)
 		capLines := w.wrap(capSp, w.tokenize(capSp), maxW, maxW)
@@ -65,6 +69,12 @@ func (w *writer) placeImages() {
 		}
 		w.y += chartSpacing
 	}
+}
+
+// naturalSize is an image's size in mm at printDPI.
+func naturalSize(info *pdf.ImageInfo) (float64, float64) {
+	const printDPI = 150
+	return float64(info.Width) * 25.4 / printDPI, float64(info.Height) * 25.4 / printDPI
 }
 
 // fitBox scales w x h to fit inside maxW x maxH, keeping the aspect.

@@ -273,9 +273,9 @@ func (w *writer) autoLink(n ast.Node, entering bool) ast.WalkStatus {
 	return ast.WalkSkipChildren
 }
 
+// rawHTML leaves HTML out: a pack prints Markdown only, and nothing in a
+// brief is ever executed or passed through. IgnoredHTML lists it for
+// `peerpack check`.
 func (w *writer) rawHTML(n ast.Node, entering bool) ast.WalkStatus {
-	if entering {
-		w.notes = append(w.notes, "raw HTML at line "+itoa(w.nodePos(n).Line)+" was left out: packs print Markdown only")
-	}
 	return ast.WalkSkipChildren
 }

@@ -184,7 +184,9 @@ func (w *writer) setTable(g grid) {
 	drawHead()
 	for ri, r := range g.rows {
 		rowH = rowHeight(ri)
-		if w.y+rowH > w.bottom() {
+		// Do not strand the last row alone on a continuation page.
+		lastTwo := ri == len(g.rows)-2 && ri >= lead && w.y+rowH+rowHeight(ri+1) > w.bottom()
+		if w.y+rowH > w.bottom() || lastTwo {
 			w.nextFrame()
 			drawCaption(true)
 			drawHead()

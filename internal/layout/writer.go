@@ -62,9 +62,10 @@ type writer struct {
 	lists  []*listState
 	// quotes holds, per open block quote, the bar's offset from the
 	// frame's left edge; every set line draws the bars beside it.
-	quotes []float64
-	tight  bool
-	keep   float64 // room the heading being set must keep below it
+	quotes       []float64
+	tight        bool
+	keep         float64 // room the heading being set must keep below it
+	outlineLevel int     // level of the last outline entry
 
 	// Numbering and records.
 	figureNo, tableNo int
@@ -72,7 +73,6 @@ type writer struct {
 	known             *passRecord // from the first pass; nil in it
 	pendingHalf       *halfChart
 	problems          diag.List
-	notes             []string // things ignored, e.g. raw HTML
 	funcs             map[ast.NodeKind]nodeFunc
 	blockAt           map[int]brief.Block
 	imageCache        map[string]*pdf.ImageInfo

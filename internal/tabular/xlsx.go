@@ -26,6 +26,9 @@ const (
 	maxRows      = 1048576 // the last row Office Open XML allows
 )
 
+// partLimit is MaxPartBytes, lowered by tests.
+var partLimit int64 = MaxPartBytes
+
 // The namespace-free element names of SpreadsheetML (ECMA-376 Part 1,
 // section 18) that the reader needs.
 type xlsxWorkbook struct {
@@ -137,14 +140,14 @@ func (bk *xlsxBook) open(name string) (io.Reader, func(), error) {
 		if f.Name != name {
 			continue
 		}
-		if f.UncompressedSize64 > MaxPartBytes {
-			return nil, nil, diag.At(bk.file, 0, 0, "workbook part %s inflates to %d bytes, over the limit of %d", name, f.UncompressedSize64, MaxPartBytes)
+		if f.UncompressedSize64 > uint64(partLimit) {
+			return nil, nil, diag.At(bk.file, 0, 0, "workbook part %s inflates to %d bytes, over the limit of %d", name, f.UncompressedSize64, partLimit)
 		}
 		rc, err := f.Open()
 		if err != nil {
 			return nil, nil, diag.At(bk.file, 0, 0, "cannot read workbook part %s: %v; save the workbook again", name, err)
 		}
-		return &limitedPart{r: rc, left: MaxPartBytes, bk: bk, name: name}, func() { rc.Close() }, nil
+		return &limitedPart{r: rc, left: partLimit, bk: bk, name: name}, func() { rc.Close() }, nil
 	}
 	return nil, nil, diag.At(bk.file, 0, 0, "the workbook has no part %s; it is not a complete XLSX file, so save it again from the spreadsheet", name)
 }
@@ -170,7 +173,10 @@ func (l *limitedPart) Read(p []byte) (int, error) {
 
 func (bk *xlsxBook) partErr(name string, err error) error {
 	if errors.Is(err, errTooBig) {
-		return diag.At(bk.file, 0, 0, "workbook part %s inflates beyond the limit of %d bytes; the file may be damaged or hostile", name, MaxPartBytes)
+		return diag.At(bk.file, 0, 0, "workbook part %s inflates beyond the limit of %d bytes; the file may be damaged or hostile", name, partLimit)
+	}
+	if errors.Is(err, zip.ErrFormat) || errors.Is(err, zip.ErrChecksum) || errors.Is(err, zip.ErrAlgorithm) {
+		return diag.At(bk.file, 0, 0, "workbook part %s is damaged (%v); save the workbook again from the spreadsheet", name, err)
 	}
 	return diag.At(bk.file, 0, 0, "workbook part %s is not well-formed XML (%v); save the workbook again from the spreadsheet", name, err)
 }

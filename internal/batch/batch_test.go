@@ -1,0 +1,163 @@
+package batch
+
+import (
+	"bytes"
+	"context"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+	"testing/fstest"
+	"time"
+
+	"peerpack/internal/build"
+	"peerpack/internal/demo"
+)
+
+var created = time.Date(2026, 11, 30, 0, 0, 0, 0, time.UTC)
+
+func loadDemo(t testing.TB) *build.Inputs {
+	t.Helper()
+	in, err := build.Load(build.Source{FS: demo.FS(), Brief: demo.BriefName, Display: "demo/brief.md"}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return in
+}
+
+func TestReadPlanProblems(t *testing.T) {
+	fsys := fstest.MapFS{
+		"plan.csv": {Data: []byte("focus,output,colour\nKE001,a.pdf,red\n")},
+		"dup.csv":  {Data: []byte("focus,output\nKE001,a.pdf\nKE002,a.pdf\nKE003,../b.pdf\n")},
+	}
+	_, err := ReadPlan(fsys, "plan.csv", "plan.csv")
+	if err == nil || !strings.HasPrefix(err.Error(), `plan.csv:1:14: unknown plan column "colour"`) {
+		t.Errorf("unknown column: %v", err)
+	}
+	_, err = ReadPlan(fsys, "dup.csv", "dup.csv")
+	want := "dup.csv:3:1: output \"a.pdf\" is also written by line 2; give each pack its own file name\n" +
+		"dup.csv:4:1: output \"../b.pdf\" must be a plain file name; packs are written into the --out folder"
+	if err == nil || err.Error() != want {
+		t.Errorf("got  %v\nwant %s", err, want)
+	}
+}
+
+// One failing pack (an unknown focus) never stops the others; the summary
+// names it and counts it.
+func TestBatchFailureIsolated(t *testing.T) {
+	in := loadDemo(t)
+	g := in.Figures.Groups[0]
+	ok1, ok2 := in.Figures.InstitutionID(g.Members[0]), in.Figures.InstitutionID(g.Members[1])
+	jobs := []Job{{Focus: ok1, Output: "one.pdf"}, {Focus: "NOPE999", Output: "bad.pdf"}, {Focus: ok2, Output: "two.pdf", Title: "Retitled"}}
+	dir := t.TempDir()
+	var progress bytes.Buffer
+	outs := Run(context.Background(), in, jobs, Options{OutDir: dir, Workers: 2, Created: created, Version: "test", Progress: NewProgress(&progress)})
+	var sum bytes.Buffer
+	if failed := WriteSummary(&sum, outs); failed != 1 {
+		t.Fatalf("failed = %d, want 1\n%s", failed, sum.String())
+	}
+	for _, name := range []string{"one.pdf", "two.pdf"} {
+		b, err := os.ReadFile(filepath.Join(dir, name))
+		if err != nil || !bytes.HasPrefix(b, []byte("%PDF-")) {
+			t.Errorf("%s not built: %v", name, err)
+		}
+	}
+	if _, err := os.Stat(filepath.Join(dir, "bad.pdf")); err == nil {
+		t.Error("the failed pack left a file")
+	}
+	if !strings.Contains(sum.String(), "bad.pdf (NOPE999): ") || !strings.Contains(sum.String(), "2 built, 1 failed") {
+		t.Errorf("summary:\n%s", sum.String())
+	}
+	if !strings.Contains(progress.String(), "building 3 packs") || strings.Count(progress.String(), "\n") != 4 {
+		t.Errorf("plain progress lines expected off a terminal:\n%s", progress.String())
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != 2 {
+		t.Errorf("temporary files left behind: %v", ents)
+	}
+}
+
+// Two batch runs writing the same folder at once never leave a partial or
+// interleaved file: each pack is written to its own temporary file and
+// renamed, so every file present is one complete PDF.
+func TestConcurrentBatchesSameFolder(t *testing.T) {
+	in := loadDemo(t)
+	id := in.Figures.InstitutionID(in.Figures.Groups[0].Members[0])
+	jobs := []Job{{Focus: id, Output: "same.pdf"}}
+	dir := t.TempDir()
+	done := make(chan []Outcome, 2)
+	for i := 0; i < 2; i++ {
+		go func() { done <- Run(context.Background(), in, jobs, Options{OutDir: dir, Workers: 1, Created: created}) }()
+	}
+	for i := 0; i < 2; i++ {
+		for _, o := range <-done {
+			if o.Err != nil {
+				t.Fatal(o.Err)
+			}
+		}
+	}
+	b, _ := os.ReadFile(filepath.Join(dir, "same.pdf"))
+	if !bytes.HasPrefix(b, []byte("%PDF-")) || !bytes.HasSuffix(bytes.TrimSpace(b), []byte("%%EOF")) {
+		t.Error("the pack is not one complete PDF")
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != 1 {
+		t.Errorf("files left: %v", ents)
+	}
+}
+
+// BenchmarkBatch50 builds 50 demo-sized packs over two workers; the
+// target is under 30 seconds per 50 on the 2-core machine.
+//
+//	go test ./internal/batch -run '^$' -bench Batch50 -benchtime 1x
+func BenchmarkBatch50(b *testing.B) {
+	in := loadDemo(b)
+	var jobs []Job
+	for _, inst := range in.Figures.Groups[0].Members {
+		if len(jobs) == 50 {
+			break
+		}
+		id := in.Figures.InstitutionID(inst)
+		jobs = append(jobs, Job{Focus: id, Output: id + ".pdf"})
+	}
+	dir := b.TempDir()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		outs := Run(context.Background(), in, jobs, Options{OutDir: dir, Workers: 2, Created: created})
+		for _, o := range outs {
+			if o.Err != nil && !strings.Contains(o.Err.Error(), "no value of") {
+				b.Fatal(o.Err)
+			}
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Seconds())/float64(b.N), "s/50packs")
+}
+
+// BenchmarkSoak200 builds 200 packs one after another in one process (the
+// batch path) and reports the heap after the last against the heap after
+// the 20th; the bound is that the heap grows by less than 64 MiB.
+//
+//	go test ./internal/batch -run '^$' -bench Soak200 -benchtime 1x
+func BenchmarkSoak200(b *testing.B) {
+	in := loadDemo(b)
+	id := in.Figures.InstitutionID(in.Figures.Groups[0].Members[0])
+	dir := b.TempDir()
+	var early, late uint64
+	for i := 0; i < b.N; i++ {
+		for k := 0; k < 200; k++ {
+			outs := Run(context.Background(), in, []Job{{Focus: id, Output: "soak.pdf"}}, Options{OutDir: dir, Workers: 1, Created: created})
+			if outs[0].Err != nil {
+				b.Fatal(outs[0].Err)
+			}
+			if k == 19 {
+				early = heapAfterGC()
+			}
+		}
+		late = heapAfterGC()
+	}
+	growth := float64(int64(late)-int64(early)) / (1 << 20)
+	b.ReportMetric(growth, "MiB-heap-growth")
+	if growth > 64 {
+		b.Fatalf("heap grew by %.1f MiB over 180 builds; the bound is 64 MiB", growth)
+	}
+}

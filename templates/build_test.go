@@ -4,7 +4,10 @@ import (
 	"bytes"
 	"context"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"regexp"
+	"strings"
 	"testing"
 	"testing/fstest"
 	"time"
@@ -12,6 +15,17 @@ import (
 	"peerpack/internal/build"
 	"peerpack/internal/demo"
 )
+
+// pageObject matches a page object of the PDF (not the /Pages tree).
+var pageObject = regexp.MustCompile(`/Type\s*/Page[^s]`)
+
+// pageBounds are the page counts each template should build to with the
+// demo data, cover and closing notes included.
+var pageBounds = map[string][2]int{
+	"governing-body":      {8, 13},
+	"country-competition": {8, 18},
+	"client-report":       {10, 22},
+}
 
 // TestEveryTemplateBuilds runs the whole pipeline on what `peerpack new`
 // writes for each template: the template must build a PDF from the demo
@@ -50,6 +64,45 @@ func TestEveryTemplateBuilds(t *testing.T) {
 			if !bytes.Contains(figs, []byte(res.Inputs.Brief.Focus)) {
 				t.Errorf("the figures file never mentions the focus %s", res.Inputs.Brief.Focus)
 			}
+			checkText(t, name, opt.Output)
+			// A governing body gets 6-10 pages of content; the pack adds a
+			// cover, the contents and the closing notes on the figures.
+			pages := len(pageObject.FindAll(pdf, -1))
+			if lo, hi := pageBounds[name][0], pageBounds[name][1]; pages < lo || pages > hi {
+				t.Errorf("%d pages, want %d to %d", pages, lo, hi)
+			}
 		})
+	}
+}
+
+// wantText are headings each template's pack must show.
+var wantText = map[string][]string{
+	"governing-body":      {"Executive summary", "Position dashboard", "Distributions against the home sector", "Trends since 2020", "Reading these figures"},
+	"country-competition": {"Our standing inside each system", "System medians side by side", "Where each system is moving", "Who is compared in each system"},
+	"client-report":       {"Summary for the rectorate", "Methodology", "Data appendix", "Brightmere Higher Education Advisory"},
+}
+
+// checkText reads the pack's text with pdftotext (poppler-utils) and
+// checks that the sections are there and that no "edit:" note leaked
+// from the template's comments into the pack.
+func checkText(t *testing.T, name, pdfPath string) {
+	t.Helper()
+	tool, err := exec.LookPath("pdftotext")
+	if err != nil {
+		t.Log("pdftotext not installed; text checks skipped")
+		return
+	}
+	out, err := exec.Command(tool, "-enc", "UTF-8", pdfPath, "-").Output()
+	if err != nil {
+		t.Fatalf("pdftotext: %v", err)
+	}
+	text := strings.Join(strings.Fields(string(out)), " ")
+	for _, w := range wantText[name] {
+		if !strings.Contains(text, w) {
+			t.Errorf("the pack lacks %q", w)
+		}
+	}
+	if strings.Contains(text, EditMarker) || strings.Contains(text, "<!--") {
+		t.Errorf("a template comment leaked into the pack")
 	}
 }

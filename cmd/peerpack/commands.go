@@ -3,7 +3,7 @@ package main
 import (
 	"context"
 	"fmt"
-	"os"
+	iofs "io/fs"
 	"path/filepath"
 	"strings"
 
@@ -149,6 +149,14 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 		return reportError(e, err)
 	}
 	build.WriteCheckReport(e.stdout, in)
+	if raw, err := iofs.ReadFile(src.FS, src.Brief); err == nil {
+		if notes := templates.EditNotes(raw); len(notes) > 0 {
+			fmt.Fprintf(e.stdout, "\nStill marked for editing in %s:\n", src.Display)
+			for _, n := range notes {
+				fmt.Fprintf(e.stdout, "  line %d: %s\n", n.Line, n.Text)
+			}
+		}
+	}
 	return exitOK
 }
 
@@ -190,20 +198,16 @@ func runNew(ctx context.Context, e *env, args []string) int {
 		e.errorf("new needs --template NAME and a folder\nTemplates: %s\nExample: peerpack new --template governing-body board\n", strings.Join(templates.Names(), ", "))
 		return exitUsage
 	}
-	text, err := templates.Brief(*tmpl)
-	if err != nil {
+	if _, err := templates.Brief(*tmpl); err != nil {
 		e.errorf("%v\n", err)
 		return exitUsage
 	}
 	dir := pos[0]
-	if err := demo.Write(dir); err != nil {
+	if err := templates.Write(*tmpl, dir); err != nil {
 		return reportError(e, err)
 	}
 	target := filepath.Join(dir, demo.BriefName)
-	if err := os.WriteFile(target, text, 0o644); err != nil {
-		return reportError(e, err)
-	}
-	e.infof("wrote %s from the %s template with the demo data beside it\nNext: peerpack check %s, then peerpack build %s -o pack.pdf\n", target, *tmpl, target, target)
+	e.infof("wrote %s from the %s template with the demo data beside it\nNext: peerpack check %s shows what to edit; peerpack build %s -o pack.pdf builds it\n", target, *tmpl, target, target)
 	return exitOK
 }
 

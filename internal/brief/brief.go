@@ -127,7 +127,11 @@ type GroupSpec struct {
 	Each string `yaml:"each"`
 	// Over is "ranked" (default: the ranked population) or "all".
 	Over string `yaml:"over"`
-	Pos  Pos    `yaml:"-"`
+	// Phrase is how running text names the group ("the Kestrian sector",
+	// "our chosen peers"); empty means the commentary derives one from Name.
+	// For an each group it may hold {value}: "the {value} system".
+	Phrase string `yaml:"phrase"`
+	Pos    Pos    `yaml:"-"`
 }
 
 // NearestSpec picks the Count institutions nearest the focus by

@@ -33,6 +33,10 @@ func (l *loader) derive(d *Dataset, defs map[string]*Derived) {
 		exprs[k] = def.Expr
 		for _, ref := range def.Expr.Refs() {
 			if dict.Index(ref) >= 0 {
+				if reg.HasAttr(ref) {
+					l.probs.Addf(dict.File, def.Line, def.Col+def.Expr.RefAt(ref)-1, "derive of %q reads %q, which is both an indicator key and a column of %s; rename the register column so the expression is unambiguous", k, ref, reg.File)
+					usable = false
+				}
 				continue
 			}
 			if reg.HasAttr(ref) && !oneOf(ref, registerColumns) {

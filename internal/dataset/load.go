@@ -17,6 +17,8 @@ type loader struct {
 	rep   *Report
 	notes []stagedNote
 	st    *staging
+	// data holds the brief's data paths, tidied (see tidyPath).
+	data brief.DataPaths
 }
 
 type stagedNote struct {
@@ -32,9 +34,17 @@ type stagedNote struct {
 // even when there are problems. The Dataset is nil when the inputs were too
 // broken to build one; when the error is not nil it must not be used for a
 // pack.
-func Load(fsys fs.FS, b *brief.Brief) (*Dataset, *Report, error) {
+func Load(fsys fs.FS, b *brief.Brief) (d *Dataset, rep *Report, err error) {
 	l := &loader{fsys: fsys, b: b, rep: &Report{Brief: b.File}}
-	d := l.load()
+	defer func() {
+		// A fault of ours must reach the user as a message, not a crash.
+		if r := recover(); r != nil {
+			l.probs.Add(diag.At(b.File, 0, 0, "internal error while loading the data (please report it with the brief and its files): %v", r))
+			d, rep, err = nil, l.rep, l.probs.Err()
+			l.rep.Problems = l.probs.Len()
+		}
+	}()
+	d = l.load()
 	l.rep.Problems = l.probs.Len()
 	return d, l.rep, l.probs.Err()
 }
@@ -42,6 +52,15 @@ func Load(fsys fs.FS, b *brief.Brief) (*Dataset, *Report, error) {
 func (l *loader) load() *Dataset {
 	b := l.b
 	ok := true
+	data := brief.DataPaths{
+		Register:   tidyPath(b.Data.Register),
+		Dictionary: tidyPath(b.Data.Dictionary),
+		PPP:        tidyPath(b.Data.PPP),
+	}
+	for _, v := range b.Data.Values {
+		data.Values = append(data.Values, tidyPath(v))
+	}
+	l.data = data
 	check := func(key, p string) bool {
 		if err := checkPath(b, key, p); err != nil {
 			l.probs.Add(err)
@@ -50,10 +69,10 @@ func (l *loader) load() *Dataset {
 		}
 		return true
 	}
-	check("data.register", b.Data.Register)
-	check("data.dictionary", b.Data.Dictionary)
+	check("data.register", data.Register)
+	check("data.dictionary", data.Dictionary)
 	listed := map[string]bool{}
-	for _, v := range b.Data.Values {
+	for _, v := range data.Values {
 		if check("data.values", v) && listed[v] {
 			p := b.PosOf("data.values")
 			l.probs.Addf(b.File, p.Line, p.Column, "data.values lists %q twice; every value in it would be a duplicate, so list each file once", v)
@@ -61,8 +80,8 @@ func (l *loader) load() *Dataset {
 		}
 		listed[v] = true
 	}
-	if b.Data.PPP != "" {
-		check("data.ppp", b.Data.PPP)
+	if data.PPP != "" {
+		check("data.ppp", data.PPP)
 	}
 	if !ok {
 		return nil
@@ -73,19 +92,19 @@ func (l *loader) load() *Dataset {
 			ok = false
 		}
 	}
-	exists("data.register", b.Data.Register)
-	exists("data.dictionary", b.Data.Dictionary)
-	for _, v := range b.Data.Values {
+	exists("data.register", data.Register)
+	exists("data.dictionary", data.Dictionary)
+	for _, v := range data.Values {
 		exists("data.values", v)
 	}
-	if b.Data.PPP != "" {
-		exists("data.ppp", b.Data.PPP)
+	if data.PPP != "" {
+		exists("data.ppp", data.PPP)
 	}
 	if !ok {
 		return nil
 	}
-	dict, derived := l.dictionary(b.Data.Dictionary)
-	reg := l.register(b.Data.Register)
+	dict, derived := l.dictionary(data.Dictionary)
+	reg := l.register(data.Register)
 	if dict == nil || reg == nil {
 		return nil
 	}
@@ -96,7 +115,7 @@ func (l *loader) load() *Dataset {
 	l.st = st
 	vr := &valuesReader{l: l, reg: reg, dict: dict, st: st,
 		unknownI: map[string]*unknownName{}, unknownK: map[string]*unknownName{}, derivedK: map[string]*unknownName{}}
-	for _, name := range b.Data.Values {
+	for _, name := range data.Values {
 		vr.read(name)
 	}
 	vr.reportUnknown()

@@ -73,3 +73,22 @@ func checkExists(fsys fs.FS, b *brief.Brief, key, p string) error {
 	}
 	return diag.At(b.File, pos.Line, pos.Column, "%s %q %s", key, p, msg)
 }
+
+// tidyPath removes what is unambiguous noise in a relative path ("./",
+// doubled slashes, a trailing slash) so that "./values.csv" is read as
+// values.csv; paths that would leave the folder are left as written for
+// checkPath to refuse.
+func tidyPath(p string) string {
+	file, sheet, hasSheet := strings.Cut(p, "#")
+	if file == "" || strings.HasPrefix(file, "/") || strings.Contains(file, "://") || strings.Contains(file, "\\") {
+		return p
+	}
+	clean := path.Clean(file)
+	if clean == "." || clean == ".." || strings.HasPrefix(clean, "../") {
+		return p
+	}
+	if hasSheet {
+		clean += "#" + sheet
+	}
+	return clean
+}

@@ -95,8 +95,8 @@ func (l *loader) convertPPP(d *Dataset) {
 			cur = append(cur, i)
 		}
 	}
-	if l.b.Data.PPP != "" {
-		t, err := tabular.ReadTable(l.fsys, l.b.Data.PPP)
+	if l.data.PPP != "" {
+		t, err := tabular.ReadTable(l.fsys, l.data.PPP)
 		l.probs.Add(err)
 		if t != nil {
 			p, err := ReadPPP(t)
@@ -110,7 +110,7 @@ func (l *loader) convertPPP(d *Dataset) {
 	if len(cur) == 0 {
 		return
 	}
-	if l.b.Data.PPP == "" {
+	if l.data.PPP == "" {
 		for _, ind := range cur {
 			if n := d.countValues(ind); n > 0 {
 				in := d.Dictionary.Indicators[ind]

@@ -1,6 +1,7 @@
 package dataset
 
 import (
+	"strconv"
 	"strings"
 
 	"peerpack/internal/diag"
@@ -79,13 +80,13 @@ func ReadRegister(t *tabular.Table) (*Register, error) {
 		bad := false
 		for _, k := range []string{"id", "name", "country"} {
 			if c := get(k); strings.TrimSpace(c.Text) == "" {
-				probs.Addf(t.File, c.Line, c.Col, "the %s of this institution is empty; every institution needs an id, a name and a country", k)
+				probs.Addf(t.File, c.Line, c.Col, "%sthe %s of this institution is empty; every institution needs an id, a name and a country", cellName(t.File, c), k)
 				bad = true
 			}
 		}
 		if in.ID != "" {
 			if prev, dup := first[in.ID]; dup {
-				probs.Addf(t.File, id.Line, id.Col, "institution id %q is used twice: here and at %s:%d; ids must be unique", in.ID, t.File, prev)
+				probs.Addf(t.File, id.Line, id.Col, "%sinstitution id %q is used twice: here and at %s:%d; ids must be unique", cellName(t.File, id), in.ID, t.File, prev)
 				bad = true
 			} else {
 				first[in.ID] = id.Line
@@ -126,4 +127,17 @@ func (l *loader) register(name string) *Register {
 		l.rep.Files = append(l.rep.Files, FileSummary{Role: "register", Path: name, Rows: len(t.Rows)})
 	}
 	return r
+}
+
+// cellName returns "cell C12: " for a cell of a workbook, so that a message
+// names the cell as the spreadsheet shows it, and "" for a CSV file.
+func cellName(file string, c tabular.Cell) string {
+	name, _, _ := strings.Cut(strings.ToLower(file), "#")
+	if !strings.HasSuffix(name, ".xlsx") && !strings.HasSuffix(name, ".xlsm") {
+		return ""
+	}
+	if c.Line < 1 || c.Col < 1 {
+		return ""
+	}
+	return "cell " + tabular.ColumnName(c.Col) + strconv.Itoa(c.Line) + ": "
 }

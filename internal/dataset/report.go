@@ -257,7 +257,7 @@ func (r *Report) Write(w io.Writer) {
 	if r.Problems == 0 {
 		p("\nNo problems found.\n")
 	} else {
-		p("\n%s problems found (listed above).\n", thousands(r.Problems))
+		p("\n%s %s found (listed above).\n", thousands(r.Problems), plural(r.Problems, "problem", "problems"))
 	}
 }
 

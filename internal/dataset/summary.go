@@ -3,153 +3,192 @@ package dataset
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"peerpack/internal/stats"
 )
 
-// summarise fills the report's coverage table and suspicious values.
+// summarise fills the report's coverage table and suspicious values. The
+// indicators are independent, so they are summarised in parallel, one
+// goroutine per processor; the results are merged in dictionary order.
 func (l *loader) summarise(d *Dataset) {
 	r := l.rep
 	r.Years = append([]int(nil), d.Years...)
 	if r.SuspiciousCount == nil {
 		r.SuspiciousCount = map[string]int{}
 	}
-	n := d.Register.Len()
-	buf := make([]float64, 0, n)
-	for ind, in := range d.Dictionary.Indicators {
-		ic := IndicatorCoverage{Key: in.Key, Label: in.Label, Unit: in.Unit, Derived: in.Derive != "", Currency: in.Currency && in.Derive == ""}
-		// Findings of this indicator, kept with a score so that the most
-		// extreme MaxSuspicious of each kind are listed.
-		var found []scored
-		note := func(s Suspicion, score float64) {
-			r.SuspiciousCount[s.Kind]++
-			found = append(found, scored{s, score})
+	results := make([]indicatorSummary, len(d.Dictionary.Indicators))
+	next := make(chan int)
+	var wg sync.WaitGroup
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for ind := range next {
+				results[ind] = l.summariseIndicator(d, ind)
+			}
+		}()
+	}
+	for ind := range d.Dictionary.Indicators {
+		next <- ind
+	}
+	close(next)
+	wg.Wait()
+	for _, res := range results {
+		r.Indicators = append(r.Indicators, res.coverage)
+		r.Suspicious = append(r.Suspicious, res.suspicious...)
+		for k, n := range res.counts {
+			r.SuspiciousCount[k] += n
 		}
-		far := map[int]*farOut{}
-		var farOrder []int
-		withValue := make([]int, n) // years with a value, per institution
-		for y, year := range d.Years {
-			col := d.cols[ind*len(d.Years)+y]
-			for inst, v := range col {
-				if !math.IsNaN(v) {
-					withValue[inst]++
-				}
-			}
-			buf = buf[:0]
-			for _, v := range col {
-				if !math.IsNaN(v) {
-					buf = append(buf, v)
-				}
-			}
-			ic.Values = append(ic.Values, len(buf))
-			cov := 0.0
-			if n > 0 {
-				cov = float64(len(buf)) / float64(n)
-			}
-			ic.Coverage = append(ic.Coverage, cov)
-			if len(buf) < 4 {
-				continue
-			}
-			sort.Float64s(buf)
-			// Hyndman and Fan (1996) type 7 quartiles, the stats package's
-			// default definition.
-			q1 := stats.Quantile(buf, 0.25, stats.Type7)
-			med := stats.Quantile(buf, 0.5, stats.Type7)
-			q3 := stats.Quantile(buf, 0.75, stats.Type7)
-			iqr := q3 - q1
-			for inst, v := range col {
-				if math.IsNaN(v) {
-					continue
-				}
-				id := d.Register.Institutions[inst].ID
-				if iqr > 0 && math.Abs(v-med) > FarOutIQRs*iqr {
-					a := far[inst]
-					if a == nil {
-						a = &farOut{first: year, firstValue: v}
-						far[inst] = a
-						farOrder = append(farOrder, inst)
-						if l.st != nil {
-							if f, line, col := l.st.placeOf(year, ind, inst); f != "" {
-								a.where = fmt.Sprintf("%s:%d:%d", f, line, col)
-							}
-						}
-					}
-					a.years = append(a.years, year)
-					a.lo, a.hi = min(a.lo, v), max(a.hi, v)
-					if a.years[0] == year {
-						a.lo, a.hi = v, v
-					}
-					iqrs := math.Abs(v-med) / iqr
-					if iqrs > a.score {
-						a.score, a.worstYear, a.worstValue, a.worstMedian = iqrs, year, v, med
-					}
-				}
-				if in.Derive != "" {
-					if msg := unitViolation(&d.Dictionary.Indicators[ind], v); msg != "" {
-						note(Suspicion{Kind: SuspectOutOfRange, Indicator: in.Key, Institution: id, Year: year, Value: v,
-							Msg: fmt.Sprintf("derived %s %d of %s: %s; check the inputs of %s", in.Key, year, id, msg, in.Derive)}, math.Abs(v))
-					}
-				}
-			}
-		}
-		// A year with under half the usual (median) coverage.
-		if len(ic.Values) >= 3 {
-			counts := append([]int(nil), ic.Values...)
-			sort.Ints(counts)
-			usual := float64(counts[len(counts)/2])
-			if len(counts)%2 == 0 {
-				usual = float64(counts[len(counts)/2-1]+counts[len(counts)/2]) / 2
-			}
-			for y, c := range ic.Values {
-				if usual > 0 && float64(c) < LowCoverageFraction*usual {
-					note(Suspicion{Kind: SuspectLowCoverage, Indicator: in.Key, Year: d.Years[y], Value: float64(c),
-						Msg: fmt.Sprintf("%s has %d values in %d against a usual %.0f; is a file or a year missing?", in.Key, c, d.Years[y], usual)}, usual-float64(c))
-				}
-			}
-		}
-		// One finding per institution: a value far out in every year is
-		// more likely a large institution than a slip, and says so.
-		for _, inst := range farOrder {
-			a := far[inst]
-			id := d.Register.Institutions[inst].ID
-			worst := fmt.Sprintf("at most %.0f: %s in %d against %s", a.score, fmtVal(a.worstValue, in.Decimals), a.worstYear, fmtVal(a.worstMedian, in.Decimals))
-			score := a.score
-			var msg string
-			switch {
-			case len(a.years) == 1:
-				msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in %d (%s); check the unit and the digits", in.Key, id, FarOutIQRs, a.worstYear, worst)
-			case len(a.years) == withValue[inst]:
-				// Far out in every year: more likely a large institution
-				// than a slip, so listed after the isolated cases.
-				score /= 1000
-				msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in all %d years (%s); consistent, so more likely a large institution than a slip", in.Key, id, FarOutIQRs, len(a.years), worst)
-			default:
-				msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in %d of its %d years, %s (%s); check the unit and the digits", in.Key, id, FarOutIQRs, len(a.years), withValue[inst], yearList(a.years), worst)
-			}
-			note(Suspicion{Kind: SuspectFarOut, Indicator: in.Key, Institution: id, Year: a.worstYear, Value: a.worstValue, Where: a.where, Msg: msg}, score)
-		}
-		if in.Derive == "" {
-			l.jumps(d, ind, note)
-		}
-		sort.SliceStable(found, func(i, j int) bool { return found[i].score > found[j].score })
-		listed := map[string]int{}
-		for _, f := range found {
-			if listed[f.Kind] < MaxSuspicious {
-				listed[f.Kind]++
-				r.Suspicious = append(r.Suspicious, f.Suspicion)
-			}
-		}
-		r.Indicators = append(r.Indicators, ic)
 	}
 }
 
+// indicatorSummary is the part of the report about one indicator.
+type indicatorSummary struct {
+	coverage   IndicatorCoverage
+	suspicious []Suspicion
+	counts     map[string]int
+}
+
+func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
+	in := d.Dictionary.Indicators[ind]
+	n := d.Register.Len()
+	buf := make([]float64, 0, n)
+	counts := map[string]int{}
+	ic := IndicatorCoverage{Key: in.Key, Label: in.Label, Unit: in.Unit, Derived: in.Derive != "", Currency: in.Currency && in.Derive == ""}
+	// Findings of this indicator, kept with a score so that the most
+	// extreme MaxSuspicious of each kind are listed.
+	var found []scored
+	note := func(s Suspicion, score float64) {
+		counts[s.Kind]++
+		found = append(found, scored{Suspicion: s, score: score})
+	}
+	// lazy records a finding whose message is built only if it is
+	// listed: random or skewed data can yield many thousands.
+	lazy := func(kind string, score float64, build func() Suspicion) {
+		counts[kind]++
+		found = append(found, scored{Suspicion: Suspicion{Kind: kind}, score: score, build: build})
+	}
+	far := map[int]*farOut{}
+	var farOrder []int
+	withValue := make([]int, n) // years with a value, per institution
+	for y, year := range d.Years {
+		col := d.cols[ind*len(d.Years)+y]
+		for inst, v := range col {
+			if !math.IsNaN(v) {
+				withValue[inst]++
+			}
+		}
+		buf = buf[:0]
+		for _, v := range col {
+			if !math.IsNaN(v) {
+				buf = append(buf, v)
+			}
+		}
+		ic.Values = append(ic.Values, len(buf))
+		cov := 0.0
+		if n > 0 {
+			cov = float64(len(buf)) / float64(n)
+		}
+		ic.Coverage = append(ic.Coverage, cov)
+		if len(buf) < 4 {
+			continue
+		}
+		sort.Float64s(buf)
+		// Hyndman and Fan (1996) type 7 quartiles, the stats package's
+		// default definition.
+		q1 := stats.Quantile(buf, 0.25, stats.Type7)
+		med := stats.Quantile(buf, 0.5, stats.Type7)
+		q3 := stats.Quantile(buf, 0.75, stats.Type7)
+		iqr := q3 - q1
+		for inst, v := range col {
+			if math.IsNaN(v) {
+				continue
+			}
+			id := d.Register.Institutions[inst].ID
+			if iqr > 0 && math.Abs(v-med) > FarOutIQRs*iqr {
+				a := far[inst]
+				if a == nil {
+					a = &farOut{}
+					far[inst] = a
+					farOrder = append(farOrder, inst)
+					if l.st != nil {
+						if f, line, col := l.st.placeOf(year, ind, inst); f != "" {
+							a.where = fmt.Sprintf("%s:%d:%d", f, line, col)
+						}
+					}
+				}
+				a.years = append(a.years, year)
+				iqrs := math.Abs(v-med) / iqr
+				if iqrs > a.score {
+					a.score, a.worstYear, a.worstValue, a.worstMedian = iqrs, year, v, med
+				}
+			}
+			if in.Derive != "" {
+				if msg := unitViolation(&d.Dictionary.Indicators[ind], v); msg != "" {
+					note(Suspicion{Kind: SuspectOutOfRange, Indicator: in.Key, Institution: id, Year: year, Value: v,
+						Msg: fmt.Sprintf("derived %s %d of %s: %s; check the inputs of %s", in.Key, year, id, msg, in.Derive)}, math.Abs(v))
+				}
+			}
+		}
+	}
+	// A year with under half the usual (median) coverage.
+	if len(ic.Values) >= 3 {
+		counts := append([]int(nil), ic.Values...)
+		sort.Ints(counts)
+		usual := float64(counts[len(counts)/2])
+		if len(counts)%2 == 0 {
+			usual = float64(counts[len(counts)/2-1]+counts[len(counts)/2]) / 2
+		}
+		for y, c := range ic.Values {
+			if usual > 0 && float64(c) < LowCoverageFraction*usual {
+				note(Suspicion{Kind: SuspectLowCoverage, Indicator: in.Key, Year: d.Years[y], Value: float64(c),
+					Msg: fmt.Sprintf("%s has %d values in %d against a usual %.0f; is a file or a year missing?", in.Key, c, d.Years[y], usual)}, usual-float64(c))
+			}
+		}
+	}
+	// One finding per institution: a value far out in every year is
+	// more likely a large institution than a slip, and says so.
+	for _, inst := range farOrder {
+		a := far[inst]
+		id := d.Register.Institutions[inst].ID
+		worst := fmt.Sprintf("at most %.0f: %s in %d against %s", a.score, fmtVal(a.worstValue, in.Decimals), a.worstYear, fmtVal(a.worstMedian, in.Decimals))
+		score := a.score
+		var msg string
+		switch {
+		case len(a.years) == 1:
+			msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in %d (%s); check the unit and the digits", in.Key, id, FarOutIQRs, a.worstYear, worst)
+		case len(a.years) == withValue[inst]:
+			// Far out in every year: more likely a large institution
+			// than a slip, so listed after the isolated cases.
+			score /= 1000
+			msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in all %d years (%s); consistent, so more likely a large institution than a slip", in.Key, id, FarOutIQRs, len(a.years), worst)
+		default:
+			msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in %d of its %d years, %s (%s); check the unit and the digits", in.Key, id, FarOutIQRs, len(a.years), withValue[inst], yearList(a.years), worst)
+		}
+		note(Suspicion{Kind: SuspectFarOut, Indicator: in.Key, Institution: id, Year: a.worstYear, Value: a.worstValue, Where: a.where, Msg: msg}, score)
+	}
+	if in.Derive == "" {
+		l.jumps(d, ind, lazy)
+	}
+	var listed []Suspicion
+	for _, f := range topScored(found, MaxSuspicious) {
+		if f.build != nil {
+			f.Suspicion = f.build()
+		}
+		listed = append(listed, f.Suspicion)
+	}
+	return indicatorSummary{coverage: ic, suspicious: listed, counts: counts}
+}
+
+// farOut gathers the years in which one institution is far from the
+// median of one indicator.
 type farOut struct {
 	years                   []int
-	first                   int
-	firstValue, lo, hi      float64
 	score                   float64
 	worstYear               int
 	worstValue, worstMedian float64
@@ -164,9 +203,43 @@ func yearList(ys []int) string {
 	return strings.Join(parts, ", ")
 }
 
+// topScored returns, for each kind in order of first appearance, the k
+// findings with the highest scores, highest first (ties in input order).
+// It keeps k per kind while scanning, so a long list costs no sort.
+func topScored(found []scored, k int) []scored {
+	var kinds []string
+	top := map[string][]scored{}
+	for _, f := range found {
+		t, seen := top[f.Kind]
+		if !seen {
+			kinds = append(kinds, f.Kind)
+		}
+		if len(t) == k && f.score <= t[k-1].score {
+			continue
+		}
+		i := len(t)
+		for i > 0 && t[i-1].score < f.score {
+			i--
+		}
+		t = append(t, scored{})
+		copy(t[i+1:], t[i:])
+		t[i] = f
+		if len(t) > k {
+			t = t[:k]
+		}
+		top[f.Kind] = t
+	}
+	var out []scored
+	for _, kind := range kinds {
+		out = append(out, top[kind]...)
+	}
+	return out
+}
+
 type scored struct {
 	Suspicion
 	score float64
+	build func() Suspicion
 }
 
 // jumps flags a value more than JumpFactor times, or less than
@@ -175,33 +248,32 @@ type scored struct {
 // mistyped digit, which the cross-sectional rule misses in skewed
 // indicators where large institutions are legitimately far from the median
 // (common practice, no source).
-func (l *loader) jumps(d *Dataset, ind int, note func(Suspicion, float64)) {
+func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Suspicion)) {
 	if len(d.Years) < 3 {
 		return
 	}
 	in := d.Dictionary.Indicators[ind]
 	series := make([]float64, 0, len(d.Years))
-	others := make([]float64, 0, len(d.Years))
+	sorted := make([]float64, 0, len(d.Years))
 	for inst := range d.Register.Institutions {
 		series = series[:0]
+		sorted = sorted[:0]
 		for y := range d.Years {
-			series = append(series, d.cols[ind*len(d.Years)+y][inst])
+			v := d.cols[ind*len(d.Years)+y][inst]
+			series = append(series, v)
+			if !math.IsNaN(v) && v > 0 {
+				sorted = append(sorted, v)
+			}
 		}
+		if len(sorted) < 3 {
+			continue
+		}
+		sort.Float64s(sorted)
 		for y, v := range series {
 			if math.IsNaN(v) || v <= 0 {
 				continue
 			}
-			others = others[:0]
-			for k, w := range series {
-				if k != y && !math.IsNaN(w) && w > 0 {
-					others = append(others, w)
-				}
-			}
-			if len(others) < 2 {
-				continue
-			}
-			sort.Float64s(others)
-			med := stats.Quantile(others, 0.5, stats.Type7)
+			med := medianWithout(sorted, v)
 			ratio := v / med
 			if ratio < 1 {
 				ratio = 1 / ratio
@@ -209,18 +281,41 @@ func (l *loader) jumps(d *Dataset, ind int, note func(Suspicion, float64)) {
 			if ratio <= JumpFactor {
 				continue
 			}
-			year := d.Years[y]
-			id := d.Register.Institutions[inst].ID
-			s := Suspicion{Kind: SuspectJump, Indicator: in.Key, Institution: id, Year: year, Value: v,
-				Msg: fmt.Sprintf("%s %d of %s is %s, %.0f times %s its median %s in the other years; check the unit and the digits", in.Key, year, id, fmtVal(v, in.Decimals), ratio, map[bool]string{true: "above", false: "below"}[v > med], fmtVal(med, in.Decimals))}
-			if f, line, col := l.st.placeOf(year, ind, inst); f != "" {
-				s.Where = fmt.Sprintf("%s:%d:%d", f, line, col)
-			}
-			note(s, ratio)
+			year, inst, v := d.Years[y], inst, v
+			note(SuspectJump, ratio, func() Suspicion {
+				id := d.Register.Institutions[inst].ID
+				dir := "below"
+				if v > med {
+					dir = "above"
+				}
+				s := Suspicion{Kind: SuspectJump, Indicator: in.Key, Institution: id, Year: year, Value: v,
+					Msg: fmt.Sprintf("%s %d of %s is %s, %.0f times %s its median %s in the other years; check the unit and the digits", in.Key, year, id, fmtVal(v, in.Decimals), ratio, dir, fmtVal(med, in.Decimals))}
+				if f, line, col := l.st.placeOf(year, ind, inst); f != "" {
+					s.Where = fmt.Sprintf("%s:%d:%d", f, line, col)
+				}
+				return s
+			})
 		}
 	}
 }
 
 func fmtVal(v float64, decimals int) string {
 	return strconv.FormatFloat(v, 'f', decimals, 64)
+}
+
+// medianWithout is the median of sorted (ascending, at least two values)
+// with one occurrence of v left out: the type 7 median of the others.
+func medianWithout(sorted []float64, v float64) float64 {
+	k := sort.SearchFloat64s(sorted, v)
+	m := len(sorted) - 1
+	at := func(i int) float64 {
+		if i >= k {
+			i++
+		}
+		return sorted[i]
+	}
+	if m%2 == 1 {
+		return at(m / 2)
+	}
+	return (at(m/2-1) + at(m/2)) / 2
 }

@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"sort"
 	"strconv"
 	"strings"
 
@@ -18,92 +17,6 @@ const (
 	MinYear = 1900
 	MaxYear = 2100
 )
-
-// staging gathers values from every values file before the set of years is
-// known. Columns are allocated per (year, indicator) on first use; where
-// records the file and line each value came from, to name both places of a
-// duplicate and the place of a value a later check rejects.
-type staging struct {
-	nInst, nInd int
-	slot        map[int]int // calendar year -> slot
-	years       []int       // by slot
-	vals        [][][]float64
-	where       [][][]uint64 // see whereCode; 0 = no value
-	files       []string
-	// The last column used, since rows usually come in runs.
-	lastYear, lastInd int
-	lastVals          []float64
-	lastWhere         []uint64
-}
-
-func newStaging(nInst, nInd int) *staging {
-	return &staging{nInst: nInst, nInd: nInd, slot: map[int]int{}}
-}
-
-func (s *staging) column(year, ind int) ([]float64, []uint64) {
-	if year == s.lastYear && ind == s.lastInd && s.lastVals != nil {
-		return s.lastVals, s.lastWhere
-	}
-	sl, ok := s.slot[year]
-	if !ok {
-		sl = len(s.years)
-		s.slot[year] = sl
-		s.years = append(s.years, year)
-		s.vals = append(s.vals, make([][]float64, s.nInd))
-		s.where = append(s.where, make([][]uint64, s.nInd))
-	}
-	if s.vals[sl][ind] == nil {
-		c := make([]float64, s.nInst)
-		for i := range c {
-			c[i] = math.NaN()
-		}
-		s.vals[sl][ind] = c
-		s.where[sl][ind] = make([]uint64, s.nInst)
-	}
-	s.lastYear, s.lastInd = year, ind
-	s.lastVals, s.lastWhere = s.vals[sl][ind], s.where[sl][ind]
-	return s.lastVals, s.lastWhere
-}
-
-// whereCode packs where a value was written: file index + 1 in the top
-// 16 bits, the column (capped) in the next 16 and the line in the low 32.
-func whereCode(file int, c tabular.Cell) uint64 {
-	col := min(max(c.Col, 0), 0xFFFF)
-	return uint64(file+1)<<48 | uint64(col)<<32 | uint64(uint32(c.Line))
-}
-
-// unpack splits a where code into file, line and column.
-func (s *staging) unpack(code uint64) (string, int, int) {
-	if code == 0 {
-		return "", 0, 0
-	}
-	return s.files[int(code>>48)-1], int(uint32(code)), int(code >> 32 & 0xFFFF)
-}
-
-// place renders a where code as file:line:column.
-func (s *staging) place(code uint64) string {
-	f, l, c := s.unpack(code)
-	if f == "" {
-		return ""
-	}
-	return fmt.Sprintf("%s:%d:%d", f, l, c)
-}
-
-// placeOf returns where the value of (year, ind, inst) came from.
-func (s *staging) placeOf(year, ind, inst int) (file string, line, col int) {
-	sl, ok := s.slot[year]
-	if !ok || s.where[sl][ind] == nil {
-		return "", 0, 0
-	}
-	return s.unpack(s.where[sl][ind][inst])
-}
-
-// sortedYears returns the staged years ascending.
-func (s *staging) sortedYears() []int {
-	ys := append([]int(nil), s.years...)
-	sort.Ints(ys)
-	return ys
-}
 
 // unknownName aggregates rows that name an institution or indicator that
 // does not exist, so a wrong id repeated over 10,000 rows is one message.
@@ -135,7 +48,7 @@ func (v *valuesReader) addf(file string, c tabular.Cell, format string, args ...
 		v.l.probs.Add(tooMany)
 		return
 	}
-	v.l.probs.Addf(file, c.Line, c.Col, format, args...)
+	v.l.probs.Addf(file, c.Line, c.Col, "%s%s", cellName(file, c), fmt.Sprintf(format, args...))
 }
 
 // maxProblems matches diag.List's default cap.
@@ -176,11 +89,11 @@ func (v *valuesReader) read(name string) {
 		rows = v.readLong(r, fileIdx, col, ic, yc)
 		v.l.rep.Files = append(v.l.rep.Files, FileSummary{Role: "values (long)", Path: r.File(), Rows: rows})
 	case hasInd != hasVal:
-		missing := "value"
+		have, missing := "indicator", "value"
 		if hasVal {
-			missing = "indicator"
+			have, missing = "value", "indicator"
 		}
-		v.l.probs.Addf(r.File(), hdr[0].Line, 1, "the header has %q but no %q column; a long values file has institution,year,indicator,value[,note]", map[bool]string{true: "value", false: "indicator"}[hasVal], missing)
+		v.l.probs.Addf(r.File(), hdr[0].Line, 1, "the header has %q but no %q column; a long values file has institution,year,indicator,value[,note]", have, missing)
 	default:
 		rows = v.readWide(r, fileIdx, ic, yc)
 		v.l.rep.Files = append(v.l.rep.Files, FileSummary{Role: "values (wide)", Path: r.File(), Rows: rows})
@@ -254,7 +167,12 @@ func (v *valuesReader) year(file string, c tabular.Cell) int {
 		return 0
 	}
 	if y < MinYear || y > MaxYear {
-		v.addf(file, c, "year %d is out of range; years must be from %d to %d", y, MinYear, MaxYear)
+		hint := ""
+		if y > 10000 && y < 100000 {
+			// Spreadsheets store dates as days since 1899-12-30.
+			hint = "; it looks like a spreadsheet date: format the year column as a plain number, e.g. 2024"
+		}
+		v.addf(file, c, "year %d is out of range; years must be from %d to %d%s", y, MinYear, MaxYear, hint)
 		return 0
 	}
 	return y
@@ -372,7 +290,11 @@ func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string
 		if inst < 0 || year == 0 || !ok {
 			continue
 		}
-		v.store(file, fileIdx, row[vc], inst, ind, year, x)
+		// An empty value claims no place, as in a wide file, so another
+		// file may supply it; its note is still kept.
+		if !math.IsNaN(x) {
+			v.store(file, fileIdx, row[vc], inst, ind, year, x)
+		}
 		if hasNote {
 			if n := strings.TrimSpace(row[nc].Text); n != "" {
 				v.l.notes = append(v.l.notes, stagedNote{CellRef{Indicator: ind, Year: year, Institution: inst}, strings.Clone(n)})

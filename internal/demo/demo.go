@@ -133,7 +133,11 @@ func WriteFiles(dir string, files map[string][]byte) error {
 		}
 	}
 	if len(clash) > 0 {
-		return fmt.Errorf("%w: %s already exist with different content; nothing was written. Choose an empty folder, or move these files away first", ErrWouldOverwrite, strings.Join(clash, ", "))
+		verb, these := "exists", "this file"
+		if len(clash) > 1 {
+			verb, these = "exist", "these files"
+		}
+		return fmt.Errorf("%w: %s already %s with different content, so nothing was written; choose an empty folder, or move %s away first", ErrWouldOverwrite, strings.Join(clash, ", "), verb, these)
 	}
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return fmt.Errorf("%s: cannot create the folder: %v", dir, unwrapPath(err))

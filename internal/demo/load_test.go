@@ -26,8 +26,27 @@ func TestDatasetLoadsTheScenario(t *testing.T) {
 	if len(d.Years) != LastYear-FirstYear+1 {
 		t.Errorf("loaded years %v", d.Years)
 	}
-	for _, s := range rep.Suspicious {
-		t.Logf("suspicious: %+v", s)
+	// Both money indicators are converted at PPP before derivation.
+	if d.PPP == nil || len(d.PPP.Converted) != 2 {
+		t.Errorf("PPP conversion: %+v, want research_income and industry_income converted", d.PPP)
+	}
+	// The population rule ranks some institutions and excludes others.
+	if d.Population == nil || len(d.Population.Excluded) == 0 || len(d.Population.Excluded) == d.Register.Len() {
+		t.Error("the population rule should exclude some institutions and keep others")
+	}
+	// Every derived indicator has values (a derive that silently yields
+	// nothing would make the demo's charts empty).
+	for _, ind := range d.Dictionary.Indicators {
+		col := d.Column(d.Dictionary.Index(ind.Key), LastYear)
+		n := 0
+		for _, v := range col {
+			if v == v { // not NaN
+				n++
+			}
+		}
+		if n < d.Register.Len()/2 {
+			t.Errorf("%s has values for only %d institutions in %d", ind.Key, n, LastYear)
+		}
 	}
 	var out strings.Builder
 	rep.Write(&out)

@@ -63,6 +63,12 @@ type cell struct {
 // each institution's staff_fte register attribute from its last year.
 func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 	r := stream(seed, 2)
+	// Each institution's own departures from what its latent factors
+	// predict, drawn from a stream of their own so that the register and
+	// the yearly noise stay as they are. Without them the international
+	// shares would correlate almost perfectly with one another, which no
+	// real dataset shows (correlations of 0.4-0.7 are typical).
+	own := stream(seed, 6)
 	ys := years()
 	out := &values{notes: map[cell]string{}, na: map[cell]bool{}}
 	teachRaw := make([][]float64, len(insts))
@@ -78,6 +84,10 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 			m[k] = col
 		}
 		teachRaw[i] = make([]float64, len(ys))
+		staffOwn, studOwn, coOwn, impactOwn := 0.45*own.normal(), 0.55*own.normal(), 0.35*own.normal(), 0.15*own.normal()
+		if in.ID == FocusID {
+			staffOwn, studOwn, coOwn, impactOwn = 0, 0, 0, 0
+		}
 		var acad float64
 		for t, year := range ys {
 			ft := float64(t)
@@ -86,15 +96,15 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 			I := in.Intl + in.IntlTrend*ft + 0.05*r.normal()
 			students := acad * c.StudentRatio * math.Exp(in.StudentShift+0.03*r.normal())
 			papers := math.Round(acad * math.Exp(-0.5+0.68*R+0.08*r.normal()))
-			intlP := math.Round(papers * logistic(-0.35+0.55*I+0.3*R+0.06*r.normal()))
-			fwci := math.Exp(-0.2 + 0.22*R + 0.12*I + in.ImpactShift + 0.9/math.Sqrt(papers+5)*r.normal())
+			intlP := math.Round(papers * logistic(-0.35+0.55*I+0.3*R+coOwn+0.06*r.normal()))
+			fwci := math.Exp(-0.2 + 0.22*R + 0.12*I + in.ImpactShift + impactOwn + 0.9/math.Sqrt(papers+5)*r.normal())
 			resPer := math.Exp(10.95 + 0.6*R + in.FundingShift + 0.015*ft + 0.08*r.normal())
 			indPer := math.Exp(8.6 + 0.4*R + in.IndustryShift + 0.15*r.normal())
 			docs := math.Round(acad * math.Exp(-2.6+0.7*R+0.1*r.normal()))
 			votes := float64(r.poisson(math.Exp(1.2 + 1.5*R + 0.6*math.Log(acad/1000))))
 			teachRaw[i][t] = math.Exp(0.9*R + 0.3*math.Log(acad/1000) + 0.1*r.normal())
-			iStaff := 100 * logistic(-1.6+0.6*I+0.3*R+0.05*r.normal())
-			iStud := 100 * logistic(-2.0+0.75*I+0.1*R+0.06*r.normal())
+			iStaff := 100 * logistic(-1.6+0.6*I+0.3*R+staffOwn+0.05*r.normal())
+			iStud := 100 * logistic(-2.0+0.75*I+0.1*R+studOwn+0.06*r.normal())
 			var prof [6]float64
 			sum := 0.0
 			for s := range prof {

@@ -272,6 +272,7 @@ func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int,
 	p := &Position{Group: g.Name, Indicator: ind.Key, Institution: inst, Year: year, Value: v, InGroup: g.Has(inst)}
 	nan := math.NaN()
 	p.Percentile, p.Z, p.GapMedian, p.GapQ3 = nan, nan, nan, nan
+	p.VsMedian, p.VsBetterQuartile = nan, nan
 	if math.IsNaN(v) {
 		return p
 	}
@@ -279,11 +280,26 @@ func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int,
 	if n == 0 && !p.InGroup {
 		return p // no member has a value: nothing to compare with
 	}
-	p.Rank, p.Of, p.Percentile = pl.Rank, pl.Of, pl.Percentile
+	p.Rank, p.Of, p.Percentile, p.Ties = pl.Rank, pl.Of, pl.Percentile, pl.Ties
 	p.Quartile = stats.QuartileOf(p.Percentile)
 	p.Z = stats.Z(v, dist.Mean, dist.SD)
 	p.GapMedian, p.GapQ3 = gaps(ind.Better, v, dist.Box)
+	p.VsMedian, p.VsBetterQuartile = signedDifferences(ind.Better, v, dist.Box)
 	return p
+}
+
+// signedDifferences returns the value's difference to the group's median
+// and to its better quartile, positive meaning better by polarity. A
+// neutral indicator has no better side: its median difference is the
+// plain value - median and it has no better quartile (NaN).
+func signedDifferences(p dataset.Polarity, v float64, b stats.Box) (median, quartile float64) {
+	switch p {
+	case dataset.HigherIsBetter:
+		return v - b.Median, v - b.Q3
+	case dataset.LowerIsBetter:
+		return b.Median - v, b.Q1 - v
+	}
+	return v - b.Median, math.NaN()
 }
 
 // gaps returns the distance still to gain to the group's median and to

@@ -54,6 +54,8 @@ func TestComputeReportsProblemsAtTheirLines(t *testing.T) {
 		{"unknown label", "focus: KE02\nyear: 2025\n",
 			"\n```chart\nkind: box\nindicators: [fwci]\nlabel: [OR9]\n```\n",
 			[]string{`chart label "OR9" is not in the register`}},
+		{"value slot outside each", "focus: KE02\nyear: 2025\ngroups:\n  - name: Home\n    where: {country: Kestria}\n    phrase: the {value} sector\n", "",
+			[]string{`b.md:10:5: group "Home": phrase "the {value} sector" uses {value}, which only an each group has; write the words in full`}},
 		{"focus lacks nearest indicator", "focus: OR03\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fwci]}\n", "",
 			[]string{`the focus OR03 has no value of "fwci" in 2025`}},
 	}

@@ -45,6 +45,9 @@ func (r *resolver) resolveGroups() []*Group {
 		if over == "" {
 			over = "ranked"
 		}
+		if spec.Each == "" && strings.Contains(spec.Phrase, PhraseValue) {
+			r.errAt(spec.Pos, "group %q: phrase %q uses %s, which only an each group has; write the words in full", spec.Name, spec.Phrase, PhraseValue)
+		}
 		var gs []*Group
 		switch {
 		case spec.Each != "":
@@ -67,6 +70,7 @@ func (r *resolver) resolveGroups() []*Group {
 				g.Spec = g.Name
 			}
 			g.Over = over
+			g.Phrase = phraseOf(spec.Phrase, g.EachValue)
 			g.FocusIn = g.Has(r.focus)
 			out = append(out, g)
 		}

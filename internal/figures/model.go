@@ -111,6 +111,10 @@ type Group struct {
 	Over    string
 	// Values of Each groups: the attribute value that defines them.
 	EachField, EachValue string
+	// Phrase is how running text names the group, from the brief's
+	// phrase: with {value} replaced by EachValue; empty when the brief
+	// gives none (the commentary's wording then derives one from Name).
+	Phrase string
 	// Spec is the name of the brief's group definition this group came
 	// from; it differs from Name only for groups expanded from "each".
 	Spec string
@@ -180,6 +184,18 @@ type Position struct {
 	// median and to its better quartile, signed so that a positive gap is
 	// the amount still to gain (0 once reached).
 	GapMedian, GapQ3 float64
+	// VsMedian and VsBetterQuartile are the signed differences to the
+	// group's median and to its better quartile (Q3, or Q1 when lower is
+	// better), positive meaning better by the indicator's polarity: for
+	// higher is better value - median, for lower is better median - value.
+	// A neutral indicator has VsMedian = value - median and no better
+	// quartile (NaN). Unlike the gaps they keep their sign once ahead, so
+	// the commentary can say "3.1 points above the median".
+	VsMedian, VsBetterQuartile float64
+	// Ties is how many members share the value, the institution itself
+	// included (1 when no one else has it); for an institution outside the
+	// group, the members with its value plus itself.
+	Ties int
 }
 
 // Trend is one institution's movement over the span in a group.

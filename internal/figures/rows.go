@@ -68,6 +68,9 @@ func (m *Model) Rows() []Row {
 		text(gk("", "kind"), g.Kind)
 		text(gk("", "defined"), g.Defined)
 		text(gk("", "over"), g.Over)
+		if g.Phrase != "" {
+			text(gk("", "phrase"), g.Phrase)
+		}
 		if g.Spec != g.Name {
 			text(gk("", "spec"), g.Spec)
 		}
@@ -135,6 +138,11 @@ func (m *Model) Rows() []Row {
 		num(pk("z"), p.Z)
 		num(pk("gap_median"), p.GapMedian)
 		num(pk("gap_better_quartile"), p.GapQ3)
+		num(pk("vs_median"), p.VsMedian)
+		num(pk("vs_better_quartile"), p.VsBetterQuartile)
+		if p.Ties > 0 {
+			num(pk("ties"), float64(p.Ties))
+		}
 	}
 
 	// trend

@@ -4,8 +4,10 @@ import (
 	"bufio"
 	"bytes"
 	"errors"
+	"fmt"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -52,6 +54,16 @@ func TestPackPassesPDFTools(t *testing.T) {
 	}
 
 	text := runTool(t, out, "pdftotext", "-layout")
+	// The footer's total is the page count pdfinfo reports.
+	var pages int
+	for _, l := range strings.Split(info, "\n") {
+		if strings.HasPrefix(l, "Pages:") {
+			pages, _ = strconv.Atoi(strings.TrimSpace(strings.TrimPrefix(l, "Pages:")))
+		}
+	}
+	if last := fmt.Sprintf("Page %d of %d", pages, pages); pages < 5 || !strings.Contains(text, last) {
+		t.Errorf("footer of the last page should read %q (pdfinfo: %d pages)", last, pages)
+	}
 	for _, want := range []string{
 		"Where we stand", "Position in detail", "Peers", "Population and method", "About these figures", "Contents",
 		"Université de Saint-Éluard", "Høgskolen i Vårdø", "Politechnika Źródłowa",

@@ -45,7 +45,14 @@ func (w *writer) footer(d *pdf.Doc, page int) {
 	}
 	pg := fmt.Sprintf("Page %d of %d", page, total)
 	d.TextRight(right, y, pg)
-	d.Text(m.Left, y, d.Fit(w.sourceLine(), d.ContentWidth()-d.StringWidth(pg)-8))
+	room := d.ContentWidth() - d.StringWidth(pg) - 8
+	line := w.sourceLine()
+	if d.StringWidth(line) > room {
+		// Too many sources for one line: point to the coverage table,
+		// which lists every indicator's source.
+		line = w.shortSourceLine()
+	}
+	d.Text(m.Left, y, d.Fit(line, room))
 	d.SetTextColor(w.st.text)
 }
 
@@ -74,5 +81,24 @@ func (w *writer) sourceLine() string {
 		parts = append(parts, "Data: "+strings.Join(files, ", "))
 	}
 	parts = append(parts, fmt.Sprintf("figures for %d", w.m.Year))
+	return strings.Join(parts, " · ")
+}
+
+// shortSourceLine names the organisation and where the sources are
+// listed.
+func (w *writer) shortSourceLine() string {
+	var parts []string
+	if o := w.b.Theme.Organisation; o != "" {
+		parts = append(parts, o)
+	}
+	where := "Sources: see “About these figures”"
+	if w.known != nil {
+		for _, h := range w.known.headings {
+			if h.title == "Coverage" && h.level == 2 {
+				where = fmt.Sprintf("Sources: see the coverage table, page %d", h.page+w.known.contentsPages-1)
+			}
+		}
+	}
+	parts = append(parts, where, fmt.Sprintf("figures for %d", w.m.Year))
 	return strings.Join(parts, " · ")
 }

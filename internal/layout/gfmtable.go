@@ -7,6 +7,10 @@ import (
 	east "github.com/yuin/goldmark/extension/ast"
 )
 
+// MaxTableColumns bounds a Markdown table: more columns than this cannot
+// be read across a portrait page.
+const MaxTableColumns = 24
+
 // gfmTable sets a Markdown (GitHub-flavoured) table with the same grid as
 // the pack's own tables: header repeated across pages, never wider than
 // the frame. Cell text keeps its inline figures; emphasis is dropped.
@@ -15,6 +19,10 @@ func (w *writer) gfmTable(n ast.Node, entering bool) ast.WalkStatus {
 		return ast.WalkSkipChildren
 	}
 	t := n.(*east.Table)
+	if len(t.Alignments) > MaxTableColumns {
+		w.failAt(w.nodePos(n), "this table has %d columns; at most %d fit across a page, so split it or turn it round (rows for columns)", len(t.Alignments), MaxTableColumns)
+		return ast.WalkSkipChildren
+	}
 	g := grid{natural: true, noNumber: true}
 	for row := n.FirstChild(); row != nil; row = row.NextSibling() {
 		var cells []cell

@@ -114,7 +114,10 @@ func (w *writer) setTable(g grid) {
 		}
 		return float64(n)*lineH + 2*cellPadY
 	}
-	rowH := rowHeight(0)
+	rowH := 0.0
+	if len(g.rows) > 0 {
+		rowH = rowHeight(0)
+	}
 
 	capSp := w.captionSpans("Table", w.tableNo, g.caption)
 	if g.noNumber {

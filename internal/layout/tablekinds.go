@@ -346,7 +346,8 @@ func (w *writer) groupsTable(tb *brief.TableBlock, groups []*figures.Group, inds
 	head := []string{"Indicator", focusName(w.m)}
 	align := []byte{'L', 'R'}
 	for _, gr := range groups {
-		head = append(head, fmt.Sprintf("%s median (n = %s)", gr.Name, format.Int(len(gr.Members))))
+		// No-break spaces keep "(n = 52)" on one line of the header.
+		head = append(head, fmt.Sprintf("%s median (n\u00a0=\u00a0%s)", gr.Name, format.Int(len(gr.Members))))
 		align = append(align, 'R')
 	}
 	g := grid{head: head, align: align, legend: true, caption: tb.Caption}

@@ -1,7 +1,6 @@
 package layout
 
 import (
-	"fmt"
 	"image/color"
 	"math"
 	"strconv"
@@ -111,14 +110,11 @@ func (w *writer) drawBars(y, h float64) {
 	}
 }
 
-// fail records a positioned problem at a body offset.
+// failAt records a problem at a position in the brief.
 func (w *writer) failAt(pos brief.Pos, format string, args ...any) {
 	w.problems.Addf(w.b.File, pos.Line, pos.Column, format, args...)
 }
 
-func (w *writer) fail(format string, args ...any) {
-	w.problems.Add(fmt.Errorf(format, args...))
-}
 
 // bottom is the lowest y of the frame: the type area's foot, or, while
 // balanced columns are set, the balance line for all but the last column.

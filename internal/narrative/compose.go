@@ -131,6 +131,10 @@ func newComposer(m *figures.Model, b *brief.Brief, w Wording) *composer {
 	return c
 }
 
+// phrase is how sentences name a group: the brief's phrase, else the
+// wording's default for the group's name.
+func (c *composer) phrase(g *figures.Group) string { return c.w.GroupPhrase(g) }
+
 // say makes a sentence of the current part.
 func (c *composer) say(about, text string, cites ...figures.Key) Sentence {
 	return Sentence{Text: text, Cites: cites, About: about, Part: c.part}

@@ -13,6 +13,9 @@ const (
 	mQuartile   = "quartile"
 	mGapMedian  = "gap_median"
 	mGapBetter  = "gap_better_quartile"
+	mVsMedian   = "vs_median"
+	mVsBetter   = "vs_better_quartile"
+	mTies       = "ties"
 
 	mN       = "n"
 	mMissing = "missing"

@@ -21,13 +21,13 @@ func (c *composer) groupCaveats(sc *scope) []Sentence {
 			}
 			seen[g.Name] = true
 			if n := len(g.Members); n > 0 && n < SmallGroup {
-				f := CaveatFact{Seed: g.Name, Group: g.Name, N: printCount(n), Threshold: printCount(SmallGroup)}
+				f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
 				s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers))
 				s.Thresholds = []float64{SmallGroup}
 				out = append(out, s)
 			}
 			if country, ok := c.oneCountry(g); ok {
-				f := CaveatFact{Seed: g.Name, Focus: c.focus, Group: g.Name, Country: country}
+				f := CaveatFact{Seed: g.Name, Focus: c.focus, Group: c.phrase(g), Country: country}
 				out = append(out, c.say("", c.w.OneCountry(f), groupKey(g.Name, mMembers)))
 			}
 		}
@@ -182,7 +182,7 @@ func (c *composer) condensedCaveats(sc *scope) []Sentence {
 			case 1:
 				out = append(out, c.coverage(g, low[0], sc.year))
 			default:
-				f := CaveatFact{Seed: g.Name, Group: g.Name, Year: printYear(sc.year), Threshold: printCount(int(MinCoverage))}
+				f := CaveatFact{Seed: g.Name, Group: c.phrase(g), Year: printYear(sc.year), Threshold: printCount(int(MinCoverage))}
 				var cites []figures.Key
 				for _, ind := range low {
 					f.Indicators = append(f.Indicators, c.w.Indicator(ind))
@@ -200,7 +200,7 @@ func (c *composer) condensedCaveats(sc *scope) []Sentence {
 // coverage is the caveat of one indicator reported by too few members.
 func (c *composer) coverage(g *figures.Group, ind dataset.Indicator, year int) Sentence {
 	d, _ := c.m.Distribution(g.Name, ind.Key, year)
-	f := CaveatFact{Seed: g.Name + ind.Key, Group: g.Name, Indicator: c.w.Indicator(ind), Year: printYear(year),
+	f := CaveatFact{Seed: g.Name + ind.Key, Group: c.phrase(g), Indicator: c.w.Indicator(ind), Year: printYear(year),
 		N: printCount(d.N), Missing: printCount(d.Missing), Threshold: printCount(int(MinCoverage))}
 	s := c.say(ind.Key, c.w.LowCoverage(f), distKey(g.Name, ind.Key, year, mN), distKey(g.Name, ind.Key, year, mMissing))
 	s.Thresholds = []float64{MinCoverage}

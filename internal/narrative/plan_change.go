@@ -57,7 +57,7 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		Seed:      trendKey(g.Name, ind.Key, c.m.FocusID, "").String() + printYear(y0),
 		Focus:     c.focus,
 		Indicator: c.w.Indicator(ind),
-		Group:     g.Name,
+		Group:     c.phrase(g),
 		Better:    ind.Better,
 		FromYear:  printYear(y0),
 		ToYear:    printYear(y1),
@@ -116,7 +116,7 @@ func (c *composer) noChange(sc *scope, g *figures.Group, ind dataset.Indicator) 
 	if !ok || p0.HasValue {
 		return nil
 	}
-	f := MissingFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind), Group: g.Name, Year: printYear(y0)}
+	f := MissingFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind), Group: c.phrase(g), Year: printYear(y0)}
 	return []Sentence{c.say(ind.Key, c.w.ChangeMissing(f), posKey(g.Name, ind.Key, c.m.FocusID, y0, "has_value"))}
 }
 

@@ -7,10 +7,7 @@ import "peerpack/internal/figures"
 // the system's median is ahead of the focus.
 func (c *composer) competition(sc *scope, g *figures.Group) []Sentence {
 	ps := c.placements(sc, g)
-	system := g.Name
-	if g.EachValue != "" {
-		system = g.EachValue
-	}
+	system := c.phrase(g)
 	f := CompetitionFact{Seed: g.Name, Focus: c.focus, System: system, InSystem: g.FocusIn}
 	var out []Sentence
 	if len(ps) > 0 {

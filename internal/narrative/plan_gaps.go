@@ -34,7 +34,7 @@ func (c *composer) gapFact(g *figures.Group, ind dataset.Indicator, year int) (G
 	}
 	id := c.m.FocusID
 	f := GapFact{Seed: posKey(g.Name, ind.Key, id, year, mGapBetter).String(), Focus: c.focus, Indicator: c.w.Indicator(ind),
-		Group: g.Name, Better: ind.Better, Target: printValue(ind, t), Value: printValue(ind, p.Value)}
+		Group: c.phrase(g), Better: ind.Better, Target: printValue(ind, t), Value: printValue(ind, p.Value)}
 	cites := []figures.Key{distKey(g.Name, ind.Key, year, targetMeasure(ind))}
 	if p.GapQ3 > 0 && gapAgrees(ind, t, p.Value, p.GapQ3) {
 		f.Amount = printAmount(ind, p.GapQ3)

@@ -56,7 +56,7 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	seed := posKey(g.Name, ind.Key, id, year, "").String()
 	label := c.w.Indicator(ind)
 	if !p.HasValue {
-		f := MissingFact{Seed: seed, Focus: c.focus, Indicator: label, Group: g.Name, Year: printYear(year)}
+		f := MissingFact{Seed: seed, Focus: c.focus, Indicator: label, Group: c.phrase(g), Year: printYear(year)}
 		cites := []figures.Key{posKey(g.Name, ind.Key, id, year, "has_value")}
 		if d.N > 0 {
 			f.Median = printValue(ind, d.Median)
@@ -65,7 +65,7 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 		return []Sentence{c.say(ind.Key, c.w.FocusMissing(f), cites...)}
 	}
 	if d.N == 0 || p.Rank == 0 {
-		f := MissingFact{Seed: seed, Focus: c.focus, Indicator: label, Group: g.Name, Year: printYear(year)}
+		f := MissingFact{Seed: seed, Focus: c.focus, Indicator: label, Group: c.phrase(g), Year: printYear(year)}
 		return []Sentence{c.say(ind.Key, c.w.GroupMissing(f), distKey(g.Name, ind.Key, year, mN))}
 	}
 	f := c.positionFact(g, ind, p, d)
@@ -114,7 +114,7 @@ func targetValue(ind dataset.Indicator, d *figures.Distribution) float64 {
 // positionFact gathers and prints the figures of a position.
 func (c *composer) positionFact(g *figures.Group, ind dataset.Indicator, p *figures.Position, d *figures.Distribution) PositionFact {
 	f := PositionFact{
-		Focus: c.focus, Indicator: c.w.Indicator(ind), Group: g.Name, Better: ind.Better,
+		Focus: c.focus, Indicator: c.w.Indicator(ind), Group: c.phrase(g), Better: ind.Better,
 		Year: printYear(p.Year), Value: printValue(ind, p.Value), Of: printCount(p.Of),
 		Quartile: p.Quartile, InGroup: p.InGroup, Members: printCount(d.N),
 		Median: printValue(ind, d.Median), VsMedian: printedCompare(ind, p.Value, d.Median),

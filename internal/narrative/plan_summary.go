@@ -77,7 +77,7 @@ func (c *composer) overview(sc *scope) []Sentence {
 		return nil
 	}
 	top, bottom, moreTop, moreBottom, cites := c.quarters(g, ps)
-	f := OverviewFact{Seed: g.Name, Focus: c.focus, Group: g.Name, Top: top, Bottom: bottom, MoreTop: moreTop, MoreBottom: moreBottom}
+	f := OverviewFact{Seed: g.Name, Focus: c.focus, Group: c.phrase(g), Top: top, Bottom: bottom, MoreTop: moreTop, MoreBottom: moreBottom}
 	return []Sentence{c.say("", c.w.Overview(f), cites...)}
 }
 
@@ -154,7 +154,7 @@ func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.
 	if len(xs) > SummaryItems {
 		xs = xs[:SummaryItems]
 	}
-	f := RankedFact{Focus: c.focus, Group: g.Name}
+	f := RankedFact{Focus: c.focus, Group: c.phrase(g)}
 	var cites []figures.Key
 	for _, x := range xs {
 		f.Seed += x.ind.Key

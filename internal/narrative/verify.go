@@ -82,6 +82,7 @@ func verifyNames(m *figures.Model, w Wording) []string {
 	for _, g := range m.Groups {
 		add(g.Name)
 		add(g.EachValue)
+		add(w.GroupPhrase(g))
 	}
 	reg := m.Data.Register
 	for _, i := range m.Named {
@@ -136,10 +137,13 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 		if hasInd {
 			out = append(out, format.Value(ind, v), format.Number(v, ind.Decimals))
 		}
-	case "gap_median", "gap_better_quartile", "change", "median_change", "iqr", "sd":
+	case "gap_median", "gap_better_quartile", "vs_median", "vs_better_quartile", "change", "median_change", "iqr", "sd":
 		if hasInd {
 			out = append(out, format.Difference(ind, v), format.Number(math.Abs(v), ind.Decimals), format.Value(ind, math.Abs(v)))
 		}
+	case "ties":
+		// "joint 4th with 2 others": the others, or all who share.
+		out = append(out, format.Int(whole-1), format.Int(whole))
 	case "rank":
 		out = append(out, format.Rank(whole, bands), format.Ordinal(whole), format.Int(whole))
 	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n":

@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
 )
 
 // Wording turns planned facts into sentences of one language. Every word
@@ -22,6 +23,10 @@ type Wording interface {
 	List(items []string) string
 	// Heading is a run-in heading for a topic ("Strengths").
 	Heading(topic string) string
+	// GroupPhrase is how running text names a group: the brief's phrase
+	// (figures.Group.Phrase) when it has one, else a default made from
+	// the group's name ("the Kestrian sector", "Aldmere").
+	GroupPhrase(g *figures.Group) string
 
 	Position(f PositionFact) string
 	Distance(f PositionFact) string

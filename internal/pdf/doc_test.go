@@ -119,3 +119,26 @@ func TestWriteSampleForViewing(t *testing.T) {
 		}
 	}
 }
+
+func TestFitShortensWithEllipsis(t *testing.T) {
+	d := New(Options{})
+	d.SetFont(Font{Family: Sans, Size: 10})
+	long := strings.Repeat("Université ", 50)
+	for _, w := range []float64{1, 20, 55.5, 300} {
+		got := d.Fit(long, w)
+		if d.StringWidth(got) > w {
+			t.Errorf("Fit(%g) = %q is %g mm wide", w, got, d.StringWidth(got))
+		}
+		// One more rune would not fit: the cut is as long as it can be.
+		if got != "" && got != "…" {
+			r := []rune(strings.TrimSuffix(got, "…"))
+			more := string([]rune(long)[:len(r)+1]) + "…"
+			if d.StringWidth(more) <= w {
+				t.Errorf("Fit(%g) = %q could keep one more rune", w, got)
+			}
+		}
+	}
+	if got := d.Fit("short", 100); got != "short" {
+		t.Errorf("Fit left %q", got)
+	}
+}

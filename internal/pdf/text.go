@@ -68,19 +68,29 @@ func (d *Doc) Ascent() float64 { return 0.73 * d.cur.Size / PointsPerMM }
 func PtToMM(pt float64) float64 { return pt / PointsPerMM }
 
 // Fit shortens s with an ellipsis until it fits width in the current font.
+// The cut is found by bisection over the runes, so a very long string
+// costs O(n log n), not O(n²).
 func (d *Doc) Fit(s string, width float64) string {
 	if d.StringWidth(s) <= width {
 		return s
 	}
 	r := []rune(s)
-	for len(r) > 0 {
-		r = r[:len(r)-1]
-		t := string(r) + "…"
-		if d.StringWidth(t) <= width {
-			return t
+	lo, hi := 0, len(r) // r[:lo]+"…" fits (or lo is 0); r[:hi]+"…" does not
+	for lo < hi {
+		mid := (lo + hi + 1) / 2
+		if d.StringWidth(string(r[:mid])+"…") <= width {
+			lo = mid
+		} else {
+			hi = mid - 1
 		}
 	}
-	return ""
+	if lo == 0 {
+		if d.StringWidth("…") <= width {
+			return "…"
+		}
+		return ""
+	}
+	return string(r[:lo]) + "…"
 }
 
 // FillRect fills a rectangle.

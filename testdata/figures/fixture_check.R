@@ -62,6 +62,14 @@ for (g in names(groups)) {
         put("position", g, ind, id, y, "percentile",
             100 * (rank(worse_first, ties.method = "average")[self] - 0.5) / length(z))
         if (n > 1) put("position", g, ind, id, y, "z", (v - mean(xv)) / sd(xv))
+        # Signed differences, positive = better by polarity; neutral: plain
+        # value - median and no better quartile. Ties: values equal to v
+        # among z (itself included).
+        pol <- polarity[[ind]]
+        put("position", g, ind, id, y, "vs_median", if (pol == "lower") q[2] - v else v - q[2])
+        if (pol == "higher") put("position", g, ind, id, y, "vs_better_quartile", v - q[3])
+        if (pol == "lower") put("position", g, ind, id, y, "vs_better_quartile", q[1] - v)
+        put("position", g, ind, id, y, "ties", sum(z == v))
       }
     }
   }

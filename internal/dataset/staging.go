@@ -1,0 +1,95 @@
+package dataset
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"peerpack/internal/tabular"
+)
+
+// staging gathers values from every values file before the set of years is
+// known. Columns are allocated per (year, indicator) on first use; where
+// records the file and line each value came from, to name both places of a
+// duplicate and the place of a value a later check rejects.
+type staging struct {
+	nInst, nInd int
+	slot        map[int]int // calendar year -> slot
+	years       []int       // by slot
+	vals        [][][]float64
+	where       [][][]uint64 // see whereCode; 0 = no value
+	files       []string
+	// The last column used, since rows usually come in runs.
+	lastYear, lastInd int
+	lastVals          []float64
+	lastWhere         []uint64
+}
+
+func newStaging(nInst, nInd int) *staging {
+	return &staging{nInst: nInst, nInd: nInd, slot: map[int]int{}}
+}
+
+func (s *staging) column(year, ind int) ([]float64, []uint64) {
+	if year == s.lastYear && ind == s.lastInd && s.lastVals != nil {
+		return s.lastVals, s.lastWhere
+	}
+	sl, ok := s.slot[year]
+	if !ok {
+		sl = len(s.years)
+		s.slot[year] = sl
+		s.years = append(s.years, year)
+		s.vals = append(s.vals, make([][]float64, s.nInd))
+		s.where = append(s.where, make([][]uint64, s.nInd))
+	}
+	if s.vals[sl][ind] == nil {
+		c := make([]float64, s.nInst)
+		for i := range c {
+			c[i] = math.NaN()
+		}
+		s.vals[sl][ind] = c
+		s.where[sl][ind] = make([]uint64, s.nInst)
+	}
+	s.lastYear, s.lastInd = year, ind
+	s.lastVals, s.lastWhere = s.vals[sl][ind], s.where[sl][ind]
+	return s.lastVals, s.lastWhere
+}
+
+// whereCode packs where a value was written: file index + 1 in the top
+// 16 bits, the column (capped) in the next 16 and the line in the low 32.
+func whereCode(file int, c tabular.Cell) uint64 {
+	col := min(max(c.Col, 0), 0xFFFF)
+	return uint64(file+1)<<48 | uint64(col)<<32 | uint64(uint32(c.Line))
+}
+
+// unpack splits a where code into file, line and column.
+func (s *staging) unpack(code uint64) (string, int, int) {
+	if code == 0 {
+		return "", 0, 0
+	}
+	return s.files[int(code>>48)-1], int(uint32(code)), int(code >> 32 & 0xFFFF)
+}
+
+// place renders a where code as file:line:column.
+func (s *staging) place(code uint64) string {
+	f, l, c := s.unpack(code)
+	if f == "" {
+		return ""
+	}
+	return fmt.Sprintf("%s:%d:%d", f, l, c)
+}
+
+// placeOf returns where the value of (year, ind, inst) came from.
+func (s *staging) placeOf(year, ind, inst int) (file string, line, col int) {
+	sl, ok := s.slot[year]
+	if !ok || s.where[sl][ind] == nil {
+		return "", 0, 0
+	}
+	return s.unpack(s.where[sl][ind][inst])
+}
+
+// sortedYears returns the staged years ascending.
+func (s *staging) sortedYears() []int {
+	ys := append([]int(nil), s.years...)
+	sort.Ints(ys)
+	return ys
+}

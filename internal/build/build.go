@@ -118,6 +118,10 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 		probs.Add(err)
 		return nil, probs.Err()
 	}
+	if err := layout.CheckPlaceholders(b, m); err != nil {
+		probs.Add(err)
+		return nil, probs.Err()
+	}
 	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS}, nil
 }
 

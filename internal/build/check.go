@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"peerpack/internal/format"
+	"peerpack/internal/layout"
 )
 
 // WriteCheckReport prints what `peerpack check` shows for loaded inputs:
@@ -39,6 +40,13 @@ func WriteCheckReport(w io.Writer, in *Inputs) {
 		if len(g.Members) < 10 {
 			fmt.Fprintf(w, "    small group: fewer than 10 members, so quartiles and ranks are fragile (common practice, no source)\n")
 		}
+	}
+	if html := layout.IgnoredHTML(in.Brief); len(html) > 0 {
+		fmt.Fprintf(w, "\nRaw HTML in the brief is never passed through to the pack; ignored at:")
+		for _, p := range html {
+			fmt.Fprintf(w, " %d:%d", p.Line, p.Column)
+		}
+		fmt.Fprintln(w)
 	}
 	fmt.Fprintf(w, "\nThe brief would build.\n")
 }

@@ -8,17 +8,6 @@ import (
 	"peerpack/internal/format"
 )
 
-// ties recovers how many members share the focus's value from the
-// position's own figures: with Rank = better + 1, Of = better + below +
-// ties and Percentile = 100 x (below + ties/2) / Of (figures/stats),
-// ties = 2 x (Of - Rank + 1 - Percentile x Of / 100).
-func ties(p *figures.Position) int {
-	if p.Rank <= 0 || p.Of <= 0 || math.IsNaN(p.Percentile) {
-		return 0
-	}
-	return int(math.Round(2 * (float64(p.Of-p.Rank+1) - p.Percentile*float64(p.Of)/100)))
-}
-
 // allMissing reports whether no group of the scope has a value of the
 // indicator in the year.
 func (c *composer) allMissing(sc *scope, ind dataset.Indicator) bool {
@@ -77,19 +66,25 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	}
 	cites := []figures.Key{posKey(g.Name, ind.Key, id, year, mValue), posKey(g.Name, ind.Key, id, year, mRank),
 		posKey(g.Name, ind.Key, id, year, mOf), posKey(g.Name, ind.Key, id, year, mQuartile)}
+	if f.Joint {
+		cites = append(cites, posKey(g.Name, ind.Key, id, year, mTies))
+	}
 	if !p.InGroup && !f.Introduced {
 		cites = append(cites, distKey(g.Name, ind.Key, year, mN))
 		c.introduced[intro] = true
 	}
 	out := []Sentence{c.say(ind.Key, c.w.Position(f), cites...)}
 	dc := []figures.Key{distKey(g.Name, ind.Key, year, mMedian)}
-	if f.GapMedian != "" {
-		dc = append(dc, posKey(g.Name, ind.Key, id, year, mGapMedian))
+	if f.MedianDiff != "" {
+		dc = append(dc, posKey(g.Name, ind.Key, id, year, mVsMedian))
 	}
 	if f.Target != "" {
 		dc = append(dc, distKey(g.Name, ind.Key, year, targetMeasure(ind)))
 		if f.GapTarget != "" {
 			dc = append(dc, posKey(g.Name, ind.Key, id, year, mGapBetter))
+		}
+		if f.TargetDiff != "" {
+			dc = append(dc, posKey(g.Name, ind.Key, id, year, mVsBetter))
 		}
 	}
 	return append(out, c.say(ind.Key, c.w.Distance(f), dc...))
@@ -121,14 +116,14 @@ func (c *composer) positionFact(g *figures.Group, ind dataset.Indicator, p *figu
 	}
 	f.Rank = format.Rank(p.Rank, c.b.RankBands)
 	_, _, f.Banded = format.RankBand(p.Rank, c.b.RankBands)
-	f.Joint = !f.Banded && ties(p) >= 2
+	f.Joint = !f.Banded && p.Ties >= 2
+	if f.Joint {
+		f.Others = p.Ties - 1
+	}
 	f.Last = !f.Banded && !f.Joint && p.Of > 2 && p.Rank == p.Of
+	f.MedianDiff = printedDistance(ind, p.Value, d.Median, p.VsMedian)
 	if !judged(ind) {
 		return f
-	}
-	behind := (ind.Better == dataset.HigherIsBetter && f.VsMedian == Below) || (ind.Better == dataset.LowerIsBetter && f.VsMedian == Above)
-	if behind && p.GapMedian > 0 && gapAgrees(ind, d.Median, p.Value, p.GapMedian) {
-		f.GapMedian = printAmount(ind, p.GapMedian)
 	}
 	if d.N >= 2 {
 		t := targetValue(ind, d)
@@ -137,6 +132,27 @@ func (c *composer) positionFact(g *figures.Group, ind dataset.Indicator, p *figu
 		if !f.Reached && p.GapQ3 > 0 && gapAgrees(ind, t, p.Value, p.GapQ3) {
 			f.GapTarget = printAmount(ind, p.GapQ3)
 		}
+		if f.Reached {
+			f.TargetDiff = printedDistance(ind, p.Value, t, p.VsBetterQuartile)
+		}
 	}
 	return f
+}
+
+// printedDistance prints the size of a signed difference between a value
+// and a reference, or "" when the two print level (the sentence then says
+// "level with") or when the distance would contradict the printed values
+// (see gapAgrees).
+func printedDistance(ind dataset.Indicator, v, ref, diff float64) string {
+	if math.IsNaN(diff) || printedCompare(ind, v, ref) == Level {
+		return ""
+	}
+	hi, lo := v, ref
+	if printedCompare(ind, v, ref) == Below {
+		hi, lo = ref, v
+	}
+	if !gapAgrees(ind, hi, lo, math.Abs(diff)) {
+		return ""
+	}
+	return printAmount(ind, math.Abs(diff))
 }

@@ -110,13 +110,19 @@ type PositionFact struct {
 	Median  string
 	// VsMedian is the value against the median by printed digits.
 	VsMedian int
-	// GapMedian is the printed distance to the median, "" when the
-	// distance would contradict the printed values.
-	GapMedian string
+	// MedianDiff is the printed distance to the median on whichever side
+	// (VsMedian says which), "" when level or when the distance would
+	// contradict the printed values.
+	MedianDiff string
+	// Others is how many other members share the rank when Joint.
+	Others int
 	// Target is the top-quarter threshold (Q3, or Q1 when lower is better)
-	// and GapTarget the printed distance still to go ("" once reached).
-	Target    string
-	GapTarget string
+	// and GapTarget the printed distance still to go ("" once reached);
+	// TargetDiff is the printed distance beyond it once reached ("" when
+	// level or contradicting the printed values).
+	Target     string
+	GapTarget  string
+	TargetDiff string
 	Reached   bool
 	// Introduced is set once the sentences of a part have said that the
 	// focus is not a member of this group.

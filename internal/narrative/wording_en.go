@@ -137,7 +137,27 @@ func (english) rank(f PositionFact) string {
 	if f.Better == dataset.Neutral {
 		r += " highest"
 	}
-	return r + " of " + f.Of
+	r += " of " + f.Of
+	if f.Joint && f.Others > 0 {
+		r += " with " + countWords(f.Others, "other", "others")
+	}
+	return r
+}
+
+var smallNumbers = [...]string{"no", "one", "two", "three", "four", "five", "six", "seven", "eight", "nine"}
+
+// countWords writes a small count in words and a larger one in digits,
+// as house styles do ("two others", "12 others"; common practice, no
+// source).
+func countWords(n int, one, many string) string {
+	word := many
+	if n == 1 {
+		word = one
+	}
+	if n >= 0 && n < len(smallNumbers) {
+		return smallNumbers[n] + " " + word
+	}
+	return printCount(n) + " " + word
 }
 
 var judgedQuarter = [5]string{"", "in the top quarter", "in the second quarter", "in the third quarter", "in the bottom quarter"}
@@ -155,7 +175,7 @@ func (english) quarter(better dataset.Polarity, q int) string {
 
 // Position: value, rank of n and quartile in a group.
 func (e english) Position(f PositionFact) string {
-	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group,
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "in", e.in(f.Group),
 		"value", f.Value, "year", f.Year, "rank", e.rank(f), "quarter", e.quarter(f.Better, f.Quartile), "members", f.Members}
 	if !f.InGroup && !f.Introduced {
 		if f.Members == "1" {
@@ -164,12 +184,12 @@ func (e english) Position(f PositionFact) string {
 		return e.fill("{focus} is not a member of {group}; placed among the {members} members that report {ind}, its {value} in {year} would rank {rank}, {quarter}.", kv...)
 	}
 	if !f.InGroup {
-		return e.fill("Placed among {group} on {ind}, {focus} would rank {rank} at {value} in {year}, {quarter}.", kv...)
+		return e.fill("Set against {group} on {ind}, {focus} would rank {rank} at {value} in {year}, {quarter}.", kv...)
 	}
 	tmpl := [...]string{
-		"At {value} in {year}, {focus} ranks {rank} in {group} on {ind}, {quarter}.",
-		"{focus} ranks {rank} in {group} on {ind} ({value} in {year}), {quarter}.",
-		"On {ind}, {focus} stands {rank} in {group} at {value} in {year}, {quarter}.",
+		"At {value} in {year}, {focus} ranks {rank} {in} on {ind}, {quarter}.",
+		"{focus} ranks {rank} {in} on {ind} ({value} in {year}), {quarter}.",
+		"On {ind}, {focus} stands {rank} {in} at {value} in {year}, {quarter}.",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
 }
@@ -178,12 +198,12 @@ func (e english) Position(f PositionFact) string {
 func (e english) Distance(f PositionFact) string {
 	rel := "level with"
 	switch {
-	case f.VsMedian == Above && f.GapMedian != "":
-		rel = f.GapMedian + " above"
+	case f.VsMedian == Above && f.MedianDiff != "":
+		rel = f.MedianDiff + " above"
 	case f.VsMedian == Above:
 		rel = "above"
-	case f.VsMedian == Below && f.GapMedian != "":
-		rel = f.GapMedian + " below"
+	case f.VsMedian == Below && f.MedianDiff != "":
+		rel = f.MedianDiff + " below"
 	case f.VsMedian == Below:
 		rel = "below"
 	}
@@ -201,7 +221,13 @@ func (e english) Distance(f PositionFact) string {
 		if f.Better == dataset.LowerIsBetter {
 			q = "lower quartile"
 		}
+		beyond := "above"
+		if f.Better == dataset.LowerIsBetter {
+			beyond = "below"
+		}
 		switch {
+		case f.Reached && f.TargetDiff != "":
+			target = "; it is " + f.TargetDiff + " " + beyond + " the " + q + " ({target})"
 		case f.Reached:
 			target = "; it has reached the " + q + " ({target})"
 		case f.GapTarget != "":
@@ -220,20 +246,20 @@ func (e english) Distance(f PositionFact) string {
 
 // FocusMissing: the focus reports no value.
 func (e english) FocusMissing(f MissingFact) string {
-	kv := []string{"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "year", f.Year, "median", f.Median}
+	kv := []string{"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "in", e.in(f.Group), "year", f.Year, "median", f.Median}
 	if f.Median == "" {
-		return e.fill("{focus} reports no {ind} for {year}, so it cannot be placed in {group}.", kv...)
+		return e.fill("{focus} reports no {ind} for {year}, so it cannot be placed {in}.", kv...)
 	}
 	tmpl := [...]string{
-		"{focus} reports no {ind} for {year}, so it cannot be placed in {group}, whose median is {median}.",
-		"With no {ind} reported for {year}, {focus} has no place in {group}; the group median is {median}.",
+		"{focus} reports no {ind} for {year}, so it cannot be placed {in}, where the median is {median}.",
+		"With no {ind} reported for {year}, {focus} has no place {in}; the group median is {median}.",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
 }
 
 // GroupMissing: no member of the group reports the indicator.
 func (e english) GroupMissing(f MissingFact) string {
-	return e.fill("No member of {group} reports {ind} for {year}, so {focus} cannot be compared with it.",
+	return e.fill("No member of {group} reports {ind} for {year}, so {focus} cannot be compared there.",
 		"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "year", f.Year)
 }
 
@@ -280,7 +306,7 @@ func (e english) Change(f ChangeFact) string {
 // ChangeMedian: the group median's movement and what it meant for the
 // focus's standing.
 func (e english) ChangeMedian(f ChangeFact) string {
-	kv := []string{"focus", f.Focus, "group", f.Group, "mf", f.MedianFrom, "mt", f.MedianTo, "pf", f.PctFrom, "pt", f.PctTo}
+	kv := []string{"focus", f.Focus, "group", f.Group, "group's", possessive(f.Group), "mf", f.MedianFrom, "mt", f.MedianTo, "pf", f.PctFrom, "pt", f.PctTo}
 	moved := "moved from {mf} to {mt}"
 	switch f.MedianDirection {
 	case Above:
@@ -311,7 +337,7 @@ func (e english) ChangeMedian(f ChangeFact) string {
 	}
 	tmpl := [...]string{
 		"Over the same years the median of {group} " + moved + tail + ".",
-		"The {group} median " + moved + " over the period" + tail + ".",
+		"{group's} median " + moved + " over the period" + tail + ".",
 	}
 	return e.fill(tmpl[variant(f.Seed+"/median", len(tmpl))], kv...)
 }
@@ -332,7 +358,7 @@ func (e english) ChangePercentile(f ChangeFact) string {
 	if f.PctFrom == f.PctTo {
 		moved = "stayed at the {pt} percentile"
 	}
-	return e.fill("Because the number of {group} members reporting "+grew+" from {sf} to {st}, the comparison is by percentile rather than rank: {focus} "+moved+".",
+	return e.fill("Because the number of members of {group} reporting "+grew+" from {sf} to {st}, the comparison is by percentile rather than rank: {focus} "+moved+".",
 		"focus", f.Focus, "group", f.Group, "sf", f.SizeFrom, "st", f.SizeTo, "pf", f.PctFrom, "pt", f.PctTo)
 }
 
@@ -372,13 +398,13 @@ func (e english) ranked(items []RankedItem) string {
 // Strengths: the indicators furthest above the group.
 func (e english) Strengths(f RankedFact) string {
 	tmpl := [...]string{
-		"Its strongest positions in {group} are on {items}.",
+		"Its strongest positions {in} are on {items}.",
 		"Measured against {group}, the strengths are {items}.",
 	}
 	if len(f.Items) == 1 {
-		tmpl = [...]string{"Its strongest position in {group} is on {items}.", "Measured against {group}, the clearest strength is {items}."}
+		tmpl = [...]string{"Its strongest position {in} is on {items}.", "Measured against {group}, the clearest strength is {items}."}
 	}
-	return e.fill(tmpl[variant(f.Seed, len(tmpl))], "group", f.Group, "items", e.ranked(f.Items))
+	return e.fill(tmpl[variant(f.Seed, len(tmpl))], "group", f.Group, "in", e.in(f.Group), "items", e.ranked(f.Items))
 }
 
 // Risks: the indicators furthest below the group.
@@ -478,8 +504,8 @@ func (e english) GapList(fs []GapFact) string {
 
 // SmallGroup: fewer members than quartiles can bear.
 func (e english) SmallGroup(f CaveatFact) string {
-	return e.fill("{group} has {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, so its ranks are indicative only.",
-		"group", f.Group, "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
+	return e.fill("The comparison {in} rests on {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, so those ranks are indicative only.",
+		"in", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
 }
 
 func pluralMembers(n string) string {

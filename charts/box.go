@@ -75,8 +75,9 @@ func (b *BoxPlotter) DataRange() (xmin, xmax, ymin, ymax float64) {
 	}
 	for _, r := range b.Rows {
 		if r.Box.N > 0 {
-			see(r.Box.WhiskerLow)
-			see(r.Box.WhiskerHigh)
+			wl, wh := r.Box.DrawnWhiskers()
+			see(wl)
+			see(wh)
 			see(r.Box.Min)
 			see(r.Box.Max)
 		}
@@ -138,7 +139,12 @@ func (b *BoxPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 		cat := b.slot(i)
 		bx := r.Box
 		if bx.N > 0 && !math.IsNaN(bx.Q1) {
-			lo, q1, md, q3, hi := at(bx.WhiskerLow, cat), at(bx.Q1, cat), at(bx.Median, cat), at(bx.Q3, cat), at(bx.WhiskerHigh, cat)
+			// Whiskers end where the box statistics say to draw them: an
+			// adjacent value inside the box (interpolated quartiles next to
+			// an outlier) gives a whisker of zero length, never one drawn
+			// back into the box.
+			wl, wh := bx.DrawnWhiskers()
+			lo, q1, md, q3, hi := at(wl, cat), at(bx.Q1, cat), at(bx.Median, cat), at(bx.Q3, cat), at(wh, cat)
 			// Whiskers with end caps.
 			c.StrokeLines(whisker, []vg.Point{lo, q1}, []vg.Point{q3, hi})
 			c.StrokeLines(whisker, []vg.Point{across(lo, -half*0.6), across(lo, half*0.6)}, []vg.Point{across(hi, -half*0.6), across(hi, half*0.6)})

@@ -146,7 +146,13 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 	}
 	in, err := build.Load(src, nil)
 	if err != nil {
-		return reportError(e, err)
+		code := reportError(e, err)
+		if in != nil && in.Report != nil {
+			// What did load, below the problems it refers back to.
+			fmt.Fprintln(e.stderr)
+			in.Report.Write(e.stderr)
+		}
+		return code
 	}
 	build.WriteCheckReport(e.stdout, in)
 	if raw, err := iofs.ReadFile(src.FS, src.Brief); err == nil {

@@ -87,7 +87,9 @@ func TestConcurrentBatchesSameFolder(t *testing.T) {
 	dir := t.TempDir()
 	done := make(chan []Outcome, 2)
 	for i := 0; i < 2; i++ {
-		go func() { done <- Run(context.Background(), in, jobs, Options{OutDir: dir, Workers: 1, Created: created}) }()
+		go func() {
+			done <- Run(context.Background(), in, jobs, Options{OutDir: dir, Workers: 1, Created: created})
+		}()
 	}
 	for i := 0; i < 2; i++ {
 		for _, o := range <-done {

@@ -22,18 +22,18 @@ type Brief struct {
 	// Dir is the folder data paths are relative to.
 	Dir string `yaml:"-"`
 
-	Title    string `yaml:"title"`
-	Subtitle string `yaml:"subtitle"`
-	Audience string `yaml:"audience"`
-	Author   string `yaml:"author"`
-	Date     string `yaml:"date"`
+	Title    string   `yaml:"title"`
+	Subtitle string   `yaml:"subtitle"`
+	Audience string   `yaml:"audience"`
+	Author   string   `yaml:"author"`
+	Date     string   `yaml:"date"`
 	Keywords []string `yaml:"keywords"`
 	// Focus is the register id of the institution the pack is about.
 	Focus string `yaml:"focus"`
 	// Year is the year positions are reported for.
 	Year int `yaml:"year"`
 	// Years is the span [first, last] for trends.
-	Years Span `yaml:"years"`
+	Years Span      `yaml:"years"`
 	Data  DataPaths `yaml:"data"`
 	// Groups are the comparison groups, in pack order.
 	Groups     []GroupSpec     `yaml:"groups"`

@@ -81,7 +81,7 @@ func Parse(file string, src []byte) (*Brief, error) {
 		return nil, fixLine(err, file, 0)
 	}
 	recordLines(node, "", b.Lines)
-	b.setGroupPositions(node)
+	probs.Add(b.setGroupPositions(node))
 	probs.Add(b.validateFrontMatter())
 	blocks, err := parseBlocks(file, body, bodyLine)
 	probs.Add(err)
@@ -162,7 +162,16 @@ func recordLines(n *yaml.Node, prefix string, out map[string]Pos) {
 	}
 }
 
-func (b *Brief) setGroupPositions(root *yaml.Node) {
+// ruleKeys are the keys every population rule must state: a rule with its
+// threshold left out would otherwise read as 0 and exclude everyone (or no
+// one) silently.
+var ruleKeys = map[string][]string{
+	"min_total": {"indicator", "years", "at_least"},
+	"max_value": {"indicator", "at_most"},
+}
+
+func (b *Brief) setGroupPositions(root *yaml.Node) error {
+	var l diag.List
 	for i := 0; i+1 < len(root.Content); i += 2 {
 		if root.Content[i].Value == "groups" && root.Content[i+1].Kind == yaml.SequenceNode {
 			for j, g := range root.Content[i+1].Content {
@@ -177,6 +186,17 @@ func (b *Brief) setGroupPositions(root *yaml.Node) {
 				seq := pop.Content[k+1]
 				for j, r := range seq.Content {
 					p := Pos{Line: r.Line, Column: r.Column}
+					if r.Kind == yaml.MappingNode {
+						have := map[string]bool{}
+						for q := 0; q+1 < len(r.Content); q += 2 {
+							have[r.Content[q].Value] = true
+						}
+						for _, need := range ruleKeys[pop.Content[k].Value] {
+							if !have[need] {
+								l.Addf(b.File, p.Line, p.Column, "population rule %s needs %s: %s", pop.Content[k].Value, need, ruleExample[pop.Content[k].Value])
+							}
+						}
+					}
 					switch pop.Content[k].Value {
 					case "min_total":
 						if j < len(b.Population.MinTotal) {
@@ -191,6 +211,12 @@ func (b *Brief) setGroupPositions(root *yaml.Node) {
 			}
 		}
 	}
+	return l.Err()
+}
+
+var ruleExample = map[string]string{
+	"min_total": "{indicator: papers, years: 5, at_least: 1000}",
+	"max_value": "{indicator: top_subject_share, at_most: 80}",
 }
 
 // PosOf returns where a front-matter key path ("data.register") was

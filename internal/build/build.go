@@ -111,7 +111,8 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 	d, rep, err := dataset.Load(src.FS, b)
 	if err != nil {
 		probs.Add(err)
-		return nil, probs.Err()
+		// The report says what loaded; check prints it above the problems.
+		return &Inputs{Brief: b, Report: rep, FS: src.FS}, probs.Err()
 	}
 	m, err := figures.Compute(d, b)
 	if err != nil {

@@ -23,8 +23,8 @@ func demoSource() Source {
 }
 
 var (
-	demoOnce sync.Once
-	demoIn   *Inputs
+	demoOnce  sync.Once
+	demoIn    *Inputs
 	demoPack1 *Packed
 	demoErr   error
 )

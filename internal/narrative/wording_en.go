@@ -577,7 +577,7 @@ func lowerFirst(s string) string {
 
 // OneCountry: every member is in one country.
 func (e english) OneCountry(f CaveatFact) string {
-	return e.fill("Every member of {group} is in {country}, so it compares {focus} within one national system only.",
+	return e.fill("Every member of {group} is in {country}, so this comparison sets {focus} against one national system only.",
 		"group", f.Group, "country", f.Country, "focus", f.Focus)
 }
 

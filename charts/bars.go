@@ -183,15 +183,7 @@ const defaultBars = 15
 // newBars plans ranked bars of the first chart group's members on the
 // block's first indicator, the focus always shown.
 func newBars(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
-	inds, err := chartIndicators(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	groups, err := chartGroups(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	marks, err := labelled(m, spec)
+	inds, groups, marks, err := chartSubjects(m, spec)
 	if err != nil {
 		return nil, err
 	}
@@ -200,7 +192,7 @@ func newBars(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) 
 	if limit <= 0 {
 		limit = defaultBars
 	}
-	places := memberPlaces(m, g, ind, year)
+	places := m.MemberPlaces(g.Name, ind.Key, year)
 	named := map[int]bool{}
 	for _, i := range marks {
 		named[i] = true
@@ -209,15 +201,15 @@ func newBars(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) 
 	if d, ok := m.Distribution(g.Name, ind.Key, year); ok && d.N > 0 {
 		bc.Median = d.Median
 	}
-	item := func(p memberPlace) BarItem {
-		in := institution(m, p.Inst)
-		return BarItem{Label: fitName(in, th.labelStyle(), vg.Points(170)), Rank: p.Rank, Value: p.Value, Focus: p.Inst == m.Focus, Named: named[p.Inst]}
+	item := func(p figures.MemberPlace) BarItem {
+		in := institution(m, p.Institution)
+		return BarItem{Label: fitName(in, th.labelStyle(), vg.Points(170)), Rank: p.Rank, Value: p.Value, Focus: p.Institution == m.Focus, Named: named[p.Institution]}
 	}
 	// The focus: a member's own placement, or its position among the
 	// members when it is not one.
 	focusAt := -1
 	for i, p := range places {
-		if p.Inst == m.Focus {
+		if p.Institution == m.Focus {
 			focusAt = i
 		}
 	}

@@ -40,15 +40,7 @@ type BoxChart struct {
 
 // newBox plans a box chart from the model.
 func newBox(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
-	inds, err := chartIndicators(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	groups, err := chartGroups(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	marks, err := labelled(m, spec)
+	inds, groups, marks, err := chartSubjects(m, spec)
 	if err != nil {
 		return nil, err
 	}

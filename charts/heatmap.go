@@ -237,23 +237,15 @@ const defaultHeatRows = 20
 // newHeatmap plans a heatmap of the first chart group's members over the
 // block's indicators.
 func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
-	inds, err := chartIndicators(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	groups, err := chartGroups(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	marks, err := labelled(m, spec)
+	inds, groups, marks, err := chartSubjects(m, spec)
 	if err != nil {
 		return nil, err
 	}
 	g := groups[0]
 	year := chartYear(m, spec)
-	places := make([][]memberPlace, len(inds))
+	places := make([][]figures.MemberPlace, len(inds))
 	for k, ind := range inds {
-		places[k] = memberPlaces(m, g, ind, year)
+		places[k] = m.MemberPlaces(g.Name, ind.Key, year)
 	}
 	limit := spec.Limit
 	if limit <= 0 {
@@ -267,7 +259,7 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 	}
 	var order []int
 	for _, p := range places[0] {
-		order = append(order, p.Inst)
+		order = append(order, p.Institution)
 	}
 	// Members without a value on the first indicator go last.
 	inOrder := map[int]bool{}

@@ -70,6 +70,24 @@ func chartGroups(m *figures.Model, spec *brief.ChartBlock) ([]*figures.Group, er
 }
 
 // chartYear is the block's year, else the brief's.
+// chartSubjects resolves what most kinds draw: the block's indicators,
+// groups and labelled institutions, the first problem returned.
+func chartSubjects(m *figures.Model, spec *brief.ChartBlock) ([]dataset.Indicator, []*figures.Group, []int, error) {
+	inds, err := chartIndicators(m, spec)
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	groups, err := chartGroups(m, spec)
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	marks, err := labelled(m, spec)
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	return inds, groups, marks, nil
+}
+
 func chartYear(m *figures.Model, spec *brief.ChartBlock) int {
 	if spec.Year != 0 {
 		return spec.Year

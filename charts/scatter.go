@@ -37,7 +37,10 @@ type ScatterChart struct {
 	Marks      []ScatterMark
 	// Fit is the least-squares line over every plotted point, nil for
 	// none.
-	Fit   *stats.LineFit
+	Fit *stats.LineFit
+	// NoFit says why a line the block asked for is not drawn ("" when
+	// drawn or not asked for).
+	NoFit string
 	Theme Theme
 	built *panels
 }
@@ -170,6 +173,9 @@ func (sc *ScatterChart) panels() *panels {
 		l.add(legendEntry{Text: fmt.Sprintf("Least-squares line over all points (R² = %s)", format.Number(sc.Fit.R2, 2)), Width: 20, Thumb: lineThumb(ls, nil)})
 		l.note = "The line describes association in these groups, not cause; each point is one institution."
 	}
+	if sc.NoFit != "" {
+		l.note = sc.NoFit
+	}
 	sc.built = ps
 	return ps
 }
@@ -193,20 +199,12 @@ func (sc *ScatterChart) Draw(c draw.Canvas) error { return sc.panels().Draw(c) }
 // newScatter plans a scatter of the block's two indicators over its
 // groups' members in the chart year.
 func newScatter(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
-	inds, err := chartIndicators(m, spec)
+	inds, groups, marks, err := chartSubjects(m, spec)
 	if err != nil {
 		return nil, err
 	}
 	if len(inds) != 2 {
 		return nil, specError(spec, "a scatter takes exactly two indicators, x then y; found %d", len(inds))
-	}
-	groups, err := chartGroups(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	marks, err := labelled(m, spec)
-	if err != nil {
-		return nil, err
 	}
 	year := chartYear(m, spec)
 	sc := &ScatterChart{XInd: inds[0], YInd: inds[1], Theme: th}
@@ -238,7 +236,12 @@ func newScatter(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 		}
 	}
 	if spec.Fit {
-		if f, ok := stats.FitLine(allX, allY); ok {
+		// A line over a handful of points claims an association the data
+		// cannot carry: the same floor as any statement that two
+		// indicators move together.
+		if len(allX) < figures.MinCorrelationPairs {
+			sc.NoFit = fmt.Sprintf("No line is drawn: %d institutions have both values, fewer than the %d needed before an association is read.", len(allX), figures.MinCorrelationPairs)
+		} else if f, ok := stats.FitLine(allX, allY); ok {
 			sc.Fit = &f
 		}
 	}

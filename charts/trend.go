@@ -271,15 +271,7 @@ func (tc *TrendChart) Draw(c draw.Canvas) error { return tc.panels().Draw(c) }
 
 // newTrend plans a trend chart from the model over the brief's span.
 func newTrend(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
-	inds, err := chartIndicators(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	groups, err := chartGroups(m, spec)
-	if err != nil {
-		return nil, err
-	}
-	marks, err := labelled(m, spec)
+	inds, groups, marks, err := chartSubjects(m, spec)
 	if err != nil {
 		return nil, err
 	}

@@ -7,6 +7,7 @@ import (
 
 	"peerpack/internal/brief"
 	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 )
 
 // loader carries the state of one Load.
@@ -19,6 +20,7 @@ type loader struct {
 	st    *staging
 	// data holds the brief's data paths, tidied (see tidyPath).
 	data brief.DataPaths
+	lim  limits.Limits
 }
 
 type stagedNote struct {
@@ -35,7 +37,16 @@ type stagedNote struct {
 // broken to build one; when the error is not nil it must not be used for a
 // pack.
 func Load(fsys fs.FS, b *brief.Brief) (d *Dataset, rep *Report, err error) {
-	l := &loader{fsys: fsys, b: b, rep: &Report{Brief: b.File}}
+	return LoadWith(fsys, b, limits.Default())
+}
+
+// LoadWith is Load with the given size limits (file bytes, rows, columns,
+// cell length, sheet cells, institutions, indicators, years, values, and
+// the dictionary's YAML size); a zero field takes its default. A limit
+// reached is a problem naming the file, the limit, what was found and the
+// --limit override that raises it.
+func LoadWith(fsys fs.FS, b *brief.Brief, lim limits.Limits) (d *Dataset, rep *Report, err error) {
+	l := &loader{fsys: fsys, b: b, rep: &Report{Brief: b.File}, lim: lim.Or()}
 	defer func() {
 		// A fault of ours must reach the user as a message, not a crash.
 		if r := recover(); r != nil {
@@ -112,18 +123,31 @@ func (l *loader) load() *Dataset {
 	l.rep.Countries = countCountries(reg)
 
 	st := newStaging(reg.Len(), len(dict.Indicators))
+	st.lim = l.lim
 	l.st = st
 	vr := &valuesReader{l: l, reg: reg, dict: dict, st: st,
 		unknownI: map[string]*unknownName{}, unknownK: map[string]*unknownName{}, derivedK: map[string]*unknownName{}}
 	for _, name := range data.Values {
+		if st.over != nil {
+			break
+		}
 		vr.read(name)
 	}
 	vr.reportUnknown()
+	if st.over != nil {
+		l.probs.Add(st.over)
+		return nil
+	}
 	if len(st.years) == 0 && l.probs.Len() == 0 {
 		p := b.PosOf("data.values")
 		l.probs.Addf(b.File, p.Line, p.Column, "the values files hold no values; add rows of institution,year,indicator,value")
 	}
 
+	if n := int64(len(st.years)) * int64(len(dict.Indicators)) * int64(reg.Len()); l.lim.Exceeded(limits.Values, n) {
+		p := b.PosOf("data.values")
+		l.probs.Addf(b.File, p.Line, p.Column, "the data would hold %d institutions x %d indicators x %d years = %s", reg.Len(), len(dict.Indicators), len(st.years), l.lim.Over(limits.Values, n, "drop years or indicators the brief does not use"))
+		return nil
+	}
 	d := l.assemble(reg, dict, st)
 	l.convertPPP(d)
 	l.derive(d, derived)

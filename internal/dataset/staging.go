@@ -5,6 +5,8 @@ import (
 	"math"
 	"sort"
 
+	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 	"peerpack/internal/tabular"
 )
 
@@ -23,17 +25,42 @@ type staging struct {
 	lastYear, lastInd int
 	lastVals          []float64
 	lastWhere         []uint64
+	// lim caps the years and the values allocated; over is set (and no
+	// more is allocated) once one is reached.
+	lim       limits.Limits
+	allocated int64
+	over      error
+	scratchV  []float64
+	scratchW  []uint64
 }
 
 func newStaging(nInst, nInd int) *staging {
-	return &staging{nInst: nInst, nInd: nInd, slot: map[int]int{}}
+	return &staging{nInst: nInst, nInd: nInd, slot: map[int]int{}, lim: limits.Default()}
 }
 
-func (s *staging) column(year, ind int) ([]float64, []uint64) {
+// column returns the staged column of (year, ind), allocating it on first
+// use. Once a limit is reached it returns a scratch column, so callers need
+// no special case; the loader reports s.over and stops.
+func (s *staging) column(file string, c tabular.Cell, year, ind int) ([]float64, []uint64) {
 	if year == s.lastYear && ind == s.lastInd && s.lastVals != nil {
 		return s.lastVals, s.lastWhere
 	}
 	sl, ok := s.slot[year]
+	if !ok && s.over == nil && s.lim.Exceeded(limits.Years, int64(len(s.years)+1)) {
+		s.over = diag.At(file, c.Line, c.Col, "year %d makes %s", year, s.lim.Over(limits.Years, int64(len(s.years)+1), "check the year column for typing errors"))
+	}
+	if s.over == nil && (!ok || s.vals[sl][ind] == nil) {
+		if n := (s.allocated + 1) * int64(s.nInst); s.lim.Exceeded(limits.Values, n) {
+			s.over = diag.At(file, c.Line, c.Col, "the values reach %s", s.lim.Over(limits.Values, n, "drop years or indicators the brief does not use"))
+		}
+	}
+	if s.over != nil {
+		if s.scratchV == nil {
+			s.scratchV = make([]float64, s.nInst)
+			s.scratchW = make([]uint64, s.nInst)
+		}
+		return s.scratchV, s.scratchW
+	}
 	if !ok {
 		sl = len(s.years)
 		s.slot[year] = sl
@@ -42,11 +69,12 @@ func (s *staging) column(year, ind int) ([]float64, []uint64) {
 		s.where = append(s.where, make([][]uint64, s.nInd))
 	}
 	if s.vals[sl][ind] == nil {
-		c := make([]float64, s.nInst)
-		for i := range c {
-			c[i] = math.NaN()
+		s.allocated++
+		col := make([]float64, s.nInst)
+		for i := range col {
+			col[i] = math.NaN()
 		}
-		s.vals[sl][ind] = c
+		s.vals[sl][ind] = col
 		s.where[sl][ind] = make([]uint64, s.nInst)
 	}
 	s.lastYear, s.lastInd = year, ind

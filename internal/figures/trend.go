@@ -34,19 +34,9 @@ func trendOf(g *Group, ind dataset.Indicator, inst int, series []*Position, dist
 	t := &Trend{Group: g.Name, Indicator: ind.Key, Institution: inst}
 	nan := math.NaN()
 	t.StartValue, t.EndValue, t.Change, t.ChangePct, t.CAGR, t.Slope, t.PercentileChange, t.MedianChange = nan, nan, nan, nan, nan, nan, nan, nan
-	first, last := -1, -1
-	var xs, ys []float64
-	for i, p := range series {
-		if !p.HasValue {
-			continue
-		}
-		if first < 0 {
-			first = i
-		}
-		last = i
-		xs = append(xs, float64(p.Year))
-		ys = append(ys, p.Value)
-	}
+	first, last, xs, ys := spanOf(len(series), func(i int) (int, float64, bool) {
+		return series[i].Year, series[i].Value, series[i].HasValue
+	})
 	if first < 0 {
 		return t
 	}
@@ -77,19 +67,9 @@ func groupTrendOf(g *Group, ind dataset.Indicator, dists []*Distribution) *Group
 	t := &GroupTrend{Group: g.Name, Indicator: ind.Key}
 	nan := math.NaN()
 	t.MedianStart, t.MedianEnd, t.Change, t.ChangePct, t.Slope = nan, nan, nan, nan, nan
-	first, last := -1, -1
-	var xs, ys []float64
-	for i, d := range dists {
-		if d.N == 0 {
-			continue
-		}
-		if first < 0 {
-			first = i
-		}
-		last = i
-		xs = append(xs, float64(d.Year))
-		ys = append(ys, d.Median)
-	}
+	first, last, xs, ys := spanOf(len(dists), func(i int) (int, float64, bool) {
+		return dists[i].Year, dists[i].Median, dists[i].N > 0
+	})
 	if first < 0 {
 		return t
 	}
@@ -105,4 +85,25 @@ func groupTrendOf(g *Group, ind dataset.Indicator, dists []*Distribution) *Group
 	t.ChangePct = stats.ChangePct(s.Median, e.Median)
 	t.Slope = stats.Slope(xs, ys)
 	return t
+}
+
+// spanOf walks a yearly series (n points, at(i) giving the year, the
+// value and whether there is one) and returns the first and last index
+// with a value (-1 when none) and the years and values that have one, for
+// the least-squares slope.
+func spanOf(n int, at func(i int) (year int, v float64, ok bool)) (first, last int, xs, ys []float64) {
+	first, last = -1, -1
+	for i := range n {
+		y, v, ok := at(i)
+		if !ok {
+			continue
+		}
+		if first < 0 {
+			first = i
+		}
+		last = i
+		xs = append(xs, float64(y))
+		ys = append(ys, v)
+	}
+	return first, last, xs, ys
 }

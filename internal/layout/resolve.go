@@ -2,7 +2,6 @@ package layout
 
 import (
 	"fmt"
-	"math"
 	"strings"
 
 	"peerpack/internal/brief"
@@ -93,7 +92,7 @@ func resolvePlaceholder(b *brief.Brief, m *figures.Model, p brief.Placeholder) (
 		case "quartile":
 			return quartileWords(pos.Quartile), nil
 		case "z":
-			return signed(pos.Z, 2), nil
+			return format.SignedNumber(pos.Z, 2), nil
 		default:
 			return format.Difference(ind, pos.GapMedian), nil
 		}
@@ -132,7 +131,7 @@ func resolvePlaceholder(b *brief.Brief, m *figures.Model, p brief.Placeholder) (
 		if p.Measure == "change" {
 			return format.Signed(ind, t.Change), nil
 		}
-		return signedPercent(t.ChangePct), nil
+		return format.SignedPercent(t.ChangePct), nil
 	}
 	return "", fmt.Errorf("placeholder %s: measure %q is not available", p.Raw, p.Measure)
 }
@@ -170,27 +169,4 @@ func yearList(ys []int) string {
 		return "none"
 	}
 	return fmt.Sprintf("%d–%d", ys[0], ys[len(ys)-1])
-}
-
-// signed prints a number with an explicit sign and a true minus sign.
-func signed(v float64, decimals int) string {
-	if math.IsNaN(v) {
-		return "–"
-	}
-	r := format.Round(v, decimals)
-	s := format.Number(math.Abs(r), decimals)
-	switch {
-	case r > 0:
-		return "+" + s
-	case r < 0:
-		return "−" + s
-	}
-	return s
-}
-
-func signedPercent(v float64) string {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return "–"
-	}
-	return signed(v, 1) + "%"
 }

@@ -4,6 +4,7 @@ import (
 	"image/color"
 	"strconv"
 
+	"peerpack/charts"
 	"peerpack/internal/pdf"
 )
 
@@ -40,16 +41,21 @@ func newStyle(font, accent string) style {
 		s.accent = c
 	}
 	s.tint = mix(s.accent, white, 0.88)
-	// Quartile shades: one hue (the palette's blue, Okabe and Ito 2008)
-	// in four clearly separated lightness steps, darkest for the best
-	// quarter, so that the order survives greyscale print; a glyph in
-	// every shaded cell carries the same information without colour.
-	blue := color.RGBA{0x00, 0x72, 0xb2, 0xff}
-	s.shades = [5]color.RGBA{white, mix(blue, white, 0.45), mix(blue, white, 0.65), mix(blue, white, 0.82), mix(blue, white, 0.95)}
+	// Quartile shades come from the charts' one definition, so a table
+	// cell and a heatmap cell of the same quarter look alike.
+	for q := range s.shades {
+		s.shades[q] = rgba(charts.QuartileShade(q))
+	}
 	return s
 }
 
 var white = color.RGBA{0xff, 0xff, 0xff, 0xff}
+
+// rgba converts any colour to opaque 8-bit RGBA.
+func rgba(c color.Color) color.RGBA {
+	r, g, b, _ := c.RGBA()
+	return color.RGBA{uint8(r >> 8), uint8(g >> 8), uint8(b >> 8), 0xff}
+}
 
 func mix(a, b color.RGBA, t float64) color.RGBA {
 	f := func(x, y uint8) uint8 { return uint8(float64(x)*(1-t) + float64(y)*t + 0.5) }

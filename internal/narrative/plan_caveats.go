@@ -13,23 +13,16 @@ import (
 // sets that turn out to lie in one country.
 func (c *composer) groupCaveats(sc *scope) []Sentence {
 	var out []Sentence
-	seen := map[string]bool{}
-	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
-		for _, g := range gs {
-			if seen[g.Name] {
-				continue
-			}
-			seen[g.Name] = true
-			if n := len(g.Members); n > 0 && n < SmallGroup {
-				f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
-				s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers))
-				s.Thresholds = []float64{SmallGroup}
-				out = append(out, s)
-			}
-			if country, ok := c.oneCountry(g); ok {
-				f := CaveatFact{Seed: g.Name, Focus: c.focus, Group: c.phrase(g), Country: country}
-				out = append(out, c.say("", c.w.OneCountry(f), groupKey(g.Name, mMembers)))
-			}
+	for _, g := range sc.distinctGroups() {
+		if n := len(g.Members); n > 0 && n < SmallGroup {
+			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
+			s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers))
+			s.Thresholds = []float64{SmallGroup}
+			out = append(out, s)
+		}
+		if country, ok := c.oneCountry(g); ok {
+			f := CaveatFact{Seed: g.Name, Focus: c.focus, Group: c.phrase(g), Country: country}
+			out = append(out, c.say("", c.w.OneCountry(f), groupKey(g.Name, mMembers)))
 		}
 	}
 	return out
@@ -69,20 +62,13 @@ func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence
 		f := CaveatFact{Seed: ind.Key, Focus: c.focus, Indicator: label, Year: printYear(sc.year), Note: note}
 		out = append(out, c.say(ind.Key, c.w.Imputed(f), posKey(c.anyGroup(sc), ind.Key, c.m.FocusID, sc.year, mValue)))
 	}
-	seen := map[string]bool{}
-	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
-		for _, g := range gs {
-			if seen[g.Name] {
-				continue
-			}
-			seen[g.Name] = true
-			d, ok := c.m.Distribution(g.Name, ind.Key, sc.year)
-			if !ok || d.N == 0 {
-				continue // no comparison is written, so no caveat on it
-			}
-			if 100*float64(d.N) < MinCoverage*float64(d.N+d.Missing) {
-				out = append(out, c.coverage(g, ind, sc.year))
-			}
+	for _, g := range sc.distinctGroups() {
+		d, ok := c.m.Distribution(g.Name, ind.Key, sc.year)
+		if !ok || d.N == 0 {
+			continue // no comparison is written, so no caveat on it
+		}
+		if 100*float64(d.N) < MinCoverage*float64(d.N+d.Missing) {
+			out = append(out, c.coverage(g, ind, sc.year))
 		}
 	}
 	return out
@@ -163,35 +149,28 @@ func (c *composer) condensedCaveats(sc *scope) []Sentence {
 			out = append(out, c.say(ind.Key, c.w.Imputed(f), posKey(c.anyGroup(sc), ind.Key, c.m.FocusID, sc.year, mValue)))
 		}
 	}
-	seen := map[string]bool{}
-	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
-		for _, g := range gs {
-			if seen[g.Name] {
-				continue
+	for _, g := range sc.distinctGroups() {
+		var low []dataset.Indicator
+		for _, ind := range sc.inds {
+			if d, ok := c.m.Distribution(g.Name, ind.Key, sc.year); ok && d.N > 0 && 100*float64(d.N) < MinCoverage*float64(d.N+d.Missing) {
+				low = append(low, ind)
 			}
-			seen[g.Name] = true
-			var low []dataset.Indicator
-			for _, ind := range sc.inds {
-				if d, ok := c.m.Distribution(g.Name, ind.Key, sc.year); ok && d.N > 0 && 100*float64(d.N) < MinCoverage*float64(d.N+d.Missing) {
-					low = append(low, ind)
-				}
+		}
+		switch len(low) {
+		case 0:
+			continue
+		case 1:
+			out = append(out, c.coverage(g, low[0], sc.year))
+		default:
+			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), Year: printYear(sc.year), Threshold: printCount(int(MinCoverage))}
+			var cites []figures.Key
+			for _, ind := range low {
+				f.Indicators = append(f.Indicators, c.w.Indicator(ind))
+				cites = append(cites, distKey(g.Name, ind.Key, sc.year, mN), distKey(g.Name, ind.Key, sc.year, mMissing))
 			}
-			switch len(low) {
-			case 0:
-				continue
-			case 1:
-				out = append(out, c.coverage(g, low[0], sc.year))
-			default:
-				f := CaveatFact{Seed: g.Name, Group: c.phrase(g), Year: printYear(sc.year), Threshold: printCount(int(MinCoverage))}
-				var cites []figures.Key
-				for _, ind := range low {
-					f.Indicators = append(f.Indicators, c.w.Indicator(ind))
-					cites = append(cites, distKey(g.Name, ind.Key, sc.year, mN), distKey(g.Name, ind.Key, sc.year, mMissing))
-				}
-				s := c.say("", c.w.LowCoverageList(f), cites...)
-				s.Thresholds = []float64{MinCoverage}
-				out = append(out, s)
-			}
+			s := c.say("", c.w.LowCoverageList(f), cites...)
+			s.Thresholds = []float64{MinCoverage}
+			out = append(out, s)
 		}
 	}
 	return out
@@ -205,4 +184,20 @@ func (c *composer) coverage(g *figures.Group, ind dataset.Indicator, year int) S
 	s := c.say(ind.Key, c.w.LowCoverage(f), distKey(g.Name, ind.Key, year, mN), distKey(g.Name, ind.Key, year, mMissing))
 	s.Thresholds = []float64{MinCoverage}
 	return s
+}
+
+// distinctGroups lists the scope's groups and competitor systems, each
+// once, in order: caveats are said once per group.
+func (sc *scope) distinctGroups() []*figures.Group {
+	var out []*figures.Group
+	seen := map[string]bool{}
+	for _, gs := range [][]*figures.Group{sc.groups, sc.systems} {
+		for _, g := range gs {
+			if !seen[g.Name] {
+				seen[g.Name] = true
+				out = append(out, g)
+			}
+		}
+	}
+	return out
 }

@@ -123,7 +123,7 @@ type PositionFact struct {
 	Target     string
 	GapTarget  string
 	TargetDiff string
-	Reached   bool
+	Reached    bool
 	// Introduced is set once the sentences of a part have said that the
 	// focus is not a member of this group.
 	Introduced bool

@@ -9,6 +9,7 @@ import (
 	"unsafe"
 
 	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 )
 
 // CSVReader reads comma-separated values as RFC 4180 ("Common Format and
@@ -29,12 +30,22 @@ type CSVReader struct {
 	row    []Cell
 	done   bool
 	buf    []byte
+	lim    limits.Limits
+	rows   int64
 }
 
 // NewCSV checks the encoding of data, reads its header and returns a reader
 // positioned on the first data row. data must not be modified afterwards:
 // cells refer into it.
 func NewCSV(file string, data []byte) (*CSVReader, error) {
+	return NewCSVWith(file, data, limits.Default())
+}
+
+// NewCSVWith is NewCSV with limits on rows, columns and field length (a
+// zero field takes its default). Going over one stops the file: a field
+// longer than the limit is most often a stray quote that joined many lines.
+func NewCSVWith(file string, data []byte, lim limits.Limits) (*CSVReader, error) {
+	lim = lim.Or()
 	if bytes.HasPrefix(data, []byte{0xFF, 0xFE}) || bytes.HasPrefix(data, []byte{0xFE, 0xFF}) {
 		return nil, diag.At(file, 1, 1, "the file is UTF-16 encoded; save it as UTF-8 (in a spreadsheet: \"CSV UTF-8 (comma delimited)\")")
 	}
@@ -42,7 +53,7 @@ func NewCSV(file string, data []byte) (*CSVReader, error) {
 	if !utf8.Valid(data) {
 		return nil, encodingProblem(file, data)
 	}
-	r := &CSVReader{file: file, line: 1, col: 1}
+	r := &CSVReader{file: file, line: 1, col: 1, lim: lim}
 	if len(data) > 0 {
 		r.data = unsafe.String(&data[0], len(data))
 	}
@@ -115,6 +126,11 @@ func (r *CSVReader) Next() ([]Cell, error) {
 	if err != nil {
 		return nil, err
 	}
+	r.rows++
+	if r.rows > r.lim.Rows {
+		r.done = true
+		return nil, diag.At(r.file, row[0].Line, row[0].Col, "the file has %s", r.lim.Over(limits.Rows, r.lim.Rows+1, "split it into several files (the brief's values: takes a list)"))
+	}
 	if len(row) != len(r.header) {
 		return nil, r.ragged(row)
 	}
@@ -162,6 +178,14 @@ func (r *CSVReader) record() ([]Cell, error) {
 		if err != nil {
 			r.done = true
 			return nil, err
+		}
+		if int64(len(cell.Text)) > r.lim.CellBytes {
+			r.done = true
+			return nil, diag.At(r.file, cell.Line, cell.Col, "the field starting here is %s", r.lim.Over(limits.CellBytes, int64(len(cell.Text)), "if it should not be this long, look for a stray double quote that joins many lines into one field"))
+		}
+		if int64(len(r.row)) >= r.lim.Columns {
+			r.done = true
+			return nil, diag.At(r.file, cell.Line, cell.Col, "line %d has %s", r.row[0].Line, r.lim.Over(limits.Columns, r.lim.Columns+1, "check the separators of this line"))
 		}
 		r.row = append(r.row, cell)
 		if end {

@@ -18,11 +18,12 @@ import (
 	"strings"
 
 	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 )
 
-// MaxFileBytes caps a single CSV file, or a single part of an XLSX
-// workbook once uncompressed (stated in the README's limits). A world-sized
-// values file of 4.3 million rows is about 170 MB.
+// MaxFileBytes is the default cap on a single data file (limits.Default's
+// FileBytes). A world-sized values file of 4.3 million rows is about
+// 110 MB.
 const MaxFileBytes = 1 << 30
 
 // Cell is one field and where it was written. For CSV, Line is the
@@ -59,14 +60,23 @@ type RowReader interface {
 // may name a sheet after a '#': "data.xlsx#Values"; without one the first
 // sheet is read.
 func Open(fsys fs.FS, name string) (RowReader, error) {
+	return OpenWith(fsys, name, limits.Default())
+}
+
+// OpenWith is Open with the given limits on file size, rows, columns,
+// cell length and (for XLSX) sheet cells; a zero field takes its default.
+// Going over a limit stops the file with a message that names the limit
+// and the --limit override.
+func OpenWith(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
+	lim = lim.Or()
 	file, sheet, _ := strings.Cut(name, "#")
 	switch strings.ToLower(path.Ext(file)) {
 	case ".xlsx", ".xlsm":
-		data, err := readFile(fsys, file)
+		data, err := readFile(fsys, file, lim)
 		if err != nil {
 			return nil, err
 		}
-		t, err := ParseXLSX(name, data, sheet)
+		t, err := ParseXLSXWith(name, data, sheet, lim)
 		if err != nil {
 			return nil, err
 		}
@@ -75,11 +85,11 @@ func Open(fsys fs.FS, name string) (RowReader, error) {
 		if sheet != "" {
 			return nil, diag.At(name, 0, 0, "only an XLSX workbook has sheets; remove %q from the path", "#"+sheet)
 		}
-		data, err := readFile(fsys, file)
+		data, err := readFile(fsys, file, lim)
 		if err != nil {
 			return nil, err
 		}
-		return NewCSV(file, data)
+		return NewCSVWith(file, data, lim)
 	case ".xls":
 		return nil, diag.At(file, 0, 0, "the old Excel 97-2003 format (.xls) is not read; save the workbook as .xlsx or export the sheet as CSV UTF-8")
 	case ".ods":
@@ -90,7 +100,12 @@ func Open(fsys fs.FS, name string) (RowReader, error) {
 
 // ReadTable reads a whole table; see Open.
 func ReadTable(fsys fs.FS, name string) (*Table, error) {
-	r, err := Open(fsys, name)
+	return ReadTableWith(fsys, name, limits.Default())
+}
+
+// ReadTableWith is ReadTable with the given limits; see OpenWith.
+func ReadTableWith(fsys fs.FS, name string, lim limits.Limits) (*Table, error) {
+	r, err := OpenWith(fsys, name, lim)
 	if err != nil {
 		return nil, err
 	}
@@ -134,7 +149,8 @@ func (r *tableReader) Next() ([]Cell, error) {
 	return r.t.Rows[r.i-1], nil
 }
 
-func readFile(fsys fs.FS, name string) ([]byte, error) {
+func readFile(fsys fs.FS, name string, lim limits.Limits) ([]byte, error) {
+	max := lim.FileBytes
 	f, err := fsys.Open(name)
 	if err != nil {
 		return nil, diag.At(name, 0, 0, "cannot open the file: %s; check the path, which is relative to the brief's folder", describeOpenErr(err))
@@ -145,8 +161,8 @@ func readFile(fsys fs.FS, name string) ([]byte, error) {
 		if st.IsDir() {
 			return nil, diag.At(name, 0, 0, "this is a folder, not a file; name the file inside it")
 		}
-		if st.Size() > MaxFileBytes {
-			return nil, diag.At(name, 0, 0, "file is %d bytes, over the limit of %d bytes", st.Size(), int64(MaxFileBytes))
+		if st.Size() > max {
+			return nil, tooLarge(name, st.Size(), lim)
 		}
 		size = st.Size()
 	}
@@ -162,16 +178,20 @@ func readFile(fsys fs.FS, name string) ([]byte, error) {
 		// The file is longer than its stated size (it is growing, or the
 		// file system does not know); read the rest.
 		var rest []byte
-		rest, err = io.ReadAll(io.LimitReader(f, MaxFileBytes))
+		rest, err = io.ReadAll(io.LimitReader(f, max))
 		data = append(data, rest...)
 	}
 	if err != nil {
 		return nil, diag.At(name, 0, 0, "cannot read the file: %s", describeOpenErr(err))
 	}
-	if len(data) > MaxFileBytes {
-		return nil, diag.At(name, 0, 0, "file is over the limit of %d bytes", int64(MaxFileBytes))
+	if int64(len(data)) > max {
+		return nil, tooLarge(name, int64(len(data)), lim)
 	}
 	return data, nil
+}
+
+func tooLarge(name string, size int64, lim limits.Limits) error {
+	return diag.At(name, 0, 0, "the file is %s", lim.Over(limits.FileBytes, size, ""))
 }
 
 func describeOpenErr(err error) string {

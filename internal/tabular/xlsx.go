@@ -12,13 +12,16 @@ import (
 	"strings"
 
 	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 	"peerpack/internal/yamlx"
 )
 
 // Limits that keep a hostile workbook (a "zip bomb") from exhausting
-// memory: no part may inflate beyond MaxPartBytes, and all parts read
-// together beyond MaxFileBytes. The sizes are counted while inflating, not
-// taken from the archive's headers, which can lie.
+// memory: no part may inflate beyond MaxPartBytes (or the file limit, when
+// lower), and all parts read together beyond the file limit
+// (limits.Limits.FileBytes). The sizes are counted while inflating, not
+// taken from the archive's headers, which can lie. A sheet is held in
+// memory whole, so its rows x columns are capped too (SheetCells).
 const (
 	MaxPartBytes = 256 << 20
 	maxZipParts  = 10000
@@ -50,6 +53,8 @@ type xlsxBook struct {
 	file  string
 	zr    *zip.Reader
 	total int64
+	lim   limits.Limits
+	part  int64 // the cap on one part
 }
 
 // ParseXLSX reads one sheet of an Office Open XML workbook (ECMA-376)
@@ -59,6 +64,13 @@ type xlsxBook struct {
 // line 12, column 3. The first non-empty row is the header; empty rows are
 // skipped; short rows are padded with empty cells.
 func ParseXLSX(file string, data []byte, sheet string) (*Table, error) {
+	return ParseXLSXWith(file, data, sheet, limits.Default())
+}
+
+// ParseXLSXWith is ParseXLSX with the given limits (a zero field takes its
+// default).
+func ParseXLSXWith(file string, data []byte, sheet string, lim limits.Limits) (*Table, error) {
+	lim = lim.Or()
 	zr, err := zip.NewReader(bytes.NewReader(data), int64(len(data)))
 	if err != nil {
 		return nil, diag.At(file, 0, 0, "not a readable XLSX workbook (%v); save it again from the spreadsheet as .xlsx, or export the sheet as CSV UTF-8", err)
@@ -66,7 +78,7 @@ func ParseXLSX(file string, data []byte, sheet string) (*Table, error) {
 	if len(zr.File) > maxZipParts {
 		return nil, diag.At(file, 0, 0, "the workbook has %d parts, over the limit of %d", len(zr.File), maxZipParts)
 	}
-	bk := &xlsxBook{file: file, zr: zr}
+	bk := &xlsxBook{file: file, zr: zr, lim: lim, part: min(partLimit, lim.FileBytes)}
 	wbPath := "xl/workbook.xml"
 	if rels, err := bk.rels("_rels/.rels"); err == nil {
 		for _, r := range rels.Rels {
@@ -140,14 +152,14 @@ func (bk *xlsxBook) open(name string) (io.Reader, func(), error) {
 		if f.Name != name {
 			continue
 		}
-		if f.UncompressedSize64 > uint64(partLimit) {
-			return nil, nil, diag.At(bk.file, 0, 0, "workbook part %s inflates to %d bytes, over the limit of %d", name, f.UncompressedSize64, partLimit)
+		if f.UncompressedSize64 > uint64(bk.part) {
+			return nil, nil, diag.At(bk.file, 0, 0, "workbook part %s inflates to %s bytes, over the limit of %s bytes for one part; the file may be damaged or hostile: save it again from the spreadsheet, or export the sheet as CSV UTF-8", name, limits.Group(int64(min(f.UncompressedSize64, 1<<62))), limits.Group(bk.part))
 		}
 		rc, err := f.Open()
 		if err != nil {
 			return nil, nil, diag.At(bk.file, 0, 0, "cannot read workbook part %s: %v; save the workbook again", name, err)
 		}
-		return &limitedPart{r: rc, left: partLimit, bk: bk, name: name}, func() { rc.Close() }, nil
+		return &limitedPart{r: rc, left: bk.part, bk: bk, name: name}, func() { rc.Close() }, nil
 	}
 	return nil, nil, diag.At(bk.file, 0, 0, "the workbook has no part %s; it is not a complete XLSX file, so save it again from the spreadsheet", name)
 }
@@ -165,7 +177,7 @@ func (l *limitedPart) Read(p []byte) (int, error) {
 	n, err := l.r.Read(p)
 	l.left -= int64(n)
 	l.bk.total += int64(n)
-	if l.left < 0 || l.bk.total > MaxFileBytes {
+	if l.left < 0 || l.bk.total > l.bk.lim.FileBytes {
 		return n, errTooBig
 	}
 	return n, err
@@ -173,7 +185,10 @@ func (l *limitedPart) Read(p []byte) (int, error) {
 
 func (bk *xlsxBook) partErr(name string, err error) error {
 	if errors.Is(err, errTooBig) {
-		return diag.At(bk.file, 0, 0, "workbook part %s inflates beyond the limit of %d bytes; the file may be damaged or hostile", name, partLimit)
+		if bk.total > bk.lim.FileBytes {
+			return diag.At(bk.file, 0, 0, "the workbook inflates to %s", bk.lim.Over(limits.FileBytes, bk.total, "the file may be damaged or hostile; export the sheet as CSV UTF-8"))
+		}
+		return diag.At(bk.file, 0, 0, "workbook part %s inflates beyond the limit of %s bytes for one part; the file may be damaged or hostile: save it again from the spreadsheet, or export the sheet as CSV UTF-8", name, limits.Group(bk.part))
 	}
 	if errors.Is(err, zip.ErrFormat) || errors.Is(err, zip.ErrChecksum) || errors.Is(err, zip.ErrAlgorithm) {
 		return diag.At(bk.file, 0, 0, "workbook part %s is damaged (%v); save the workbook again from the spreadsheet", name, err)
@@ -237,6 +252,9 @@ func (bk *xlsxBook) sharedStrings(name string) ([]string, error) {
 			switch t.Name.Local {
 			case "si":
 				inSI = false
+				if int64(sb.Len()) > bk.lim.CellBytes {
+					return nil, diag.At(bk.file, 0, 0, "shared string %d of the workbook is %s", len(out), bk.lim.Over(limits.CellBytes, int64(sb.Len()), ""))
+				}
 				out = append(out, sb.String())
 			case "t":
 				inT = false
@@ -310,6 +328,7 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 		nextCol int
 	)
 	var probs diag.List
+	var overflow error // a limit was reached; reading stops
 	flush := func() {
 		if !inRow {
 			return
@@ -329,6 +348,10 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 			for _, c := range cells {
 				width = max(width, c.col)
 			}
+			if int64(width) > bk.lim.Columns {
+				overflow = diag.At(bk.file, rowNum, 1, "the header row %d has %s", rowNum, bk.lim.Over(limits.Columns, int64(width), "delete unused columns"))
+				return
+			}
 			t.Header = make([]Cell, width)
 			for i := range t.Header {
 				t.Header[i] = Cell{Line: rowNum, Col: i + 1}
@@ -336,6 +359,14 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 			for _, c := range cells {
 				t.Header[c.col-1].Text = c.text
 			}
+			return
+		}
+		if int64(len(t.Rows)) >= bk.lim.Rows {
+			overflow = diag.At(bk.file, rowNum, 1, "the sheet has %s", bk.lim.Over(limits.Rows, bk.lim.Rows+1, "split it into several files"))
+			return
+		}
+		if int64(len(t.Rows)+1)*int64(len(t.Header)) > bk.lim.SheetCells {
+			overflow = diag.At(bk.file, rowNum, 1, "the sheet has %s", bk.lim.Over(limits.SheetCells, bk.lim.SheetCells+1, "export it as CSV UTF-8, which is read row by row"))
 			return
 		}
 		row := make([]Cell, len(t.Header))
@@ -366,6 +397,9 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 			switch e.Name.Local {
 			case "row":
 				flush()
+				if overflow != nil {
+					return nil, overflow
+				}
 				inRow = true
 				cells = cells[:0]
 				nextCol = 1
@@ -395,8 +429,8 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 						cur.col = c
 					}
 				}
-				if cur.col > maxColumns {
-					return nil, diag.At(bk.file, rowNum, 0, "row %d has more than %d columns", rowNum, maxColumns)
+				if cur.col > maxColumns || int64(cur.col) > bk.lim.Columns {
+					return nil, diag.At(bk.file, rowNum, min(cur.col, maxColumns), "row %d has %s", rowNum, bk.lim.Over(limits.Columns, int64(min(cur.col, maxColumns)), "delete the cells beyond the last column"))
 				}
 			case "v":
 				cur.inV = true
@@ -409,6 +443,9 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 			switch e.Name.Local {
 			case "row":
 				flush()
+				if overflow != nil {
+					return nil, overflow
+				}
 			case "v":
 				cur.inV = false
 			case "is":
@@ -420,6 +457,10 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 				if err != nil {
 					probs.Addf(bk.file, rowNum, cur.col, "cell %s%d: %v", ColumnName(cur.col), rowNum, err)
 				}
+				if int64(len(text)) > bk.lim.CellBytes {
+					probs.Addf(bk.file, rowNum, cur.col, "cell %s%d is %s", ColumnName(cur.col), rowNum, bk.lim.Over(limits.CellBytes, int64(len(text)), ""))
+					text = ""
+				}
 				cells = append(cells, xlsxCell{col: cur.col, text: text})
 				nextCol = cur.col + 1
 			}
@@ -430,6 +471,9 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 		}
 	}
 	flush()
+	if overflow != nil {
+		return nil, overflow
+	}
 	if t.Header == nil {
 		probs.Addf(bk.file, 0, 0, "the sheet is empty; it needs a header row naming its columns")
 		return nil, probs.Err()

@@ -1,0 +1,39 @@
+package format
+
+import (
+	"math"
+	"testing"
+)
+
+// Signs: plus for gains, the Unicode minus sign U+2212 for losses (the
+// sign typographic practice prints, common practice, no source), nothing
+// on a value that rounds to zero; rounding half away from zero as Number.
+func TestSignedNumber(t *testing.T) {
+	cases := []struct {
+		v    float64
+		d    int
+		want string
+	}{
+		{1.254, 2, "+1.25"}, {-0.4, 2, "−0.40"}, {0, 2, "0.00"}, {-0.004, 2, "0.00"}, {0.005, 2, "+0.01"},
+		{-1234.5, 0, "−1,235"}, {2.675, 2, "+2.68"}, {math.NaN(), 2, "–"}, {math.Inf(1), 1, "–"},
+	}
+	for _, c := range cases {
+		if got := SignedNumber(c.v, c.d); got != c.want {
+			t.Errorf("SignedNumber(%v, %d) = %q, want %q", c.v, c.d, got, c.want)
+		}
+	}
+}
+
+func TestSignedPercent(t *testing.T) {
+	cases := []struct {
+		v    float64
+		want string
+	}{
+		{12.46, "+12.5%"}, {-3, "−3.0%"}, {0.04, "0.0%"}, {math.NaN(), "–"}, {math.Inf(-1), "–"},
+	}
+	for _, c := range cases {
+		if got := SignedPercent(c.v); got != c.want {
+			t.Errorf("SignedPercent(%v) = %q, want %q", c.v, got, c.want)
+		}
+	}
+}

@@ -96,7 +96,7 @@ func (l *loader) convertPPP(d *Dataset) {
 		}
 	}
 	if l.data.PPP != "" {
-		t, err := tabular.ReadTable(l.fsys, l.data.PPP)
+		t, err := tabular.ReadTableWith(l.fsys, l.data.PPP, l.lim)
 		l.probs.Add(err)
 		if t != nil {
 			p, err := ReadPPP(t)

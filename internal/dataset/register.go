@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 	"peerpack/internal/tabular"
 	"peerpack/internal/yamlx"
 )
@@ -114,12 +115,17 @@ func ReadRegister(t *tabular.Table) (*Register, error) {
 func quote(s string) string { return "\"" + s + "\"" }
 
 func (l *loader) register(name string) *Register {
-	t, err := tabular.ReadTable(l.fsys, name)
+	t, err := tabular.ReadTableWith(l.fsys, name, l.lim)
 	if err != nil {
 		l.probs.Add(err)
 		if t == nil {
 			return nil
 		}
+	}
+	if n := int64(len(t.Rows)); t != nil && l.lim.Exceeded(limits.Institutions, n) {
+		row := t.Rows[l.lim.Institutions]
+		l.probs.Addf(t.File, row[0].Line, row[0].Col, "the register has %s", l.lim.Over(limits.Institutions, n, ""))
+		return nil
 	}
 	r, err := ReadRegister(t)
 	l.probs.Add(err)

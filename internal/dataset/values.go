@@ -55,7 +55,7 @@ func (v *valuesReader) addf(file string, c tabular.Cell, format string, args ...
 const maxProblems = 200
 
 func (v *valuesReader) read(name string) {
-	r, err := tabular.Open(v.l.fsys, name)
+	r, err := tabular.OpenWith(v.l.fsys, name, v.l.lim)
 	if err != nil {
 		v.l.probs.Add(err)
 		return
@@ -249,7 +249,10 @@ func unitViolation(in *Indicator, x float64) string {
 }
 
 func (v *valuesReader) store(file string, fileIdx int, cell tabular.Cell, inst, ind, year int, x float64) {
-	vals, where := v.st.column(year, ind)
+	vals, where := v.st.column(file, cell, year, ind)
+	if v.st.over != nil {
+		return
+	}
 	code := whereCode(fileIdx, cell)
 	if prev := where[inst]; prev != 0 {
 		v.addf(file, cell, "%s, %s, %d has a value twice: here and at %s; keep one", v.reg.Institutions[inst].ID, v.dict.Indicators[ind].Key, year, v.st.place(prev))
@@ -278,6 +281,9 @@ func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string
 		if err != nil {
 			v.l.probs.Add(err)
 			continue
+		}
+		if v.st.over != nil {
+			break
 		}
 		rows++
 		inst := v.institution(file, row[ic])
@@ -349,6 +355,9 @@ func (v *valuesReader) readWide(r tabular.RowReader, fileIdx int, ic, yc int) in
 		if err != nil {
 			v.l.probs.Add(err)
 			continue
+		}
+		if v.st.over != nil {
+			break
 		}
 		rows++
 		inst := v.institution(file, row[ic])

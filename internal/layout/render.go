@@ -99,6 +99,7 @@ func pass(in Input, known *passRecord) (*writer, error) {
 	}
 	w.register()
 	w.indexBlocks()
+	w.own = w.findOwnCautions()
 	doc.SetFurniture(w.header, w.footer)
 	w.cover()
 	w.contents()

@@ -75,6 +75,9 @@ type writer struct {
 	funcs             map[ast.NodeKind]nodeFunc
 	blockAt           map[int]brief.Block
 	imageCache        map[string]*pdf.ImageInfo
+	// own is the brief's own cautions section, nil when it has none; the
+	// closing section then states only what it leaves out.
+	own *ownCautions
 }
 
 // passRecord is what the first pass learns for the second.

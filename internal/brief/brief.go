@@ -355,8 +355,27 @@ type ColumnsBlock struct {
 // Kind implements Block.
 func (*ColumnsBlock) Kind() string { return "columns" }
 
+// AppendixBlock writes a section of the pack from the brief and the
+// figures themselves, so it never goes stale: methodology (sources,
+// definitions, groups, population rules, PPP, quantile method, coverage,
+// cautions) or data (every value the pack uses for the focus and the
+// named institutions, with group medians).
+type AppendixBlock struct {
+	BlockBase `yaml:",inline"`
+	// Type is methodology or data.
+	Type       string   `yaml:"kind"`
+	Indicators []string `yaml:"indicators"`
+	Groups     []string `yaml:"groups"`
+}
+
+// Kind implements Block.
+func (*AppendixBlock) Kind() string { return "appendix" }
+
+// AppendixKinds are the appendix kinds.
+var AppendixKinds = []string{"methodology", "data"}
+
 // BlockKinds are the fence info strings peerpack recognises.
-var BlockKinds = []string{"chart", "table", "commentary", "pagebreak", "columns"}
+var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns"}
 
 // ChartKinds are the chart kinds.
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars"}

@@ -408,6 +408,8 @@ func DecodeBlock(file, info string, content []byte, fenceLine int) (Block, error
 		blk = &TableBlock{}
 	case "commentary":
 		blk = &CommentaryBlock{}
+	case "appendix":
+		blk = &AppendixBlock{}
 	case "pagebreak":
 		blk = &PageBreakBlock{}
 	case "columns":
@@ -432,6 +434,8 @@ func DecodeBlock(file, info string, content []byte, fenceLine int) (Block, error
 	case *TableBlock:
 		v.At = pos
 	case *CommentaryBlock:
+		v.At = pos
+	case *AppendixBlock:
 		v.At = pos
 	case *PageBreakBlock:
 		v.At = pos
@@ -509,6 +513,14 @@ func (b *Brief) validateBlocks() error {
 				if !oneOf(t, CommentaryTopics) {
 					bad(v, "unknown commentary topic %q (topics are %s)", t, quoteList(CommentaryTopics))
 				}
+			}
+		case *AppendixBlock:
+			if !oneOf(v.Type, AppendixKinds) {
+				msg := fmt.Sprintf("unknown appendix kind %q", v.Type)
+				if s := yamlx.Nearest(v.Type, AppendixKinds); s != "" && v.Type != "" {
+					msg += fmt.Sprintf("; did you mean %q?", s)
+				}
+				bad(v, "%s (kinds are %s)", msg, quoteList(AppendixKinds))
 			}
 		case *ColumnsBlock:
 			if v.Count < 1 || v.Count > 3 {

@@ -72,6 +72,13 @@ type Indicator struct {
 	// carries a caution.
 	Judgement string `yaml:"judgement,omitempty"`
 
+	// InternationalDollars is set by the loader, never by the dictionary:
+	// the values are in international dollars (PPP$), because the indicator
+	// was converted with the PPP factors (currency: true) or is a derived
+	// currency amount computed from converted ones. Printing uses it for
+	// the PPP$ prefix.
+	InternationalDollars bool `yaml:"-"`
+
 	// Line and Column locate the entry in the dictionary file, for
 	// messages.
 	Line   int `yaml:"-"`

@@ -45,9 +45,11 @@ func (l *loader) derive(d *Dataset, defs map[string]*Derived) {
 			msg := fmt.Sprintf("derive of %q reads %q, which is neither an indicator key in the dictionary nor a register column", k, ref)
 			if s := yamlx.Nearest(ref, names); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
+			} else {
+				msg += "; add it to the dictionary or the register, or correct the name"
 			}
 			if oneOf(ref, registerColumns) {
-				msg = fmt.Sprintf("derive of %q reads %q, a text column of the register; derivations read numbers only", k, ref)
+				msg = fmt.Sprintf("derive of %q reads %q, a text column of the register; derivations read numbers only, so use an indicator key or a numeric register column", k, ref)
 			}
 			l.probs.Addf(dict.File, def.Line, def.Col+def.Expr.RefAt(ref)-1, "%s", msg)
 			usable = false

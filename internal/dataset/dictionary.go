@@ -1,7 +1,9 @@
 package dataset
 
 import (
+	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"strings"
 
@@ -9,6 +11,7 @@ import (
 
 	"peerpack/internal/derive"
 	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 	"peerpack/internal/yamlx"
 )
 
@@ -36,7 +39,7 @@ func ParseDictionary(file string, src []byte) (*Dictionary, map[string]*Derived,
 	var probs diag.List
 	node, err := yamlx.Parse(file, src, 0)
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, withSyntaxHint(err)
 	}
 	var df dictionaryFile
 	if err := yamlx.Decode(file, node, &df); err != nil {
@@ -234,15 +237,72 @@ func oneOf(v string, set []string) bool {
 }
 
 func (l *loader) dictionary(name string) (*Dictionary, map[string]*Derived) {
-	src, err := fs.ReadFile(l.fsys, name)
+	src, size, err := readBounded(l.fsys, name, l.lim.YAMLBytes)
 	if err != nil {
 		l.probs.Add(openProblem(name, err))
 		return nil, nil
 	}
+	if l.lim.Exceeded(limits.YAMLBytes, size) {
+		l.probs.Addf(name, 0, 0, "the dictionary is %s", l.lim.Over(limits.YAMLBytes, size, ""))
+		return nil, nil
+	}
 	d, derived, err := ParseDictionary(name, src)
 	l.probs.Add(err)
+	if d != nil && l.lim.Exceeded(limits.Indicators, int64(len(d.Indicators))) {
+		ind := d.Indicators[l.lim.Indicators]
+		l.probs.Addf(name, ind.Line, ind.Column, "the dictionary has %s", l.lim.Over(limits.Indicators, int64(len(d.Indicators)), ""))
+		return nil, nil
+	}
 	if d != nil {
 		l.rep.Files = append(l.rep.Files, FileSummary{Role: "dictionary", Path: name, Rows: len(d.Indicators)})
 	}
 	return d, derived
+}
+
+// readBounded reads a file, but never more than max+1 bytes, so a huge file
+// named as a dictionary costs no memory before it is refused: over max, it
+// returns no data and the size (exact when the file system states it).
+func readBounded(fsys fs.FS, name string, max int64) ([]byte, int64, error) {
+	f, err := fsys.Open(name)
+	if err != nil {
+		return nil, 0, err
+	}
+	defer f.Close()
+	if st, err := f.Stat(); err == nil && st.Size() > max {
+		return nil, st.Size(), nil
+	}
+	data, err := io.ReadAll(io.LimitReader(f, max+1))
+	if err != nil {
+		return nil, 0, err
+	}
+	if int64(len(data)) > max {
+		return nil, int64(len(data)), nil
+	}
+	return data, int64(len(data)), nil
+}
+
+// withSyntaxHint adds the usual cause and fix to a YAML syntax error, whose
+// parser wording ("mapping values are not allowed in this context") says
+// what the parser saw rather than what the writer did.
+func withSyntaxHint(err error) error {
+	var ye *yamlx.Error
+	if !errors.As(err, &ye) || !strings.HasPrefix(ye.Msg, "YAML syntax") {
+		return err
+	}
+	hint := "check the indentation (spaces, not tabs, entries of a list lined up under each other) and put a value containing \": \" or \" #\" in quotes"
+	switch m := ye.Msg; {
+	case strings.Contains(m, "mapping values are not allowed"):
+		hint = "a value containing \": \" must be in quotes (label: \"Staff: academic\"), or a line is indented under one that already has a value"
+	case strings.Contains(m, "did not find expected key"), strings.Contains(m, "did not find expected '-' indicator"):
+		hint = "check the indentation: the keys of one indicator line up under each other, and each indicator starts with \"- \""
+	case strings.Contains(m, "cannot start any token"):
+		hint = "indent with spaces, not tabs, and put a value starting with @, ` or % in quotes"
+	case strings.Contains(m, "could not find expected ':'"):
+		hint = "a key lacks its colon, or a quoted value is not closed"
+	case strings.Contains(m, "did not find expected node content"), strings.Contains(m, "did not find expected ',' or ']'"), strings.Contains(m, "did not find expected ',' or '}'"):
+		hint = "a [list] or {mapping} written on one line is not closed, or a value in it needs quotes"
+	}
+	e := *ye
+	e.Msg += "; " + hint
+	return &e
 }

@@ -145,12 +145,13 @@ func (l *loader) load() *Dataset {
 
 	if n := int64(len(st.years)) * int64(len(dict.Indicators)) * int64(reg.Len()); l.lim.Exceeded(limits.Values, n) {
 		p := b.PosOf("data.values")
-		l.probs.Addf(b.File, p.Line, p.Column, "the data would hold %d institutions x %d indicators x %d years = %s", reg.Len(), len(dict.Indicators), len(st.years), l.lim.Over(limits.Values, n, "drop years or indicators the brief does not use"))
+		l.probs.Addf(b.File, p.Line, p.Column, "the data would hold %s institutions x %d indicators x %d years = %s", limits.Group(int64(reg.Len())), len(dict.Indicators), len(st.years), l.lim.Over(limits.Values, n, "drop years or indicators the brief does not use"))
 		return nil
 	}
 	d := l.assemble(reg, dict, st)
 	l.convertPPP(d)
 	l.derive(d, derived)
+	markInternational(d, derived)
 	l.population(d)
 	l.summarise(d)
 	return d

@@ -12,6 +12,7 @@ import (
 	"testing/fstest"
 
 	"peerpack/internal/brief"
+	"peerpack/internal/limits"
 )
 
 // load parses a brief from text and loads it over an in-memory folder.
@@ -338,9 +339,10 @@ func FuzzDictionary(f *testing.F) {
 // and never leave an infinity in the data.
 func FuzzLoad(f *testing.F) {
 	files := testFiles()
-	f.Add([]byte(files["long.csv"]), []byte(files["dict.yaml"]), []byte(files["ppp.csv"]))
-	f.Add([]byte("institution,year,papers,citations\nA1,2024,1,\"2\"\n"), []byte(testDict), []byte("country,year,factor\n"))
-	f.Fuzz(func(t *testing.T, values, dict, ppp []byte) {
+	f.Add([]byte(files["long.csv"]), []byte(files["dict.yaml"]), []byte(files["ppp.csv"]), false)
+	f.Add([]byte(files["long.csv"]), []byte(files["dict.yaml"]), []byte(files["ppp.csv"]), true)
+	f.Add([]byte("institution,year,papers,citations\nA1,2024,1,\"2\"\n"), []byte(testDict), []byte("country,year,factor\n"), false)
+	f.Fuzz(func(t *testing.T, values, dict, ppp []byte, tight bool) {
 		b, err := brief.Parse("brief.md", []byte(testBrief))
 		if err != nil {
 			t.Fatal(err)
@@ -352,7 +354,12 @@ func FuzzLoad(f *testing.F) {
 			"wide.csv":  {Data: []byte("institution,year\n")},
 			"ppp.csv":   {Data: ppp},
 		}
-		d, rep, err := Load(fsys, b)
+		// Tight limits make every limit reachable by small inputs.
+		lim := limits.Default()
+		if tight {
+			lim = limits.Limits{Rows: 12, Columns: 6, CellBytes: 40, Indicators: 8, Years: 3, Values: 90, YAMLBytes: 1200}.Or()
+		}
+		d, rep, err := LoadWith(fsys, b, lim)
 		if rep == nil {
 			t.Fatal("no report")
 		}

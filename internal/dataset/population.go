@@ -47,6 +47,10 @@ func (l *loader) population(d *Dataset) {
 			l.probs.Addf(b.File, r.Pos.Line, r.Pos.Column, "min_total of %q needs years: 1 or more (the span summed, ending at the brief's year %d)", r.Indicator, b.Year)
 			continue
 		}
+		if math.IsNaN(r.AtLeast) || math.IsInf(r.AtLeast, 0) {
+			l.probs.Addf(b.File, r.Pos.Line, r.Pos.Column, "min_total of %q needs at_least: a number (found %v); write the smallest total to keep, e.g. at_least: 1000", r.Indicator, r.AtLeast)
+			continue
+		}
 		if ind < 0 {
 			continue
 		}
@@ -75,6 +79,10 @@ func (l *loader) population(d *Dataset) {
 	}
 	for _, r := range spec.MaxValue {
 		ind := indicator(r.Indicator, r.Pos.Line, r.Pos.Column)
+		if math.IsNaN(r.AtMost) || math.IsInf(r.AtMost, 0) {
+			l.probs.Addf(b.File, r.Pos.Line, r.Pos.Column, "max_value of %q needs at_most: a number (found %v); write the largest value to keep, e.g. at_most: 80", r.Indicator, r.AtMost)
+			continue
+		}
 		if ind < 0 {
 			continue
 		}
@@ -97,6 +105,10 @@ func (l *loader) population(d *Dataset) {
 			msg := fmt.Sprintf("population requires register column %q, which %s does not have", attr, d.Register.File)
 			if s := yamlx.Nearest(attr, d.Register.AttrNames); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
+			} else if len(d.Register.AttrNames) > 0 {
+				msg += fmt.Sprintf("; its extra columns are %s", strings.Join(d.Register.AttrNames, ", "))
+			} else {
+				msg += "; add the column to the register or remove it from require:"
 			}
 			l.probs.Addf(b.File, pos.Line, pos.Column, "%s", msg)
 			continue

@@ -215,3 +215,43 @@ func plural(n int, one, many string) string {
 	}
 	return many
 }
+
+// markInternational sets Indicator.InternationalDollars on every
+// indicator whose values are in international dollars: the currency
+// indicators converted with the PPP factors, and the derived currency
+// indicators computed, directly or through other derived indicators, from
+// one of them. A derived currency amount over unconverted inputs (say a
+// register column of local money) is left unmarked.
+func markInternational(d *Dataset, defs map[string]*Derived) {
+	if d.PPP == nil {
+		return
+	}
+	inds := d.Dictionary.Indicators
+	fromConverted := map[string]bool{}
+	for i := range inds {
+		if inds[i].Currency && inds[i].Derive == "" {
+			inds[i].InternationalDollars = true
+			fromConverted[inds[i].Key] = true
+		}
+	}
+	// Derived indicators may refer to each other in any dictionary order;
+	// repeat until nothing changes (at most one pass per derived
+	// indicator, as the order has no cycles once loaded).
+	for changed := true; changed; {
+		changed = false
+		for i := range inds {
+			def := defs[inds[i].Key]
+			if def == nil || fromConverted[inds[i].Key] {
+				continue
+			}
+			for _, ref := range def.Expr.Refs() {
+				if fromConverted[ref] {
+					fromConverted[inds[i].Key] = true
+					inds[i].InternationalDollars = inds[i].Unit == UnitCurrency
+					changed = true
+					break
+				}
+			}
+		}
+	}
+}

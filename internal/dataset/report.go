@@ -60,13 +60,20 @@ type IndicatorCoverage struct {
 
 // Kinds of suspicious value.
 const (
-	SuspectFarOut       = "far from the median"
-	SuspectLowCoverage  = "low coverage year"
-	SuspectOutOfRange   = "derived value out of range"
-	SuspectJump         = "jump from the institution's other years"
-	JumpFactor          = 10.0 // a value this many times its own other years' median (or a tenth of it)
-	FarOutIQRs          = 10.0 // how many interquartile ranges from the median is "far"
-	LowCoverageFraction = 0.5  // a year below this fraction of the usual coverage is flagged
+	SuspectFarOut      = "far from the median"
+	SuspectLowCoverage = "low coverage year"
+	SuspectOutOfRange  = "derived value out of range"
+	SuspectJump        = "jump from the institution's other years"
+	JumpFactor         = 10.0 // a value this many times its own other years' median (or a tenth of it)
+	FarOutIQRs         = 10.0 // how many interquartile ranges from the median is "far"
+	// FarOutLogIQRs is the same distance on a log scale, for counts and
+	// money (see farOutOnLogScale): 3 IQRs of the logarithms, the width
+	// of Tukey's (1977) "far out" fences, flags no institution of the demo
+	// but a thousandfold slip of a typical one in every indicator whose
+	// middle half spans less than a factor of 8 (common practice, no
+	// source).
+	FarOutLogIQRs       = 3.0
+	LowCoverageFraction = 0.5 // a year below this fraction of the usual coverage is flagged
 )
 
 // Suspicion is one value (or year) worth checking.

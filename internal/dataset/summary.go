@@ -76,6 +76,11 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 	far := map[int]*farOut{}
 	var farOrder []int
 	withValue := make([]int, n) // years with a value, per institution
+	logScale := farOutOnLogScale(in.Unit)
+	limit := FarOutIQRs
+	if logScale {
+		limit = FarOutLogIQRs
+	}
 	for y, year := range d.Years {
 		col := d.cols[ind*len(d.Years)+y]
 		for inst, v := range col {
@@ -84,33 +89,40 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 			}
 		}
 		buf = buf[:0]
+		present := 0
 		for _, v := range col {
-			if !math.IsNaN(v) {
-				buf = append(buf, v)
+			if math.IsNaN(v) {
+				continue
+			}
+			present++
+			if t, ok := farOutScale(v, logScale); ok {
+				buf = append(buf, t)
 			}
 		}
-		ic.Values = append(ic.Values, len(buf))
+		ic.Values = append(ic.Values, present)
 		cov := 0.0
 		if n > 0 {
-			cov = float64(len(buf)) / float64(n)
+			cov = float64(present) / float64(n)
 		}
 		ic.Coverage = append(ic.Coverage, cov)
-		if len(buf) < 4 {
-			continue
+		if len(buf) >= 4 {
+			sort.Float64s(buf)
 		}
-		sort.Float64s(buf)
 		// Hyndman and Fan (1996) type 7 quartiles, the stats package's
 		// default definition.
-		q1 := stats.Quantile(buf, 0.25, stats.Type7)
-		med := stats.Quantile(buf, 0.5, stats.Type7)
-		q3 := stats.Quantile(buf, 0.75, stats.Type7)
+		var q1, med, q3 float64
+		if len(buf) >= 4 {
+			q1 = stats.Quantile(buf, 0.25, stats.Type7)
+			med = stats.Quantile(buf, 0.5, stats.Type7)
+			q3 = stats.Quantile(buf, 0.75, stats.Type7)
+		}
 		iqr := q3 - q1
 		for inst, v := range col {
 			if math.IsNaN(v) {
 				continue
 			}
 			id := d.Register.Institutions[inst].ID
-			if iqr > 0 && math.Abs(v-med) > FarOutIQRs*iqr {
+			if t, ok := farOutScale(v, logScale); ok && len(buf) >= 4 && iqr > 0 && math.Abs(t-med) > limit*iqr {
 				a := far[inst]
 				if a == nil {
 					a = &farOut{}
@@ -123,9 +135,9 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 					}
 				}
 				a.years = append(a.years, year)
-				iqrs := math.Abs(v-med) / iqr
+				iqrs := math.Abs(t-med) / iqr
 				if iqrs > a.score {
-					a.score, a.worstYear, a.worstValue, a.worstMedian = iqrs, year, v, med
+					a.score, a.worstYear, a.worstValue, a.worstMedian = iqrs, year, v, farOutUnscale(med, logScale)
 				}
 			}
 			if in.Derive != "" {
@@ -153,22 +165,37 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 	}
 	// One finding per institution: a value far out in every year is
 	// more likely a large institution than a slip, and says so.
+	rule := fmt.Sprintf("over %.0f interquartile ranges from the median", limit)
+	if logScale {
+		rule = fmt.Sprintf("over %.0f interquartile ranges from the median on a log scale", limit)
+	}
 	for _, inst := range farOrder {
 		a := far[inst]
 		id := d.Register.Institutions[inst].ID
 		worst := fmt.Sprintf("at most %.0f: %s in %d against %s", a.score, fmtVal(a.worstValue, in.Decimals), a.worstYear, fmtVal(a.worstMedian, in.Decimals))
+		if logScale {
+			worst = fmt.Sprintf("%s in %d, %s", fmtVal(a.worstValue, in.Decimals), a.worstYear, timesMedian(a.worstValue, a.worstMedian, in.Decimals))
+		}
+		if in.InternationalDollars {
+			worst += ", in international dollars after PPP conversion"
+		}
 		score := a.score
 		var msg string
 		switch {
 		case len(a.years) == 1:
-			msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in %d (%s); check the unit and the digits", in.Key, id, FarOutIQRs, a.worstYear, worst)
+			msg = fmt.Sprintf("%s of %s is %s in %d (%s); check the unit and the digits", in.Key, id, rule, a.worstYear, worst)
 		case len(a.years) == withValue[inst]:
 			// Far out in every year: more likely a large institution
 			// than a slip, so listed after the isolated cases.
 			score /= 1000
-			msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in all %d years (%s); consistent, so more likely a large institution than a slip", in.Key, id, FarOutIQRs, len(a.years), worst)
+			msg = fmt.Sprintf("%s of %s is %s in all %d years (%s); consistent, so more likely a large institution than a slip", in.Key, id, rule, len(a.years), worst)
+			if logScale {
+				// Size alone rarely goes this far on a log scale, so
+				// a whole series written in the wrong unit is as likely.
+				msg = fmt.Sprintf("%s of %s is %s in all %d years (%s); unless the institution really is that different in size, the whole series is in the wrong unit (thousands or millions?)", in.Key, id, rule, len(a.years), worst)
+			}
 		default:
-			msg = fmt.Sprintf("%s of %s is over %.0f interquartile ranges from the median in %d of its %d years, %s (%s); check the unit and the digits", in.Key, id, FarOutIQRs, len(a.years), withValue[inst], yearList(a.years), worst)
+			msg = fmt.Sprintf("%s of %s is %s in %d of its %d years, %s (%s); check the unit and the digits", in.Key, id, rule, len(a.years), withValue[inst], yearList(a.years), worst)
 		}
 		note(Suspicion{Kind: SuspectFarOut, Indicator: in.Key, Institution: id, Year: a.worstYear, Value: a.worstValue, Where: a.where, Msg: msg}, score)
 	}
@@ -318,4 +345,41 @@ func medianWithout(sorted []float64, v float64) float64 {
 		return at(m / 2)
 	}
 	return (at(m/2-1) + at(m/2)) / 2
+}
+
+// farOutOnLogScale says whether the far-from-the-median rule compares
+// logarithms. Counts and money amounts of institutions are right-skewed
+// over orders of magnitude (a large university has a hundred times the
+// papers of a small college), so on the raw scale the rule flags size, not
+// slips; on a log scale it compares ratios, and a unit slip (thousands for
+// units, a missing or extra digit group) still stands out (common practice,
+// no source).
+func farOutOnLogScale(u Unit) bool { return u == UnitCount || u == UnitCurrency }
+
+// farOutScale maps a value onto the scale the rule compares; on the log
+// scale zero and negative values have no logarithm and are not judged.
+func farOutScale(v float64, logScale bool) (float64, bool) {
+	if !logScale {
+		return v, true
+	}
+	if v <= 0 {
+		return 0, false
+	}
+	return math.Log(v), true
+}
+
+func farOutUnscale(t float64, logScale bool) float64 {
+	if logScale {
+		return math.Exp(t)
+	}
+	return t
+}
+
+// timesMedian says how many times the median a value is ("1000 times the
+// median 450", "a 1000th of the median 450").
+func timesMedian(v, med float64, decimals int) string {
+	if v >= med {
+		return fmt.Sprintf("%.0f times the median %s", v/med, fmtVal(med, decimals))
+	}
+	return fmt.Sprintf("1/%.0f of the median %s", med/v, fmtVal(med, decimals))
 }

@@ -172,6 +172,9 @@ func (v *valuesReader) year(file string, c tabular.Cell) int {
 			// Spreadsheets store dates as days since 1899-12-30.
 			hint = "; it looks like a spreadsheet date: format the year column as a plain number, e.g. 2024"
 		}
+		if hint == "" {
+			hint = "; correct the year"
+		}
 		v.addf(file, c, "year %d is out of range; years must be from %d to %d%s", y, MinYear, MaxYear, hint)
 		return 0
 	}
@@ -226,11 +229,14 @@ func unitViolation(in *Indicator, x float64) string {
 			if x > 100 {
 				hint = "; is it a count rather than a percent?"
 			}
+			if hint == "" {
+				hint = "; correct it, or leave the cell empty if the value is unknown"
+			}
 			return fmt.Sprintf("%s is a percent but the value %s lies outside 0..100%s", in.Key, val, hint)
 		}
 	case UnitShare:
 		if x < 0 || x > 1 {
-			hint := ""
+			hint := "; correct it, or leave the cell empty if the value is unknown"
 			if x > 1 && x <= 100 {
 				hint = "; it looks like a percent: divide by 100, or declare unit: percent in the dictionary"
 			}
@@ -238,11 +244,11 @@ func unitViolation(in *Indicator, x float64) string {
 		}
 	case UnitCount:
 		if x < 0 {
-			return fmt.Sprintf("%s is a count but the value %s is negative", in.Key, val)
+			return fmt.Sprintf("%s is a count but the value %s is negative; correct it, or leave the cell empty if the value is unknown", in.Key, val)
 		}
 	case UnitRatio:
 		if x < 0 {
-			return fmt.Sprintf("%s is a ratio but the value %s is negative", in.Key, val)
+			return fmt.Sprintf("%s is a ratio but the value %s is negative; correct it, or leave the cell empty if the value is unknown", in.Key, val)
 		}
 	}
 	return ""

@@ -127,7 +127,7 @@ func (e *Expr) RefAt(name string) int {
 // Parse reads an expression. Errors are *Error with the column.
 func Parse(src string) (*Expr, error) {
 	if len(src) > MaxLength {
-		return nil, &Error{1, fmt.Sprintf("the expression is %d characters long, over the limit of %d", len(src), MaxLength)}
+		return nil, &Error{1, fmt.Sprintf("the expression is %d characters long, over the limit of %d; split it into intermediate derived indicators", len(src), MaxLength)}
 	}
 	if strings.TrimSpace(src) == "" {
 		return nil, &Error{1, "the expression is empty; write e.g. ratio of papers to academic_staff"}
@@ -188,7 +188,7 @@ func (p *parser) word(w string) bool {
 func (p *parser) expect(w string, form string) error {
 	if !p.word(w) {
 		t := p.peek()
-		return &Error{t.col, fmt.Sprintf("expected %q in %q, found %s", w, form, describe(t))}
+		return &Error{t.col, fmt.Sprintf("expected %q in %q, found %s; write it as %s", w, form, describe(t), formExample(form))}
 	}
 	p.next()
 	return nil
@@ -196,7 +196,7 @@ func (p *parser) expect(w string, form string) error {
 
 func (p *parser) expr(depth int) (Node, error) {
 	if depth > MaxDepth {
-		return nil, &Error{p.peek().col, fmt.Sprintf("the expression nests deeper than %d levels", MaxDepth)}
+		return nil, &Error{p.peek().col, fmt.Sprintf("the expression nests deeper than %d levels; remove parentheses or split it into intermediate derived indicators", MaxDepth)}
 	}
 	t := p.peek()
 	if t.kind == tIdent && p.peek2().kind == tIdent && p.peek2().text == "of" {
@@ -327,7 +327,7 @@ func (p *parser) product(depth int) (Node, error) {
 
 func (p *parser) unary(depth int) (Node, error) {
 	if depth > MaxDepth {
-		return nil, &Error{p.peek().col, fmt.Sprintf("the expression nests deeper than %d levels", MaxDepth)}
+		return nil, &Error{p.peek().col, fmt.Sprintf("the expression nests deeper than %d levels; remove parentheses or split it into intermediate derived indicators", MaxDepth)}
 	}
 	t := p.peek()
 	if t.kind == tOp && t.text == "-" {
@@ -347,7 +347,7 @@ func (p *parser) primary(depth int) (Node, error) {
 	case tNum:
 		v, err := strconv.ParseFloat(t.text, 64)
 		if err != nil {
-			return nil, &Error{t.col, fmt.Sprintf("number %s is out of range", t.text)}
+			return nil, &Error{t.col, fmt.Sprintf("number %s is too large to compute with (the most is about 1.8e308); check the digits", t.text)}
 		}
 		return &Num{v, t.col}, nil
 	case tIdent:
@@ -369,4 +369,17 @@ func (p *parser) primary(depth int) (Node, error) {
 		}
 	}
 	return nil, &Error{t.col, fmt.Sprintf("expected a number, a key or \"(\", found %s", describe(t))}
+}
+
+// formExample shows a connective form with real keys, for messages.
+func formExample(form string) string {
+	switch {
+	case strings.HasPrefix(form, "ratio of"):
+		return "ratio of papers to academic_staff"
+	case strings.HasPrefix(form, "share of"):
+		return "share of intl_students in students"
+	case strings.HasPrefix(form, "difference of"):
+		return "difference of income and spending"
+	}
+	return form
 }

@@ -105,7 +105,14 @@ func (w *writer) followingNeed(next ast.Node) float64 {
 		if h <= 0 || h != h {
 			return keepWithNext
 		}
-		return math.Min(h+chartSpacing+2*w.st.lineHeight(captionSize), w.bottom()-w.frameTop()-30)
+		// The chart as setCharts will set it: scaled for its section,
+		// perhaps a little shorter still when it nearly fits.
+		t := w.chartTexts(blk, 0, width)
+		if elastic(blk) {
+			h *= w.plan.chartScale(w.section) * minChartScale
+		}
+		h += t.titleH + t.capH
+		return math.Min(h+chartSpacing, w.bottom()-w.frameTop()-30)
 	case *brief.TableBlock:
 		return 40
 	}
@@ -130,6 +137,9 @@ func (w *writer) setHeading(title string, level int, spans []span) {
 	}
 	if level == 1 && !(w.atFrameTop() && w.cols <= 1) {
 		w.newPage()
+	}
+	if level == 1 {
+		w.section++
 	}
 	size := headingSize(level)
 	lh := w.st.lineHeight(size) * 0.9

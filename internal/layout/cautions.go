@@ -5,7 +5,6 @@ import (
 	"strings"
 
 	"peerpack/internal/dataset"
-	"peerpack/internal/format"
 	"peerpack/internal/pdf"
 )
 
@@ -13,9 +12,20 @@ import (
 // using the figures: coverage, the definitions behind the numbers, and
 // the limits of comparisons like these. The wording is the pack's own
 // fixed text (not commentary on the figures), kept here in one place.
+//
+// When the brief sets out its own cautions (findOwnCautions), the closing
+// refers to that section and adds only the cautions it leaves out, so
+// that each standard caution appears exactly once in the pack.
 func (w *writer) cautions() {
 	w.cols = 1
 	w.sectionHeading("About these figures", 1)
+	if w.own != nil {
+		s := "The cautions that go with these figures are set out in “" + w.own.title + "” above. This section adds the coverage of the data and the definitions behind each figure"
+		if len(w.missingCautions()) > 0 || len(w.indicatorJudgements()) > 0 {
+			s += ", and the cautions that section does not make"
+		}
+		w.plain(s + ".")
+	}
 	w.coverage()
 	w.definitions()
 	w.limits()
@@ -32,59 +42,6 @@ func (w *writer) bullet(lead, text string) {
 	}
 	sp = append(sp, span{text: text, font: w.st.font(pdf.Regular, w.st.size), color: w.st.text})
 	w.para(sp, 6, &span{text: "•", font: w.st.font(pdf.Regular, w.st.size), color: w.st.accent}, w.st.size, listItemGap+0.6)
-}
-
-// coverage states how many institutions count and how complete each
-// indicator is in the first comparison group.
-func (w *writer) coverage() {
-	w.sectionHeading("Coverage", 2)
-	d := w.m.Data
-	n := d.Register.Len()
-	ranked := n
-	if d.Population != nil {
-		ranked = 0
-		for _, ok := range d.Population.Included {
-			if ok {
-				ranked++
-			}
-		}
-	}
-	s := fmt.Sprintf("The register holds %s institutions, of which %s form the ranked population", format.Int(n), format.Int(ranked))
-	if d.Population != nil && len(d.Population.Rules) > 0 {
-		s += " under these rules: " + strings.Join(d.Population.Rules, "; ")
-	}
-	s += fmt.Sprintf(". Positions are for %d", w.m.Year)
-	if w.m.First != w.m.Last {
-		s += fmt.Sprintf(" and trends run from %d to %d", w.m.First, w.m.Last)
-	}
-	s += ". An institution without a value for an indicator is left out of that indicator's distribution and ranks, not counted as zero."
-	w.plain(s)
-	if len(w.m.Groups) == 0 {
-		return
-	}
-	gr := w.m.Groups[0]
-	g := grid{
-		head:    []string{"Indicator", "Unit", "Better", "Source", fmt.Sprintf("With a value in %s", gr.Name), "Missing"},
-		align:   []byte{'L', 'L', 'L', 'L', 'R', 'R'},
-		caption: fmt.Sprintf("Indicators and their coverage in %s, %d", gr.Name, w.m.Year),
-	}
-	for _, ind := range d.Dictionary.Indicators {
-		src := orDash(ind.Source)
-		if ind.Derive != "" && strings.TrimSpace(ind.Source) == "" {
-			src = "derived: " + ind.Derive
-		}
-		row := []cell{{text: indicatorLabel(ind, false)}, {text: string(ind.Unit)}, {text: betterWords(ind.Better)}, {text: src}}
-		if dist, ok := w.m.Distribution(gr.Name, ind.Key, w.m.Year); ok {
-			row = append(row, cell{text: format.Int(dist.N)}, cell{text: format.Int(dist.Missing)})
-		} else {
-			row = append(row, cell{text: "–"}, cell{text: "–"})
-		}
-		g.rows = append(g.rows, row)
-	}
-	if d.PPP != nil && len(d.PPP.Converted) > 0 {
-		g.notes = append(g.notes, "Money amounts ("+strings.Join(d.PPP.Converted, ", ")+") are converted from local currency to international dollars at purchasing-power parity (PPP$) for each country and year.")
-	}
-	w.setTable(g)
 }
 
 func betterWords(p dataset.Polarity) string {
@@ -122,17 +79,69 @@ func (w *writer) definitions() {
 	w.y += paraGap - listItemGap
 }
 
-// limits sets the cautions every comparison of institutions needs.
-func (w *writer) limits() {
-	w.sectionHeading("What the figures do not show", 2)
-	w.bullet("Only what is measured.", "The indicators capture part of what a university does. Teaching quality, the student experience, contribution to the region and culture, and much research that is not published in indexed journals are not measured here.")
-	w.bullet("Choices are judgements.", "Which indicators appear, how groups of peers are drawn and any weights in a composite score are value judgements. A different, equally reasonable choice can change positions.")
-	w.bullet("Uncertainty.", "Small differences between institutions lie within the noise of the data: neighbouring ranks can swap from one year to the next. Quarters and percentile ranks are more stable than exact ranks, and groups with few members give unstable quartiles.")
-	w.bullet("Coverage.", "Institutions without data are left out of the distributions, which can flatter or penalise a group. Check the coverage table above.")
-	for _, ind := range w.m.Data.Dictionary.Indicators {
-		if ind.Judgement != "" {
-			w.bullet(indicatorLabel(ind, false)+".", ind.Judgement)
+// standardCautions are the cautions every comparison of institutions
+// needs, in the order the closing states them ("Use with care" last).
+var standardCautions = []struct {
+	c          caution
+	lead, text string
+}{
+	{cautionMeasured, "Only what is measured.", "The indicators capture part of what a university does. Teaching quality, the student experience, contribution to the region and culture, and much research that is not published in indexed journals are not measured here."},
+	{cautionJudgement, "Choices are judgements.", "Which indicators appear, how groups of peers are drawn and any weights in a composite score are value judgements. A different, equally reasonable choice can change positions."},
+	{cautionUncertainty, "Uncertainty.", "Small differences between institutions lie within the noise of the data: neighbouring ranks can swap from one year to the next. Quarters and percentile ranks are more stable than exact ranks, and groups with few members give unstable quartiles."},
+	{cautionCoverage, "Coverage.", "Institutions without data are left out of the distributions, which can flatter or penalise a group. Check the coverage table above."},
+	{cautionDecisions, "Use with care.", "These figures are a starting point for questions, not a verdict. They should not be the sole basis for decisions about individuals, funding or staffing."},
+}
+
+// missingCautions are the standard cautions the brief's own section does
+// not make (all of them when it has none).
+func (w *writer) missingCautions() []int {
+	var out []int
+	for i, sc := range standardCautions {
+		if !w.own.states(sc.c) {
+			out = append(out, i)
 		}
 	}
-	w.bullet("Use with care.", "These figures are a starting point for questions, not a verdict. They should not be the sole basis for decisions about individuals, funding or staffing.")
+	return out
+}
+
+// indicatorJudgements are the dictionary's judgement notes that the
+// brief's own cautions do not already discuss (it names the indicator).
+func (w *writer) indicatorJudgements() []dataset.Indicator {
+	var out []dataset.Indicator
+	for _, ind := range w.m.Data.Dictionary.Indicators {
+		if ind.Judgement == "" || w.own.says(ind.Label) || ind.Short != ind.Label && w.own.says(ind.Short) {
+			continue
+		}
+		out = append(out, ind)
+	}
+	return out
+}
+
+// limits sets the cautions the pack has not yet stated: all of them, or,
+// after the brief's own cautions section, only those it leaves out.
+func (w *writer) limits() {
+	missing := w.missingCautions()
+	judgements := w.indicatorJudgements()
+	if len(missing) == 0 && len(judgements) == 0 {
+		return
+	}
+	title := "What the figures do not show"
+	if w.own != nil {
+		title = "Further cautions"
+	}
+	w.sectionHeading(title, 2)
+	last := -1
+	for _, i := range missing {
+		if standardCautions[i].c == cautionDecisions {
+			last = i
+			continue
+		}
+		w.bullet(standardCautions[i].lead, standardCautions[i].text)
+	}
+	for _, ind := range judgements {
+		w.bullet(indicatorLabel(ind, false)+".", ind.Judgement)
+	}
+	if last >= 0 {
+		w.bullet(standardCautions[last].lead, standardCautions[last].text)
+	}
 }

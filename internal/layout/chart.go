@@ -25,9 +25,11 @@ type placed struct {
 type halfChart = placed
 
 const (
-	chartGap     = 6   // between two half-width charts, mm
-	captionSize  = 8.5 // pt
-	chartSpacing = 4   // above and below a chart, mm
+	chartGap       = 6   // between two half-width charts, mm
+	captionSize    = 8.5 // pt
+	captionGap     = 1.5 // between a chart and its caption, mm
+	chartTitleSize = 9.5 // pt
+	chartSpacing   = 4   // above and below a chart, mm
 )
 
 func isHalfChart(w *writer, n ast.Node) bool {
@@ -93,7 +95,8 @@ func (w *writer) flushHalf() {
 }
 
 // setCharts sets one full-width chart or one or two half-width charts in a
-// row, each with its caption below it, the row kept on one page.
+// row, each with its title above and caption below it, the row kept on one
+// page.
 func (w *writer) setCharts(row []placed, half bool) {
 	if w.cols > 1 {
 		w.spanColumns(func() { w.setCharts(row, half) })
@@ -106,29 +109,53 @@ func (w *writer) setCharts(row []placed, half bool) {
 	}
 	maxH := w.bottom() - w.frameTop() - 2*chartSpacing
 	heights := make([]float64, len(row))
-	caps := make([][]line, len(row))
-	capSpans := make([][]span, len(row))
-	rowH := 0.0
+	texts := make([]chartText, len(row))
+	titleH := 0.0
 	for i, p := range row {
 		w.figureNo++
-		capSpans[i] = w.captionSpans("Figure", w.figureNo, p.spec.Caption)
-		caps[i] = w.wrap(capSpans[i], w.tokenize(capSpans[i]), width, width)
-		capH := float64(len(caps[i])) * w.st.lineHeight(captionSize)
+		texts[i] = w.chartTexts(p.spec, w.figureNo, width)
+		titleH = math.Max(titleH, texts[i].titleH)
+	}
+	for i, p := range row {
 		h := float64(p.ch.Height(vg.Length(width*pdf.PointsPerMM))) / pdf.PointsPerMM
 		if h <= 0 || math.IsNaN(h) || math.IsInf(h, 0) {
 			h = width * 0.62
 		}
-		if h > maxH-capH {
-			h = maxH - capH
+		if elastic(p.spec) {
+			h *= w.plan.chartScale(w.section)
 		}
+		h = math.Min(h, maxH-titleH-texts[i].capH)
 		heights[i] = h
-		rowH = math.Max(rowH, h+capH+1.5)
 	}
+	rowHeight := func() float64 {
+		rh := 0.0
+		for i := range row {
+			rh = math.Max(rh, titleH+heights[i]+texts[i].capH)
+		}
+		return rh
+	}
+	rowH := rowHeight()
+	tallest := 0.0
+	for i, h := range heights {
+		if elastic(row[i].spec) {
+			tallest = math.Max(tallest, h)
+		}
+	}
+	w.chartHeight[w.section] += tallest // what tightening can take from
 	if !w.atFrameTop() {
 		w.y += chartSpacing
 	}
 	if w.y+rowH > w.bottom() {
-		w.nextFrame()
+		// A chart that nearly fits is set a little shorter rather than
+		// pushed to the next page, which would leave a gap here.
+		if s := squeezeToFit(w.bottom()-w.y-titleH, row, heights, texts); s > 0 {
+			for i := range heights {
+				heights[i] *= s
+			}
+			rowH = rowHeight()
+		} else {
+			w.nextFrame()
+		}
 	}
 	top := w.y
 	for i, p := range row {
@@ -136,18 +163,48 @@ func (w *writer) setCharts(row []placed, half bool) {
 		if len(row) == 1 && half {
 			x = w.x + w.indent + (avail-width)/2
 		}
+		y := top
+		for _, ln := range texts[i].title {
+			w.drawLine(texts[i].titleSpans, ln, x, y+pdf.PtToMM(chartTitleSize)*0.8)
+			y += w.st.lineHeight(chartTitleSize)
+		}
+		y = top + titleH
 		if !w.measuring {
-			if err := w.drawChart(p, x, top, width, heights[i]); err != nil {
+			if err := w.drawChart(p, x, y, width, heights[i]); err != nil {
 				w.chartProblem(p.spec, err)
 			}
 		}
-		y := top + heights[i] + 1.5
-		for _, ln := range caps[i] {
-			w.drawLine(capSpans[i], ln, x, y+pdf.PtToMM(captionSize)*0.8)
+		y += heights[i] + captionGap
+		for _, ln := range texts[i].caption {
+			w.drawLine(texts[i].capSpans, ln, x, y+pdf.PtToMM(captionSize)*0.8)
 			y += w.st.lineHeight(captionSize)
 		}
 	}
 	w.y = top + rowH + chartSpacing
+}
+
+// chartText is a chart's title (above it) and caption (below), set and
+// measured.
+type chartText struct {
+	titleSpans, capSpans []span
+	title, caption       []line
+	// titleH and capH are the room each takes, gaps included.
+	titleH, capH float64
+}
+
+// chartTexts sets a chart's title in the bold text face and its numbered
+// caption ("Figure 3. Caption") at a width.
+func (w *writer) chartTexts(spec *brief.ChartBlock, no int, width float64) chartText {
+	var t chartText
+	if spec.Title != "" {
+		t.titleSpans = []span{{text: spec.Title, font: w.st.font(pdf.Bold, chartTitleSize), color: w.st.text}}
+		t.title = w.wrap(t.titleSpans, w.tokenize(t.titleSpans), width, width)
+		t.titleH = float64(len(t.title))*w.st.lineHeight(chartTitleSize) + 1.2
+	}
+	t.capSpans = w.captionSpans("Figure", no, spec.Caption)
+	t.caption = w.wrap(t.capSpans, w.tokenize(t.capSpans), width, width)
+	t.capH = float64(len(t.caption))*w.st.lineHeight(captionSize) + captionGap
+	return t
 }
 
 // drawChart draws a chart onto a canvas over its rectangle; a panic in a
@@ -171,4 +228,41 @@ func (w *writer) captionSpans(kind string, no int, caption string) []span {
 		sp = append(sp, span{text: " " + caption, font: w.st.font(pdf.Regular, captionSize), color: w.st.muted})
 	}
 	return sp
+}
+
+// minChartScale is the shortest a chart is set to fit the room left on a
+// page, as a share of the height it asks for: below it the chart's rows
+// and labels would crowd (common practice, no source).
+const minChartScale = 0.86
+
+// elastic reports whether a chart kind can be set shorter than it asks
+// without crowding: a scatter, radar or trend fills whatever area it is
+// given, while box, bars and heatmap rows have a fixed pitch and their
+// labels would collide.
+func elastic(spec *brief.ChartBlock) bool {
+	switch spec.Type {
+	case "scatter", "radar", "trend":
+		return true
+	}
+	return false
+}
+
+// squeezeToFit returns the factor (minChartScale..1) by which the charts
+// of a row, each above its caption, must be shortened to fit in room, or
+// 0 when even the shortest allowed would not fit.
+func squeezeToFit(room float64, row []placed, heights []float64, texts []chartText) float64 {
+	s := 1.0
+	for i, h := range heights {
+		if h <= 0 {
+			continue
+		}
+		if !elastic(row[i].spec) {
+			return 0
+		}
+		s = math.Min(s, (room-texts[i].capH)/h)
+	}
+	if s < minChartScale {
+		return 0
+	}
+	return s
 }

@@ -16,11 +16,11 @@ import (
 type caution int
 
 const (
-	cautionMeasured caution = iota // what the figures do not measure
-	cautionJudgement               // choices and weights are value judgements
-	cautionUncertainty             // small differences are noise
-	cautionCoverage                // missing data and who is counted
-	cautionDecisions               // not the sole basis for decisions
+	cautionMeasured    caution = iota // what the figures do not measure
+	cautionJudgement                  // choices and weights are value judgements
+	cautionUncertainty                // small differences are noise
+	cautionCoverage                   // missing data and who is counted
+	cautionDecisions                  // not the sole basis for decisions
 	cautionCount
 )
 

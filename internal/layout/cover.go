@@ -40,13 +40,25 @@ func (w *writer) cover() {
 	bandH := titleTop + float64(len(tl))*titleLH + float64(len(sl))*subLH + 14
 	d.FillRect(0, bandTop, pw, bandH, w.st.accent)
 
-	if o := w.b.Theme.Organisation; o != "" {
-		d.SetFont(w.st.font(pdf.Bold, 10))
-		d.SetTextColor(white)
-		d.Text(left, 26, strings.ToUpper(o))
-	}
+	// The logo first: the organisation's name wraps short of it rather
+	// than running underneath.
+	orgRight := left + textW
 	if w.b.Theme.Logo != "" {
-		w.coverLogo(pw-m.Right, 14)
+		if lx := w.coverLogo(pw-m.Right, 14); lx > 0 {
+			orgRight = lx - 6
+		}
+	}
+	if o := w.b.Theme.Organisation; o != "" {
+		osp := []span{{text: strings.ToUpper(o), font: w.st.font(pdf.Bold, 10), color: white}}
+		lines := w.wrap(osp, w.tokenize(osp), orgRight-left, orgRight-left)
+		if len(lines) > 3 {
+			lines = lines[:3]
+		}
+		oy := 26.0
+		for _, ln := range lines {
+			w.drawLine(osp, ln, left, oy)
+			oy += pdf.PtToMM(10 * 1.3)
+		}
 	}
 	y := titleTop
 	for _, ln := range tl {
@@ -87,7 +99,11 @@ func (w *writer) cover() {
 	fact("Date", w.dateLine(), 12)
 
 	// The caution at the foot.
-	msg := "Rankings and comparisons simplify. The figures cover only what the indicators measure, the choice of indicators and groups is a judgement, and small differences lie within the uncertainty of the data. Read them with the notes in “About these figures” at the end of this pack before using them in decisions about people or money."
+	notes := "the notes in “About these figures” at the end of this pack"
+	if w.own != nil && w.own.title != "About these figures" {
+		notes = "“" + w.own.title + "” and the notes in “About these figures” at the end of this pack"
+	}
+	msg := "Rankings and comparisons simplify. The figures cover only what the indicators measure, the choice of indicators and groups is a judgement, and small differences lie within the uncertainty of the data. Read them with " + notes + " before using them in decisions about people or money."
 	csp := []span{{text: msg, font: w.st.font(pdf.Italic, 8.5), color: w.st.muted}}
 	lines := w.wrap(csp, w.tokenize(csp), textW-8, textW-8)
 	lh := w.st.lineHeight(8.5)
@@ -121,13 +137,14 @@ func (w *writer) dateLine() string {
 }
 
 // coverLogo places the logo in a white panel at the band's top right,
-// right edge at x.
-func (w *writer) coverLogo(right, top float64) {
+// right edge at right, and returns the panel's left edge (0 when the logo
+// could not be read).
+func (w *writer) coverLogo(right, top float64) float64 {
 	info, err := w.loadImage(w.b.Theme.Logo)
 	if err != nil {
 		p := w.b.PosOf("theme.logo")
 		w.failAt(p, "logo: %v", err)
-		return
+		return 0
 	}
 	natW, natH := naturalSize(info)
 	iw, ih := fitBox(float64(info.Width), float64(info.Height), math.Min(44, natW), math.Min(20, natH))
@@ -135,4 +152,5 @@ func (w *writer) coverLogo(right, top float64) {
 	x := right - iw - 2*pad
 	w.doc.FillRect(x, top, iw+2*pad, ih+2*pad, white)
 	w.doc.DrawImage(info, x+pad, top+pad, iw, ih)
+	return x
 }

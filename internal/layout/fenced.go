@@ -61,6 +61,7 @@ func (w *writer) fencedBlock(n ast.Node, entering bool) ast.WalkStatus {
 			w.cols = 1
 			w.newPage()
 		}
+		w.section++
 	case *brief.ColumnsBlock:
 		w.setColumns(v.Count)
 	}

@@ -52,13 +52,29 @@ func Render(in Input) (out []byte, err error) {
 	if in.Brief == nil || in.Model == nil {
 		return nil, fmt.Errorf("internal error: layout needs a brief and a figures model")
 	}
-	first, err := pass(in, nil)
+	first, err := pass(in, nil, nil)
 	if err != nil {
 		return nil, err
 	}
+	// A section ending on a runt page is set again a little tighter; the
+	// tighter plan is kept only when it saves the page.
+	var plan *fitPlan
+	if p := first.runtPlan(); p != nil {
+		// Every section opens a fresh page, so each one's tightening is
+		// judged on its own: kept where it saved the section a page.
+		if alt, err := pass(in, nil, p); err == nil {
+			if p.keepSaving(first.sectionPages(), alt.sectionPages()) {
+				first, plan = alt, p
+			} else if !p.empty() {
+				if alt, err := pass(in, nil, p); err == nil && alt.doc.PageNo() < first.doc.PageNo() {
+					first, plan = alt, p
+				}
+			}
+		}
+	}
 	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
-	second, err := pass(in, rec)
+	second, err := pass(in, rec, plan)
 	if err != nil {
 		return nil, err
 	}
@@ -68,8 +84,9 @@ func Render(in Input) (out []byte, err error) {
 	return second.doc.Bytes()
 }
 
-// pass runs one layout pass; known is nil in the first.
-func pass(in Input, known *passRecord) (*writer, error) {
+// pass runs one layout pass; known is nil in the first. plan, which may
+// be nil, tightens sections that would end on a runt page.
+func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 	b := in.Brief
 	paper, err := pdf.PaperByName(b.Theme.Paper)
 	if err != nil {
@@ -95,7 +112,8 @@ func pass(in Input, known *passRecord) (*writer, error) {
 	w := &writer{
 		in: in, b: b, m: in.Model, com: in.Commentary, doc: doc, st: newStyle(b.Theme.Font, b.Theme.Accent),
 		src: b.Body, known: known, measuring: known == nil, colGap: 8, cols: 1,
-		consumed: map[ast.Node]bool{},
+		consumed: map[ast.Node]bool{}, plan: plan,
+		chartHeight: map[int]float64{}, tableCount: map[int]int{},
 	}
 	w.register()
 	w.indexBlocks()
@@ -107,6 +125,7 @@ func pass(in Input, known *passRecord) (*writer, error) {
 	w.body()
 	w.cautions()
 	w.sources()
+	w.notePage()
 	if err := doc.Err(); err != nil {
 		return nil, fmt.Errorf("the PDF could not be laid out: %v", err)
 	}

@@ -2,6 +2,7 @@ package layout
 
 import (
 	"math"
+	"sort"
 	"strings"
 
 	"peerpack/internal/pdf"
@@ -34,15 +35,22 @@ type grid struct {
 	natural, noNumber bool
 }
 
-// Table typography in pt and mm.
+// tableSizes are the body and header sizes a table is tried at, in pt:
+// the normal size first, then smaller steps for a wide table, so that its
+// figures print whole rather than shortened (7 pt is the smallest size
+// common practice reads comfortably in print, no source).
+var tableSizes = [][2]float64{{8.5, 8}, {7.8, 7.4}, {7.2, 6.9}}
+
+// Table geometry in mm.
 const (
-	tableSize   = 8.5
-	tableHead   = 8
-	cellPadX    = 1.8
-	cellPadY    = 1.25
-	minTextCol  = 32.0
-	legendSize  = 7.5
-	glyphColumn = 3.6 // room for a quartile glyph before a number
+	cellPadX   = 1.8
+	cellPadY   = 1.25
+	minTextCol = 32.0
+	// shortTextCol is the widest a text column (a group name, a country)
+	// counts as short, which a table would rather not wrap.
+	shortTextCol = 40.0
+	legendSize   = 7.5
+	glyphColumn  = 3.6 // room for a quartile glyph before a number
 )
 
 // setTable sets a grid in the frame: columns sized to their content and
@@ -61,11 +69,21 @@ func (w *writer) setTable(g grid) {
 	}
 	ncol := len(g.head)
 	avail := w.width - w.indent
-	bodyF := w.st.font(pdf.Regular, tableSize)
-	boldF := w.st.font(pdf.Bold, tableSize)
-	headF := w.st.font(pdf.Bold, tableHead)
-
-	widths := w.columnWidths(g, avail, bodyF, boldF, headF)
+	var tableSize, tableHead float64
+	var bodyF, boldF, headF pdf.Font
+	var widths []float64
+	w.tableCount[w.section]++
+	for _, sz := range tableSizes[min(w.plan.tableStep(w.section), len(tableSizes)-1):] {
+		tableSize, tableHead = sz[0], sz[1]
+		bodyF = w.st.font(pdf.Regular, tableSize)
+		boldF = w.st.font(pdf.Bold, tableSize)
+		headF = w.st.font(pdf.Bold, tableHead)
+		var fits bool
+		widths, fits = w.columnWidths(g, avail, bodyF, boldF, headF)
+		if fits {
+			break
+		}
+	}
 	tableW := 0.0
 	for _, cw := range widths {
 		tableW += cw
@@ -294,7 +312,9 @@ func (w *writer) quartileLegend(x float64) {
 // width, never below their longest word, and wrap. Only when even that
 // does not fit is every column narrowed, and cells are shortened with an
 // ellipsis.
-func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Font) []float64 {
+//
+// fits is false when the columns had to be narrowed below their content.
+func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Font) (widths []float64, fits bool) {
 	ncol := len(g.head)
 	nat := make([]float64, ncol)  // widest content
 	word := make([]float64, ncol) // widest single word (text columns)
@@ -324,7 +344,7 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 			}
 		}
 	}
-	widths := make([]float64, ncol)
+	widths = make([]float64, ncol)
 	fixed, textNat, textMin := 0.0, 0.0, 0.0
 	for c := 0; c < ncol; c++ {
 		if g.align[c] == 'R' {
@@ -336,6 +356,7 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 		}
 	}
 	room := avail - fixed
+	fits = true
 	switch {
 	case textNat <= room:
 		// Everything fits on one line: text columns at natural width, the
@@ -357,13 +378,13 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 			widths[first] += room - textNat
 		}
 	case textMin <= room:
-		// Text columns wrap. Short ones (group names, quarters) keep their
-		// natural width when the first, label column can take the squeeze
-		// without going below its longest word or minTextCol; otherwise
-		// each gets its minimum plus a share of the rest in proportion to
-		// how much more it would like.
+		// Text columns wrap. Short ones (group names, countries,
+		// quarters) keep their natural width, shortest first, as long as
+		// every other text column still gets its longest word (the first,
+		// label column at least minTextCol); the rest share what is left
+		// in proportion to how much more they would like.
 		first := -1
-		others := 0.0
+		var short []int
 		for c := 0; c < ncol; c++ {
 			if g.align[c] != 'L' {
 				continue
@@ -372,23 +393,66 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 				first = c
 				continue
 			}
-			others += nat[c] + 2*cellPadX
+			short = append(short, c)
 		}
-		if rest := room - others; first >= 0 && rest >= math.Max(word[first]+2*cellPadX, minTextCol) {
+		sort.SliceStable(short, func(a, b int) bool { return nat[short[a]] < nat[short[b]] })
+		// Each text column's minimum: a hair over its longest word, so
+		// that rounding in the measure never breaks the word itself, and
+		// the label column at least minTextCol; both given up, in that
+		// order, when the room is too tight for them.
+		labelMin, hair := minTextCol, 0.4
+		minOf := func(c int) float64 {
+			m := word[c] + 2*cellPadX + hair
+			if c == first {
+				m = math.Max(m, math.Min(labelMin, nat[c]+2*cellPadX))
+			}
+			return m
+		}
+		need := 0.0
+		for _, relax := range []func(){func() {}, func() { labelMin = 0 }, func() { hair = 0 }} {
+			relax()
+			need = 0
 			for c := 0; c < ncol; c++ {
 				if g.align[c] == 'L' {
-					widths[c] = nat[c] + 2*cellPadX
+					need += minOf(c)
 				}
 			}
-			widths[first] = rest
-			break
+			if need <= room {
+				break
+			}
 		}
-		spare := room - textMin
-		want := textNat - textMin
+		kept := map[int]bool{}
+		for _, c := range short {
+			extra := nat[c] + 2*cellPadX - minOf(c)
+			if need+extra > room {
+				if nat[c]+2*cellPadX <= shortTextCol {
+					// A short label would wrap: a smaller size may
+					// keep it on one line.
+					fits = false
+				}
+				break
+			}
+			kept[c] = true
+			need += extra
+		}
+		spare := math.Max(0, room-need)
+		want := 0.0
 		for c := 0; c < ncol; c++ {
-			if g.align[c] == 'L' {
-				min := word[c] + 2*cellPadX
-				widths[c] = min + spare*((nat[c]+2*cellPadX-min)/want)
+			if g.align[c] == 'L' && !kept[c] {
+				want += nat[c] + 2*cellPadX - minOf(c)
+			}
+		}
+		for c := 0; c < ncol; c++ {
+			if g.align[c] != 'L' {
+				continue
+			}
+			if kept[c] {
+				widths[c] = nat[c] + 2*cellPadX
+				continue
+			}
+			widths[c] = minOf(c)
+			if want > 0 {
+				widths[c] += spare * ((nat[c] + 2*cellPadX - minOf(c)) / want)
 			}
 		}
 	default:
@@ -403,8 +467,9 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 		for c := range widths {
 			widths[c] *= scale
 		}
+		return widths, false
 	}
-	return widths
+	return widths, fits
 }
 
 // cellLines wraps a text cell into at most max lines, the last shortened

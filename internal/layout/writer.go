@@ -78,6 +78,15 @@ type writer struct {
 	// own is the brief's own cautions section, nil when it has none; the
 	// closing section then states only what it leaves out.
 	own *ownCautions
+
+	// Fitting (fit.go): the plan both passes follow, the section being
+	// set (counted at each fresh start: a level-1 heading or a page
+	// break), and what a measuring pass notes per page and section.
+	plan        *fitPlan
+	section     int
+	pages       []pageRecord
+	chartHeight map[int]float64
+	tableCount  map[int]int
 }
 
 // passRecord is what the first pass learns for the second.
@@ -118,7 +127,6 @@ func (w *writer) failAt(pos brief.Pos, format string, args ...any) {
 	w.problems.Addf(w.b.File, pos.Line, pos.Column, format, args...)
 }
 
-
 // bottom is the lowest y of the frame: the type area's foot, or, while
 // balanced columns are set, the balance line for all but the last column.
 func (w *writer) bottom() float64 {
@@ -135,6 +143,7 @@ func (w *writer) newPage() {
 	if !w.flushing {
 		w.flushColumns()
 	}
+	w.notePage()
 	w.doc.AddPage()
 	w.y = w.doc.ContentTop()
 	w.colTop, w.colMax = w.y, w.y

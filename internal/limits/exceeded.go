@@ -7,14 +7,23 @@ import (
 )
 
 // Over returns the end of a message about a count or size over a limit:
-// what was found, the limit, and how to raise it. found is the exact count
-// or size when known; a reader that stops at the limit passes limit + 1,
-// and the message then says "more than". advice (optional) is the first
-// remedy to offer before raising the limit. Examples:
+// what was found, the limit, and how to raise it. advice (optional) is the
+// first remedy to offer before raising the limit. Example:
 //
 //	250,000 institutions, over the limit of 200,000; raise it with --limit institutions=250000
-//	more than the limit of 10,000,000 rows; split the file, or raise the limit with --limit rows=20M
 func (l Limits) Over(name Name, found int64, advice string) string {
+	return l.over(name, found, false, advice)
+}
+
+// Beyond is Over for a reader that stops at the limit and so does not know
+// the full count:
+//
+//	more than the limit of 10,000,000 rows; split the file, or raise the limit with --limit rows=20M
+func (l Limits) Beyond(name Name, advice string) string {
+	return l.over(name, l.Get(name)+1, true, advice)
+}
+
+func (l Limits) over(name Name, found int64, stopped bool, advice string) string {
 	s, ok := lookup(name)
 	if !ok {
 		return fmt.Sprintf("%s, over a limit", Group(found))
@@ -22,11 +31,14 @@ func (l Limits) Over(name Name, found int64, advice string) string {
 	lim := *s.field(&l)
 	var what, suggest string
 	switch {
-	case found == lim+1 && !s.bytes:
+	case stopped:
 		what = fmt.Sprintf("more than the limit of %s %s", Group(lim), s.unit)
 		suggest = compact(2*lim, 1000, "")
 	case s.bytes:
 		what = fmt.Sprintf("%s bytes (%s), over the limit of %s", Group(found), human(found), compact(lim, 1024, " iB"))
+		if found < 1024 {
+			what = fmt.Sprintf("%s bytes, over the limit of %s", Group(found), compact(lim, 1024, " iB"))
+		}
 		suggest = compact(roundUp(found), 1024, "")
 	default:
 		what = fmt.Sprintf("%s %s, over the limit of %s", Group(found), s.unit, Group(lim))

@@ -248,7 +248,7 @@ func parseValue(v string, bytes bool) (int64, error) {
 	if !bytes && strings.HasSuffix(suffix, "B") {
 		return 0, fmt.Errorf("this limit counts %s, not bytes; write K, M or G without B", "items")
 	}
-	if suffix == "B" || suffix == "IB" || (strings.Contains(suffix, "I") && !strings.HasSuffix(suffix, "IB")) {
+	if suffix == "IB" || (strings.Contains(suffix, "I") && !strings.HasSuffix(suffix, "IB")) {
 		return 0, fmt.Errorf("unknown suffix %q; use K, M or G", v[len(num):])
 	}
 	n, err := strconv.ParseInt(num, 10, 64)

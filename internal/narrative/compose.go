@@ -51,6 +51,7 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 
 	var probs diag.List
 	n := 0
+	executivePlaced := false
 	for _, blk := range b.Blocks {
 		cb, ok := blk.(*brief.CommentaryBlock)
 		if !ok {
@@ -61,6 +62,15 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 		if err != nil {
 			probs.Add(err)
 			continue
+		}
+		if cb.Style == "summary" && !executivePlaced {
+			// The brief's first summary block takes the place of the
+			// executive summary (the layout then sets no second one), so
+			// it carries what the executive summary always carries: the
+			// key caveats and the standing cautions, whatever its topics.
+			executivePlaced = true
+			sc.executive = true
+			sc.topics["caveats"] = true
 		}
 		out.Blocks[cb] = c.write(sc)
 	}

@@ -81,9 +81,9 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		f.PctFrom, f.PctTo = printOrdinalPct(p0.Percentile), printOrdinalPct(p1.Percentile)
 		a, b := math.Round(p0.Percentile), math.Round(p1.Percentile)
 		switch {
-		case b > a:
+		case b-a >= PercentileNoise:
 			f.PctDirection = Above
-		case b < a:
+		case a-b >= PercentileNoise:
 			f.PctDirection = Below
 		}
 		f.Resized = figures.SizeChanged(p0.Of, p1.Of)

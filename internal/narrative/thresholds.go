@@ -20,6 +20,12 @@ const (
 	// revisions and reporting practice shift from year to year (common
 	// practice, no source).
 	NoiseIQRShare = 0.05
+	// PercentileNoise: a percentile rank that moved by fewer than this
+	// many points between the two ends of a span is not called gaining or
+	// losing ground; in a group of a hundred that is four or five places,
+	// which a revision or one institution entering can shift (common
+	// practice, no source). Both percentiles are still printed.
+	PercentileNoise = 5.0
 	// When the number of members reporting changed between the two ends
 	// of a span, changes are stated in percentiles by the figures model's
 	// own rule (figures.SizeChanged), so tables and sentences agree.

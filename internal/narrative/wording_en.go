@@ -173,7 +173,9 @@ func (english) quarter(better dataset.Polarity, q int) string {
 	return judgedQuarter[q]
 }
 
-// Position: value, rank of n and quartile in a group.
+// Position: value, rank of n and quartile in a group. The sentence always
+// follows the indicator's run-in heading, so it does not name the indicator
+// again.
 func (e english) Position(f PositionFact) string {
 	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "in", e.in(f.Group),
 		"value", f.Value, "year", f.Year, "rank", e.rank(f), "quarter", e.quarter(f.Better, f.Quartile), "members", f.Members}
@@ -184,12 +186,12 @@ func (e english) Position(f PositionFact) string {
 		return e.fill("{focus} is not a member of {group}; placed among the {members} members that report {ind}, its {value} in {year} would rank {rank}, {quarter}.", kv...)
 	}
 	if !f.InGroup {
-		return e.fill("Set against {group} on {ind}, {focus} would rank {rank} at {value} in {year}, {quarter}.", kv...)
+		return e.fill("Set against {group}, {focus} would rank {rank} at {value} in {year}, {quarter}.", kv...)
 	}
 	tmpl := [...]string{
-		"At {value} in {year}, {focus} ranks {rank} {in} on {ind}, {quarter}.",
-		"{focus} ranks {rank} {in} on {ind} ({value} in {year}), {quarter}.",
-		"On {ind}, {focus} stands {rank} {in} at {value} in {year}, {quarter}.",
+		"At {value} in {year}, {focus} ranks {rank} {in}, {quarter}.",
+		"{focus} ranks {rank} {in} ({value} in {year}), {quarter}.",
+		"{focus} stands {rank} {in} at {value} in {year}, {quarter}.",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
 }
@@ -275,30 +277,31 @@ func (e english) Alone(f PositionFact) string {
 		"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "value", f.Value, "year", f.Year)
 }
 
-// Change: the focus's own movement over the span.
+// Change: the focus's own movement over the span. Like Position and Gap it
+// follows the indicator's run-in heading and does not name it again.
 func (e english) Change(f ChangeFact) string {
 	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "from", f.From, "to", f.To,
 		"fromYear", f.FromYear, "toYear", f.ToYear, "diff", f.Diff, "iqr", f.NoiseIQR}
 	if f.Direction == Level {
 		switch {
 		case f.From == f.To:
-			return e.fill("{focus's} figure for {ind} was broadly unchanged at {to} between {fromYear} and {toYear}.", kv...)
+			return e.fill("{focus's} figure was broadly unchanged at {to} between {fromYear} and {toYear}.", kv...)
 		case f.NoiseIQR != "":
 			// "a twentieth" is NoiseIQRShare in words.
-			return e.fill("{focus's} figure for {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement of less than a twentieth of the group's interquartile range ({iqr}).", kv...)
+			return e.fill("{focus's} figure was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement of less than a twentieth of the group's interquartile range ({iqr}).", kv...)
 		}
-		return e.fill("{focus's} figure for {ind} was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement smaller than the last decimal the data reports.", kv...)
+		return e.fill("{focus's} figure was broadly unchanged between {fromYear} and {toYear} ({from}, then {to}), a movement smaller than the last decimal the data reports.", kv...)
 	}
 	verb, verbed, noun := "risen", "rose", "a rise"
 	if f.Direction == Below {
 		verb, verbed, noun = "fallen", "fell", "a fall"
 	}
 	if f.Diff == "" {
-		return e.fill("Since {fromYear}, {focus's} figure for {ind} has "+verb+" from {from} to {to}.", kv...)
+		return e.fill("Since {fromYear}, {focus's} figure has "+verb+" from {from} to {to}.", kv...)
 	}
 	tmpl := [...]string{
-		"Since {fromYear}, {focus's} figure for {ind} has " + verb + " from {from} to {to}, " + noun + " of {diff}.",
-		"{focus's} figure for {ind} " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}.",
+		"Since {fromYear}, {focus's} figure has " + verb + " from {from} to {to}, " + noun + " of {diff}.",
+		"{focus's} figure " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}.",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
 }
@@ -306,7 +309,7 @@ func (e english) Change(f ChangeFact) string {
 // ChangeMedian: the group median's movement and what it meant for the
 // focus's standing.
 func (e english) ChangeMedian(f ChangeFact) string {
-	kv := []string{"focus", f.Focus, "group", f.Group, "group's", possessive(f.Group), "mf", f.MedianFrom, "mt", f.MedianTo, "pf", f.PctFrom, "pt", f.PctTo}
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "group", f.Group, "group's", possessive(f.Group), "mf", f.MedianFrom, "mt", f.MedianTo, "pf", f.PctFrom, "pt", f.PctTo}
 	moved := "moved from {mf} to {mt}"
 	switch f.MedianDirection {
 	case Above:
@@ -332,8 +335,11 @@ func (e english) ChangeMedian(f ChangeFact) string {
 		tail = ", so {focus} gained ground, from the {pf} to the {pt} percentile"
 	case f.PctDirection == Below:
 		tail = ", so {focus} lost ground, from the {pf} to the {pt} percentile"
-	default:
+	case f.PctFrom == f.PctTo:
 		tail = ", and {focus} held its place at the {pt} percentile"
+	default:
+		// PctDirection Level: a move under PercentileNoise points.
+		tail = ", and {focus's} standing barely moved (from the {pf} to the {pt} percentile)"
 	}
 	tmpl := [...]string{
 		"Over the same years the median of {group} " + moved + tail + ".",
@@ -376,9 +382,9 @@ func (e english) Overview(f OverviewFact) string {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
 		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
 	case len(f.Top) > 0:
-		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on no indicator.", kv...)
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on none.", kv...)
 	case len(f.Bottom) > 0:
-		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, and in the top quarter on no indicator.", kv...)
+		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, and in the top quarter on none.", kv...)
 	}
 	return e.fill("Within {group}, {focus} sits in the middle half on every indicator, in neither the top nor the bottom quarter.", kv...)
 }
@@ -436,7 +442,10 @@ func (e english) Headline(f ChangeFact) string {
 // CompetitionPlace: where the focus would sit inside a competitor system.
 func (e english) CompetitionPlace(f CompetitionFact) string {
 	kv := []string{"focus", f.Focus, "system", f.System, "top", e.List(f.Top), "bottom", e.List(f.Bottom)}
-	lead, be, sit := "Placed among the institutions of {system}, {focus} would", " be", " sit"
+	// Several systems follow one another in a pack: the opening varies
+	// with the system so five paragraphs do not start alike.
+	leads := [...]string{"Placed among the institutions of {system}, {focus} would", "Were it one of the institutions of {system}, {focus} would", "Set among the institutions of {system}, {focus} would"}
+	lead, be, sit := leads[variant(f.Seed, len(leads))], " be", " sit"
 	if f.InSystem {
 		lead, be, sit = "Among the institutions of {system}, {focus}", " is", " sits"
 	}
@@ -444,9 +453,9 @@ func (e english) CompetitionPlace(f CompetitionFact) string {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
 		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
 	case len(f.Top) > 0:
-		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on no indicator.", kv...)
+		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on none.", kv...)
 	case len(f.Bottom) > 0:
-		return e.fill(lead+be+" in the bottom quarter on {bottom}, and in the top quarter on no indicator.", kv...)
+		return e.fill(lead+be+" in the bottom quarter on {bottom}, and in the top quarter on none.", kv...)
 	}
 	return e.fill(lead+sit+" in the middle half on every indicator here.", kv...)
 }
@@ -457,8 +466,13 @@ func (e english) CompetitionAhead(f CompetitionFact) string {
 	for i, a := range f.Ahead {
 		parts[i] = a.Indicator + " (" + a.Median + " against " + a.Value + ")"
 	}
-	return e.fill("{system's} median is ahead of {focus} on {items}.",
-		"system's", possessive(f.System), "focus", f.Focus, "items", e.List(parts))
+	tmpl := [...]string{
+		"{system's} median is ahead of {focus} on {items}.",
+		"The median of {system} is ahead on {items}.",
+		"{system's} median leads {focus} on {items}.",
+	}
+	return e.fill(tmpl[variant(f.Seed+"/ahead", len(tmpl))],
+		"system", f.System, "system's", possessive(f.System), "focus", f.Focus, "items", e.List(parts))
 }
 
 // CompetitionBehind: the competitor's median leads nowhere.
@@ -475,12 +489,12 @@ func (e english) Gap(f GapFact) string {
 	}
 	kv := []string{"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value}
 	if f.Amount == "" {
-		return e.fill("Reaching the "+q+" of {group} would take {focus's} figure for {ind} from {value} to {target}.", append(kv, "focus's", possessive(f.Focus))...)
+		return e.fill("Reaching the "+q+" of {group} would take {focus's} figure from {value} to {target}.", append(kv, "focus's", possessive(f.Focus))...)
 	}
 	tmpl := [...]string{
-		"Reaching the " + q + " of {group} ({target}) would take " + change + " of {amount} in {ind}.",
-		"To reach the top quarter of {group} on {ind}, {focus} would need " + change + " of {amount}, to {target}.",
-		"{focus} would need " + change + " of {amount} in {ind} to reach the " + q + " of {group} ({target}).",
+		"Reaching the " + q + " of {group} ({target}) would take " + change + " of {amount}.",
+		"To reach the top quarter of {group}, {focus} would need " + change + " of {amount}, to {target}.",
+		"{focus} would need " + change + " of {amount} to reach the " + q + " of {group} ({target}).",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
 }
@@ -589,5 +603,5 @@ func (e english) LowerPercentiles(inds []string) string {
 
 // Cautions: what every pack says about its figures.
 func (e english) Cautions() string {
-	return e.fill("Ranks and percentiles depend on which institutions report and on how each indicator is defined; the direction counted as better is a value judgement, small differences are within the uncertainty of the data, and the figures do not measure everything a university does.")
+	return e.fill("Ranks and percentiles depend on which institutions report and on how each indicator is defined; which indicators are shown and which direction counts as better are choices, not facts; small differences are within the uncertainty of the data; and the figures do not measure everything a university does.")
 }

@@ -129,7 +129,7 @@ func (r *CSVReader) Next() ([]Cell, error) {
 	r.rows++
 	if r.rows > r.lim.Rows {
 		r.done = true
-		return nil, diag.At(r.file, row[0].Line, row[0].Col, "the file has %s", r.lim.Over(limits.Rows, r.lim.Rows+1, "split it into several files (the brief's values: takes a list)"))
+		return nil, diag.At(r.file, row[0].Line, row[0].Col, "the file has %s", r.lim.Beyond(limits.Rows, "split it into several files (the brief's values: takes a list)"))
 	}
 	if len(row) != len(r.header) {
 		return nil, r.ragged(row)
@@ -185,7 +185,7 @@ func (r *CSVReader) record() ([]Cell, error) {
 		}
 		if int64(len(r.row)) >= r.lim.Columns {
 			r.done = true
-			return nil, diag.At(r.file, cell.Line, cell.Col, "line %d has %s", r.row[0].Line, r.lim.Over(limits.Columns, r.lim.Columns+1, "check the separators of this line"))
+			return nil, diag.At(r.file, cell.Line, cell.Col, "line %d has %s", r.row[0].Line, r.lim.Beyond(limits.Columns, "check the separators of this line"))
 		}
 		r.row = append(r.row, cell)
 		if end {

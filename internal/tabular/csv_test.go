@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"peerpack/internal/diag"
+	"peerpack/internal/limits"
 )
 
 func texts(t *Table) [][]string {
@@ -195,6 +196,55 @@ func FuzzCSV(f *testing.F) {
 			for _, c := range row {
 				if c.Line < 1 || c.Col < 1 {
 					t.Fatalf("cell %q at %d:%d", c.Text, c.Line, c.Col)
+				}
+			}
+		}
+		t.Fatal("reader did not end")
+	})
+}
+
+// FuzzCSVLimits reads arbitrary input under tiny limits: the reader must
+// stop at them (never return more rows, wider rows or longer cells) and
+// every problem must carry a position.
+func FuzzCSVLimits(f *testing.F) {
+	f.Add([]byte("a,b\n1,2\n3,4\n5,6\n7,8\n"), uint8(2), uint8(3), uint8(4))
+	f.Add([]byte("a,b,c,d,e\n\"0123456789\",2\n"), uint8(1), uint8(1), uint8(1))
+	f.Fuzz(func(t *testing.T, data []byte, rows, cols, cell uint8) {
+		lim := limits.Limits{Rows: int64(rows) + 1, Columns: int64(cols) + 1, CellBytes: int64(cell) + 1}.Or()
+		r, err := NewCSVWith("f.csv", data, lim)
+		if err != nil {
+			var p *diag.Problem
+			if !errors.As(err, &p) || p.Msg == "" {
+				t.Fatalf("problem without a message: %v", err)
+			}
+			return
+		}
+		if int64(len(r.Header())) > lim.Columns {
+			t.Fatalf("header of %d columns under a limit of %d", len(r.Header()), lim.Columns)
+		}
+		got := int64(0)
+		for i := 0; i < 1e6; i++ {
+			row, err := r.Next()
+			if errors.Is(err, io.EOF) {
+				if got > lim.Rows {
+					t.Fatalf("%d rows under a limit of %d", got, lim.Rows)
+				}
+				return
+			}
+			if err != nil {
+				var p *diag.Problem
+				if !errors.As(err, &p) || p.Line < 1 {
+					t.Fatalf("problem without a position: %v", err)
+				}
+				if strings.HasPrefix(p.Msg, "this row has") {
+					got++ // a ragged row counts as a row read
+				}
+				continue
+			}
+			got++
+			for _, c := range row {
+				if int64(len(c.Text)) > lim.CellBytes {
+					t.Fatalf("cell of %d bytes under a limit of %d", len(c.Text), lim.CellBytes)
 				}
 			}
 		}

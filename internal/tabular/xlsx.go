@@ -362,11 +362,11 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 			return
 		}
 		if int64(len(t.Rows)) >= bk.lim.Rows {
-			overflow = diag.At(bk.file, rowNum, 1, "the sheet has %s", bk.lim.Over(limits.Rows, bk.lim.Rows+1, "split it into several files"))
+			overflow = diag.At(bk.file, rowNum, 1, "the sheet has %s", bk.lim.Beyond(limits.Rows, "split it into several files"))
 			return
 		}
 		if int64(len(t.Rows)+1)*int64(len(t.Header)) > bk.lim.SheetCells {
-			overflow = diag.At(bk.file, rowNum, 1, "the sheet has %s", bk.lim.Over(limits.SheetCells, bk.lim.SheetCells+1, "export it as CSV UTF-8, which is read row by row"))
+			overflow = diag.At(bk.file, rowNum, 1, "the sheet has %s", bk.lim.Beyond(limits.SheetCells, "export it as CSV UTF-8, which is read row by row"))
 			return
 		}
 		row := make([]Cell, len(t.Header))

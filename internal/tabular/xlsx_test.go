@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"peerpack/internal/limits"
 )
 
 var xlsxDir = filepath.Join("..", "..", "testdata", "data", "xlsx")
@@ -223,11 +225,32 @@ func FuzzXLSX(f *testing.F) {
 			if err.Error() == "" {
 				t.Fatal("empty message")
 			}
-			return
+		} else {
+			for _, r := range tb.Rows {
+				if len(r) != len(tb.Header) {
+					t.Fatalf("row of %d cells, header %d", len(r), len(tb.Header))
+				}
+			}
+		}
+		// The same input under tiny limits stops at them.
+		small := limits.Limits{Rows: 2, Columns: 3, CellBytes: 4, SheetCells: 5}.Or()
+		tb, err = ParseXLSXWith("f.xlsx", data, sheet, small)
+		if err != nil {
+			if err.Error() == "" {
+				t.Fatal("empty message")
+			}
+			if tb == nil {
+				return
+			}
+		}
+		if int64(len(tb.Rows)) > small.Rows || int64(len(tb.Header)) > small.Columns || int64(len(tb.Rows)*len(tb.Header)) > small.SheetCells {
+			t.Fatalf("%d rows x %d columns under limits %+v", len(tb.Rows), len(tb.Header), small)
 		}
 		for _, r := range tb.Rows {
-			if len(r) != len(tb.Header) {
-				t.Fatalf("row of %d cells, header %d", len(r), len(tb.Header))
+			for _, c := range r {
+				if int64(len(c.Text)) > small.CellBytes {
+					t.Fatalf("cell of %d bytes under a limit of %d", len(c.Text), small.CellBytes)
+				}
 			}
 		}
 	})

@@ -44,7 +44,7 @@ func runBatch(ctx context.Context, e *env, args []string) int {
 		e.errorf("%v\n", err)
 		return exitUsage
 	}
-	base, err := build.Load(src, nil)
+	base, err := build.LoadWith(src, nil, e.limits)
 	if err != nil {
 		return reportError(e, err)
 	}

@@ -9,6 +9,7 @@ import (
 
 	"peerpack/internal/build"
 	"peerpack/internal/demo"
+	"peerpack/internal/limits"
 	"peerpack/templates"
 )
 
@@ -115,7 +116,7 @@ func doBuild(ctx context.Context, e *env, src build.Source, out, figs, wb string
 		return exitUsage
 	}
 	e.debugf("reading %s\n", src.Display)
-	res, err := build.Build(ctx, src, build.Options{Output: out, Figures: figs, Workbook: wb, Created: created, Version: version})
+	res, err := build.Build(ctx, src, build.Options{Output: out, Figures: figs, Workbook: wb, Created: created, Version: version, Limits: e.limits})
 	if err != nil {
 		return reportError(e, err)
 	}
@@ -144,7 +145,7 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 	if err != nil {
 		return reportError(e, err)
 	}
-	in, err := build.Load(src, nil)
+	in, err := build.LoadWith(src, nil, e.limits)
 	if err != nil {
 		code := reportError(e, err)
 		if in != nil && in.Report != nil {
@@ -225,6 +226,13 @@ func runVersion(ctx context.Context, e *env, args []string) int {
 func runHelp(ctx context.Context, e *env, args []string) int {
 	if len(args) == 0 {
 		usage(e.stdout)
+		return exitOK
+	}
+	if args[0] == "limits" {
+		fmt.Fprintf(e.stdout, "Input limits (override with --limit name=value; sizes take K, M, G):\n")
+		for _, l := range limits.Describe() {
+			fmt.Fprintf(e.stdout, "  %s\n", l)
+		}
 		return exitOK
 	}
 	c := findCommand(args[0])

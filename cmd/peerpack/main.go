@@ -15,6 +15,7 @@ import (
 	"os/signal"
 	"syscall"
 
+	"peerpack/internal/limits"
 	"peerpack/internal/yamlx"
 )
 
@@ -39,6 +40,21 @@ type command struct {
 type env struct {
 	stdout, stderr io.Writer
 	quiet, verbose bool
+	limits         limits.Limits
+}
+
+// limitFlag collects repeated --limit name=value[,name=value] flags.
+type limitFlag struct{ lim *limits.Limits }
+
+func (f limitFlag) String() string { return "" }
+
+func (f limitFlag) Set(v string) error {
+	l, err := f.lim.Parse(v)
+	if err != nil {
+		return err
+	}
+	*f.lim = l
+	return nil
 }
 
 func (e *env) infof(format string, args ...any) {
@@ -123,6 +139,8 @@ func newFlags(c *command, e *env) *flag.FlagSet {
 	fs.SetOutput(io.Discard)
 	fs.BoolVar(&e.quiet, "quiet", false, "print only errors")
 	fs.BoolVar(&e.verbose, "verbose", false, "print each stage as it runs")
+	e.limits = limits.Default()
+	fs.Var(limitFlag{&e.limits}, "limit", "raise or lower an input limit, name=value[,name=value] (repeatable; see 'peerpack help limits')")
 	return fs
 }
 

@@ -61,6 +61,12 @@ func Markdown() goldmark.Markdown {
 // a *diag.List; the returned brief is usable for further checks when only
 // block problems were found.
 func Parse(file string, src []byte) (*Brief, error) {
+	return ParseWith(file, src, yamlx.Limits{})
+}
+
+// ParseWith is Parse with the given YAML limits for the front matter and
+// every block.
+func ParseWith(file string, src []byte, lim yamlx.Limits) (*Brief, error) {
 	var probs diag.List
 	if !utf8.Valid(src) {
 		line := 1 + bytes.Count(src[:firstInvalid(src)], []byte("\n"))
@@ -72,7 +78,7 @@ func Parse(file string, src []byte) (*Brief, error) {
 	if err != nil {
 		return nil, err
 	}
-	node, err := yamlx.Parse(file, fm, 1)
+	node, err := yamlx.ParseWith(file, fm, 1, lim)
 	if err != nil {
 		return nil, err
 	}
@@ -83,7 +89,7 @@ func Parse(file string, src []byte) (*Brief, error) {
 	recordLines(node, "", b.Lines)
 	probs.Add(b.setGroupPositions(node))
 	probs.Add(b.validateFrontMatter())
-	blocks, err := parseBlocks(file, body, bodyLine)
+	blocks, err := parseBlocks(file, body, bodyLine, lim)
 	probs.Add(err)
 	b.Blocks = blocks
 	probs.Add(b.validateBlocks())
@@ -341,7 +347,7 @@ func validHex(s string) bool {
 
 // parseBlocks finds the peerpack fenced blocks in the body and decodes
 // their YAML.
-func parseBlocks(file string, body []byte, bodyLine int) ([]Block, error) {
+func parseBlocks(file string, body []byte, bodyLine int, lim yamlx.Limits) ([]Block, error) {
 	var l diag.List
 	md := Markdown()
 	doc := md.Parser().Parse(text.NewReader(body), parser.WithContext(parser.NewContext()))
@@ -359,7 +365,7 @@ func parseBlocks(file string, body []byte, bodyLine int) ([]Block, error) {
 			info = strings.TrimSpace(string(fc.Info.Segment.Value(body)))
 		}
 		fenceLine := FenceLine(body, fc, bodyLine)
-		blk, err := DecodeBlock(file, info, FencedContent(body, fc), fenceLine)
+		blk, err := decodeBlock(file, info, FencedContent(body, fc), fenceLine, lim)
 		if err != nil {
 			l.Add(err)
 			return ast.WalkSkipChildren, nil
@@ -400,6 +406,10 @@ func FencedContent(body []byte, fc *ast.FencedCodeBlock) []byte {
 // DecodeBlock decodes the YAML of one fenced block. It returns nil, nil for
 // a fence that is not a peerpack block (an ordinary code sample).
 func DecodeBlock(file, info string, content []byte, fenceLine int) (Block, error) {
+	return decodeBlock(file, info, content, fenceLine, yamlx.Limits{})
+}
+
+func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Limits) (Block, error) {
 	var blk Block
 	switch info {
 	case "chart":
@@ -420,7 +430,7 @@ func DecodeBlock(file, info string, content []byte, fenceLine int) (Block, error
 		}
 		return nil, nil
 	}
-	node, err := yamlx.Parse(file, content, fenceLine)
+	node, err := yamlx.ParseWith(file, content, fenceLine, lim)
 	if err != nil {
 		return nil, err
 	}

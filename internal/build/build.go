@@ -27,6 +27,7 @@ import (
 	"peerpack/internal/diag"
 	"peerpack/internal/figures"
 	"peerpack/internal/layout"
+	"peerpack/internal/limits"
 	"peerpack/internal/narrative"
 )
 
@@ -85,6 +86,12 @@ type Inputs struct {
 // Load reads the brief and everything it names, and computes the figures
 // model. Every problem found is returned together as a *diag.List.
 func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
+	return LoadWith(src, override, limits.Default())
+}
+
+// LoadWith is Load with the given limits on every input.
+func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inputs, error) {
+	lim = lim.Or()
 	raw, err := fs.ReadFile(src.FS, src.Brief)
 	if err != nil {
 		return nil, diag.At(src.Display, 0, 0, "cannot read the brief: %v", unwrap(err))
@@ -93,11 +100,12 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 		return nil, diag.At(src.Display, 0, 0, "brief is %d bytes, over the limit of %d bytes", len(raw), brief.MaxBriefBytes)
 	}
 	var probs diag.List
-	b, err := brief.Parse(src.Display, raw)
+	b, err := brief.ParseWith(src.Display, raw, lim.YAML())
 	if b == nil {
 		return nil, err
 	}
 	probs.Add(err)
+	probs.Add(checkBlockCounts(b, lim))
 	if override != nil {
 		override(b)
 	}
@@ -108,7 +116,7 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 		// Front matter problems make loading the data pointless.
 		return nil, probs.Err()
 	}
-	d, rep, err := dataset.Load(src.FS, b)
+	d, rep, err := dataset.LoadWith(src.FS, b, lim)
 	if err != nil {
 		probs.Add(err)
 		// The report says what loaded; check prints it above the problems.
@@ -119,11 +127,48 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 		probs.Add(err)
 		return nil, probs.Err()
 	}
+	if err := lim.Check(b.File, 0, 0, limits.Groups, int64(len(m.Groups)), "the brief defines", "narrow each: or remove groups"); err != nil {
+		probs.Add(err)
+		return nil, probs.Err()
+	}
 	if err := layout.CheckPlaceholders(b, m); err != nil {
 		probs.Add(err)
 		return nil, probs.Err()
 	}
 	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS}, nil
+}
+
+// checkBlockCounts refuses a brief with more charts or blocks than the
+// limits allow, at the first block past the limit.
+func checkBlockCounts(b *brief.Brief, lim limits.Limits) error {
+	var l diag.List
+	charts := 0
+	for i, blk := range b.Blocks {
+		if blk.Kind() == "chart" {
+			charts++
+			if lim.Exceeded(limits.Charts, int64(charts)) {
+				p := blk.Position()
+				l.Add(lim.Check(b.File, p.Line, p.Column, limits.Charts, int64(countKind(b, "chart")), "the brief has", "split it into several briefs"))
+				break
+			}
+		}
+		if lim.Exceeded(limits.Blocks, int64(i+1)) {
+			p := blk.Position()
+			l.Add(lim.Check(b.File, p.Line, p.Column, limits.Blocks, int64(len(b.Blocks)), "the brief has", "split it into several briefs"))
+			break
+		}
+	}
+	return l.Err()
+}
+
+func countKind(b *brief.Brief, kind string) int {
+	n := 0
+	for _, blk := range b.Blocks {
+		if blk.Kind() == kind {
+			n++
+		}
+	}
+	return n
 }
 
 // rebaseDataPaths makes the brief's data paths relative to the root, so a
@@ -168,6 +213,8 @@ type Options struct {
 	Created  time.Time
 	Version  string
 	Override func(*brief.Brief)
+	// Limits cap every input; the zero value means the defaults.
+	Limits limits.Limits
 	// AfterStage, when set, is called after each stage ("load", "pack")
 	// with the stage's name; tests use it to interrupt a build part way.
 	AfterStage func(stage string)
@@ -227,7 +274,7 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 			opt.AfterStage(stage)
 		}
 	}
-	in, err := Load(src, opt.Override)
+	in, err := LoadWith(src, opt.Override, opt.Limits)
 	if err != nil {
 		return nil, err
 	}

@@ -14,8 +14,7 @@ import (
 
 var update = flag.Bool("update", false, "rewrite the first line of each malformed-input case's expect.txt from the current output (review the diff)")
 
-// TestMalformedCatalogue runs every case folder of testdata/bad/data (and
-// the limit cases of testdata/data/limits, which need an override) through
+// TestMalformedCatalogue runs every case folder of testdata/bad/data through
 // brief.Load and LoadWith. expect.txt holds, on its first line, the exact
 // first problem the case must produce (paths relative to the case's
 // folder), or "ok" for a case that must load. Further lines are texts the
@@ -27,7 +26,6 @@ func TestMalformedCatalogue(t *testing.T) {
 	n := 0
 	for _, root := range []string{
 		filepath.Join("..", "..", "testdata", "bad", "data"),
-		filepath.Join("..", "..", "testdata", "data", "limits"),
 	} {
 		entries, err := os.ReadDir(root)
 		if err != nil {

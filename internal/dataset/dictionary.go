@@ -36,8 +36,13 @@ type dictionaryFile struct {
 // the dictionary (usable when only some entries are wrong), the parsed
 // derive expressions by key, and every problem found.
 func ParseDictionary(file string, src []byte) (*Dictionary, map[string]*Derived, error) {
+	return ParseDictionaryWith(file, src, yamlx.Limits{})
+}
+
+// ParseDictionaryWith is ParseDictionary with the given YAML limits.
+func ParseDictionaryWith(file string, src []byte, lim yamlx.Limits) (*Dictionary, map[string]*Derived, error) {
 	var probs diag.List
-	node, err := yamlx.Parse(file, src, 0)
+	node, err := yamlx.ParseWith(file, src, 0, lim)
 	if err != nil {
 		return nil, nil, withSyntaxHint(err)
 	}
@@ -246,7 +251,7 @@ func (l *loader) dictionary(name string) (*Dictionary, map[string]*Derived) {
 		l.probs.Addf(name, 0, 0, "the dictionary is %s", l.lim.Over(limits.YAMLBytes, size, ""))
 		return nil, nil
 	}
-	d, derived, err := ParseDictionary(name, src)
+	d, derived, err := ParseDictionaryWith(name, src, l.lim.YAML())
 	l.probs.Add(err)
 	if d != nil && l.lim.Exceeded(limits.Indicators, int64(len(d.Indicators))) {
 		ind := d.Indicators[l.lim.Indicators]

@@ -37,7 +37,16 @@ type valuesReader struct {
 	derivedK map[string]*unknownName
 	order    []string // first-seen order of aggregated names, "i:"/"k:"/"d:" prefixed
 	rows     int
+	// otherRows counts rows naming an unknown id or key once
+	// maxUnknownNames distinct ones have been recorded, so a file of
+	// millions of different wrong ids costs a counter, not a map of them.
+	otherRows  int
+	otherFirst tabular.Cell
+	otherFile  string
 }
+
+// maxUnknownNames caps the distinct unknown ids and keys remembered.
+const maxUnknownNames = 1000
 
 // tooMany is added instead of formatting a message once the problem list is
 // full, so a million bad rows cost no more than counting them.
@@ -115,6 +124,9 @@ func (v *valuesReader) institution(file string, c tabular.Cell) int {
 		u.count++
 		return -1
 	}
+	if v.full(file, c) {
+		return -1
+	}
 	id = strings.Clone(id)
 	v.unknownI[id] = &unknownName{first: c, file: file, count: 1}
 	v.order = append(v.order, "i:"+id)
@@ -142,6 +154,9 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 	}
 	if u, ok := v.unknownK[key]; ok {
 		u.count++
+		return -1
+	}
+	if v.full(file, c) {
 		return -1
 	}
 	key = strings.Clone(key)
@@ -387,6 +402,19 @@ func (v *valuesReader) readWide(r tabular.RowReader, fileIdx int, ic, yc int) in
 	return rows
 }
 
+// full reports whether maxUnknownNames are recorded already; the row is
+// then only counted.
+func (v *valuesReader) full(file string, c tabular.Cell) bool {
+	if len(v.order) < maxUnknownNames {
+		return false
+	}
+	if v.otherRows == 0 {
+		v.otherFirst, v.otherFile = c, file
+	}
+	v.otherRows++
+	return true
+}
+
 // reportUnknown turns the aggregated unknown names into problems, in the
 // order they were first met.
 func (v *valuesReader) reportUnknown() {
@@ -395,25 +423,37 @@ func (v *valuesReader) reportUnknown() {
 		ids[i] = in.ID
 	}
 	keys := v.dict.Keys()
-	for n, name := range v.order {
-		kind, key := name[:2], name[2:]
-		more := func(u *unknownName) string {
-			if u.count > 1 {
-				return fmt.Sprintf(" (%d rows)", u.count)
-			}
-			return ""
+	more := func(u *unknownName) string {
+		if u.count > 1 {
+			return fmt.Sprintf(" (%d rows)", u.count)
 		}
+		return ""
+	}
+	// Past the first maxListedUnknown names of a kind, one message sums
+	// up the rest: a hundred wrong ids are one mistake (the wrong
+	// register, a changed id scheme), not a hundred.
+	type rest struct {
+		names, rows int
+		first       *unknownName
+	}
+	var restI, restK rest
+	listedI, listedK := 0, 0
+	for _, name := range v.order {
+		kind, key := name[:2], name[2:]
 		switch kind {
 		case "i:":
 			u := v.unknownI[key]
-			msg := fmt.Sprintf("unknown institution id %q%s: it is not in the register (%s)", key, more(u), v.reg.File)
-			// Suggest only for the first few: the search is over the whole
-			// register.
-			s := ""
-			if n < 20 {
-				s = yamlx.Nearest(key, ids)
+			if listedI >= maxListedUnknown {
+				restI.names++
+				restI.rows += u.count
+				if restI.first == nil {
+					restI.first = u
+				}
+				continue
 			}
-			if s != "" {
+			listedI++
+			msg := fmt.Sprintf("unknown institution id %q%s: it is not in the register (%s)", key, more(u), v.reg.File)
+			if s := yamlx.Nearest(key, ids); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			} else {
 				msg += "; add the institution to the register or correct the id"
@@ -421,6 +461,15 @@ func (v *valuesReader) reportUnknown() {
 			v.addf(u.file, u.first, "%s", msg)
 		case "k:":
 			u := v.unknownK[key]
+			if listedK >= maxListedUnknown {
+				restK.names++
+				restK.rows += u.count
+				if restK.first == nil {
+					restK.first = u
+				}
+				continue
+			}
+			listedK++
 			msg := fmt.Sprintf("unknown indicator key %q%s: it is not in the dictionary (%s)", key, more(u), v.dict.File)
 			if s := yamlx.Nearest(key, keys); s != "" {
 				msg += fmt.Sprintf("; did you mean %q?", s)
@@ -434,4 +483,17 @@ func (v *valuesReader) reportUnknown() {
 			v.addf(u.file, u.first, "%q is derived (derive: in %s line %d), so it is computed, not read%s; remove its rows or remove derive:", key, v.dict.File, in.Line, more(u))
 		}
 	}
+	if restI.names > 0 {
+		v.addf(restI.first.file, restI.first.first, "and %d more unknown institution ids over %d rows, the first here; with this many, check that the brief names the register these values belong to (%s)", restI.names, restI.rows, v.reg.File)
+	}
+	if restK.names > 0 {
+		v.addf(restK.first.file, restK.first.first, "and %d more unknown indicator keys over %d rows, the first here; with this many, check that the brief names the dictionary these values belong to (%s)", restK.names, restK.rows, v.dict.File)
+	}
+	if v.otherRows > 0 {
+		v.addf(v.otherFile, v.otherFirst, "and %d more rows from here on with ids or keys that are neither in the register nor in the dictionary (over %d different wrong names in all); is this the right register and dictionary for these values?", v.otherRows, maxUnknownNames)
+	}
 }
+
+// maxListedUnknown is how many unknown ids (and keys) are listed one by
+// one, with a suggestion each, before the rest are summed up.
+const maxListedUnknown = 20

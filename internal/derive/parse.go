@@ -188,7 +188,7 @@ func (p *parser) word(w string) bool {
 func (p *parser) expect(w string, form string) error {
 	if !p.word(w) {
 		t := p.peek()
-		return &Error{t.col, fmt.Sprintf("expected %q in %q, found %s; write it as %s", w, form, describe(t), formExample(form))}
+		return &Error{t.col, fmt.Sprintf("expected %q in %q, found %s; for example: %s", w, form, describe(t), formExample(form))}
 	}
 	p.next()
 	return nil

@@ -117,4 +117,6 @@ func BenchmarkWriteCSVWorld(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+	b.StopTimer()
+	b.ReportMetric(float64(len(m.Rows())), "rows")
 }

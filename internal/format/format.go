@@ -117,8 +117,9 @@ func Number(v float64, decimals int) string {
 func Int(n int) string { return Number(float64(n), 0) }
 
 // Value prints an indicator value with its declared decimals and unit:
-// percent "23.4%", currency "PPP$ 182,300" (after conversion), others as the
-// bare number.
+// percent "23.4%", currency in international dollars "PPP$ 182,300"
+// (converted, or derived from converted amounts), others as the bare
+// number.
 func Value(ind dataset.Indicator, v float64) string {
 	if math.IsNaN(v) {
 		return "–"
@@ -128,12 +129,18 @@ func Value(ind dataset.Indicator, v float64) string {
 	case dataset.UnitPercent:
 		return n + "%"
 	case dataset.UnitCurrency:
-		if ind.Currency {
+		if inDollars(ind) {
 			return "PPP$ " + n
 		}
 		return n
 	}
 	return n
+}
+
+// inDollars reports whether an indicator's values are international
+// dollars: converted with PPP, or derived from converted amounts.
+func inDollars(ind dataset.Indicator) bool {
+	return ind.Currency || ind.InternationalDollars
 }
 
 // Difference prints the size of a difference between two values of an
@@ -149,7 +156,7 @@ func Difference(ind dataset.Indicator, d float64) string {
 		}
 		return n + " percentage points"
 	case dataset.UnitCurrency:
-		if ind.Currency {
+		if inDollars(ind) {
 			return "PPP$ " + n
 		}
 	}

@@ -50,6 +50,10 @@ func TestValueAndDifference(t *testing.T) {
 	if got := Value(cur, 182300.4); got != "PPP$ 182,300" {
 		t.Errorf("currency value %q", got)
 	}
+	derived := dataset.Indicator{Unit: dataset.UnitCurrency, Decimals: 0, InternationalDollars: true}
+	if got := Value(derived, 103157); got != "PPP$ 103,157" {
+		t.Errorf("derived currency value %q", got)
+	}
 	if got := Difference(pct, -3.61); got != "3.6 percentage points" {
 		t.Errorf("difference %q", got)
 	}

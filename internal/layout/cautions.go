@@ -20,11 +20,20 @@ func (w *writer) cautions() {
 	w.cols = 1
 	w.sectionHeading("About these figures", 1)
 	if w.own != nil {
-		s := "The cautions that go with these figures are set out in “" + w.own.title + "” above. This section adds the coverage of the data and the definitions behind each figure"
-		if len(w.missingCautions()) > 0 || len(w.indicatorJudgements()) > 0 {
-			s += ", and the cautions that section does not make"
+		// The brief's own section carries the cautions: point to it and
+		// add, right there, the ones it does not make.
+		s := "The cautions that go with these figures are set out in “" + w.own.title + "” above."
+		more := len(w.missingCautions()) > 0 || len(w.indicatorJudgements()) > 0
+		if more {
+			s += " Keep in mind as well:"
+		} else {
+			s += " This section gives the coverage of the data and the definitions behind each figure."
 		}
-		w.plain(s + ".")
+		w.plain(s)
+		if more {
+			w.cautionBullets()
+			w.y += paraGap - listItemGap
+		}
 	}
 	w.coverage()
 	w.definitions()
@@ -117,28 +126,29 @@ func (w *writer) indicatorJudgements() []dataset.Indicator {
 	return out
 }
 
-// limits sets the cautions the pack has not yet stated: all of them, or,
-// after the brief's own cautions section, only those it leaves out.
+// limits closes a pack whose brief has no cautions section of its own
+// with all the standard cautions.
 func (w *writer) limits() {
-	missing := w.missingCautions()
-	judgements := w.indicatorJudgements()
-	if len(missing) == 0 && len(judgements) == 0 {
+	if w.own != nil {
 		return
 	}
-	title := "What the figures do not show"
-	if w.own != nil {
-		title = "Further cautions"
-	}
-	w.sectionHeading(title, 2)
+	w.sectionHeading("What the figures do not show", 2)
+	w.cautionBullets()
+}
+
+// cautionBullets sets the cautions the pack has not yet stated: all of
+// them, or, after the brief's own cautions section, only those it leaves
+// out; "Use with care" always last.
+func (w *writer) cautionBullets() {
 	last := -1
-	for _, i := range missing {
+	for _, i := range w.missingCautions() {
 		if standardCautions[i].c == cautionDecisions {
 			last = i
 			continue
 		}
 		w.bullet(standardCautions[i].lead, standardCautions[i].text)
 	}
-	for _, ind := range judgements {
+	for _, ind := range w.indicatorJudgements() {
 		w.bullet(indicatorLabel(ind, false)+".", ind.Judgement)
 	}
 	if last >= 0 {

@@ -27,7 +27,11 @@ func (w *writer) coverage() {
 	}
 	s := fmt.Sprintf("The register holds %s institutions, of which %s form the ranked population", format.Int(n), format.Int(ranked))
 	if d.Population != nil && len(d.Population.Rules) > 0 {
-		s += " under these rules: " + strings.Join(d.Population.Rules, "; ")
+		rules := make([]string, len(d.Population.Rules))
+		for i, r := range d.Population.Rules {
+			rules[i] = lowerFirst(r)
+		}
+		s += " under these rules: " + strings.Join(rules, "; ")
 	}
 	s += fmt.Sprintf(". Positions are for %d", w.m.Year)
 	if w.m.First != w.m.Last {
@@ -41,7 +45,7 @@ func (w *writer) coverage() {
 	}
 	shown := w.packIndicators()
 	g := grid{
-		head:    []string{"Indicator", "Unit", "Better", "Source", "With a value", "Missing"},
+		head:    []string{"Indicator", "Unit", "Better", "Source", "Reporting", "Missing"},
 		align:   []byte{'L', 'L', 'L', 'L', 'R', 'R'},
 		caption: fmt.Sprintf("Indicators of this pack and their coverage in %s, %d", gr.Name, w.m.Year),
 	}

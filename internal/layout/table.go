@@ -49,6 +49,9 @@ const (
 	// shortTextCol is the widest a text column (a group name, a country)
 	// counts as short, which a table would rather not wrap.
 	shortTextCol = 40.0
+	// minBrokenCol is the narrowest a text column is set when its words
+	// must break to leave the figures whole.
+	minBrokenCol = 12.0
 	legendSize   = 7.5
 	glyphColumn  = 3.6 // room for a quartile glyph before a number
 )
@@ -316,8 +319,9 @@ func (w *writer) quartileLegend(x float64) {
 // fits is false when the columns had to be narrowed below their content.
 func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Font) (widths []float64, fits bool) {
 	ncol := len(g.head)
-	nat := make([]float64, ncol)  // widest content
-	word := make([]float64, ncol) // widest single word (text columns)
+	nat := make([]float64, ncol)     // widest content
+	word := make([]float64, ncol)    // widest single word (text columns)
+	cellNat := make([]float64, ncol) // widest cell, header left out
 	for c := 0; c < ncol; c++ {
 		for _, wd := range strings.Fields(g.head[c]) {
 			word[c] = math.Max(word[c], w.doc.WidthIn(headF, wd))
@@ -335,6 +339,7 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 				extra = glyphColumn
 			}
 			nat[c] = math.Max(nat[c], w.doc.WidthIn(f, r[c].text)+extra)
+			cellNat[c] = math.Max(cellNat[c], w.doc.WidthIn(f, r[c].text)+extra)
 			if g.align[c] == 'L' {
 				for _, wd := range strings.Fields(r[c].text) {
 					word[c] = math.Max(word[c], math.Min(w.doc.WidthIn(f, wd), 40)+extra)
@@ -455,7 +460,34 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 				widths[c] += spare * ((nat[c] + 2*cellPadX - minOf(c)) / want)
 			}
 		}
+		if first >= 0 && fits && w.labelsTall(g, first, widths[first], bodyF, boldF) {
+			fits = false
+		}
 	default:
+		// Too narrow even with text wrapped at its words. Figures keep
+		// the width of their widest value (their headers break inside
+		// words instead) and the text columns share the rest, down to
+		// minBrokenCol each, breaking long words; only when even that
+		// fails is every column narrowed and cells shortened.
+		figures, nText, textWord := 0.0, 0, 0.0
+		for c := 0; c < ncol; c++ {
+			if g.align[c] == 'R' {
+				figures += cellNat[c] + 2*cellPadX
+			} else {
+				nText++
+				textWord += word[c] + 2*cellPadX
+			}
+		}
+		if rest := avail - figures; rest >= float64(nText)*minBrokenCol && textWord > 0 {
+			for c := 0; c < ncol; c++ {
+				if g.align[c] == 'R' {
+					widths[c] = cellNat[c] + 2*cellPadX
+				} else {
+					widths[c] = rest * (word[c] + 2*cellPadX) / textWord
+				}
+			}
+			return widths, false
+		}
 		total := fixed
 		for c := 0; c < ncol; c++ {
 			if g.align[c] == 'L' {
@@ -501,4 +533,27 @@ func (w *writer) cellLines(text string, f pdf.Font, width float64, maxLines int)
 		out = []string{""}
 	}
 	return out
+}
+
+// labelsTall reports whether any cell of a text column would take three
+// lines or more at a width: a table rather steps down a size than set its
+// labels in narrow towers.
+func (w *writer) labelsTall(g grid, c int, width float64, bodyF, boldF pdf.Font) bool {
+	for ri, r := range g.rows {
+		if c >= len(r) {
+			continue
+		}
+		f := bodyF
+		if r[c].bold || ri < len(g.focus) && g.focus[ri] {
+			f = boldF
+		}
+		room := width - 2*cellPadX
+		if r[c].shade > 0 {
+			room -= glyphColumn
+		}
+		if len(w.cellLines(r[c].text, f, room, 3)) >= 3 {
+			return true
+		}
+	}
+	return false
 }

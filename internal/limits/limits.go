@@ -67,7 +67,7 @@ func Default() Limits {
 		Institutions: 200_000,
 		Indicators:   2000,
 		Years:        100,
-		Values:       100_000_000, // 800 MB stored; the world is 4.3 million
+		Values:       50_000_000, // 400 MB stored (800 MB while loading); the world is 4.3 million
 		Groups:       1000,
 		Charts:       500,
 		Blocks:       2000,
@@ -292,4 +292,10 @@ func Group(n int64) string {
 		b.WriteRune(c)
 	}
 	return b.String()
+}
+
+// YAML returns the YAML limits in the form internal/yamlx takes.
+func (l Limits) YAML() yamlx.Limits {
+	l = l.Or()
+	return yamlx.Limits{Bytes: int(l.YAMLBytes), Depth: int(l.YAMLDepth), Scalar: int(l.YAMLScalar), Nodes: int(l.YAMLNodes)}
 }

@@ -29,6 +29,8 @@ const (
 	mMedianChange     = "median_change"
 
 	mMembers = "n_members"
+
+	mSpearman = "spearman"
 )
 
 // posKey names a position figure of an institution in a group.

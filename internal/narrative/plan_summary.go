@@ -85,7 +85,10 @@ func (c *composer) overview(sc *scope) []Sentence {
 // middle of the reference group, ranked by percentile gap (percentile
 // minus 50: how far the focus is from the group's middle in the better
 // direction). An indicator whose percentile prints as 50 is neither.
-func (c *composer) strengthsAndRisks(sc *scope) []Sentence {
+//
+// afterOverview says the overview sentence, which names the group, comes
+// just before: the strengths then do not name it again.
+func (c *composer) strengthsAndRisks(sc *scope, afterOverview bool) []Sentence {
 	g := sc.ref
 	if g == nil {
 		return nil
@@ -94,6 +97,7 @@ func (c *composer) strengthsAndRisks(sc *scope) []Sentence {
 	var out []Sentence
 	if len(up) > 0 {
 		f, cites := c.ranked(g, up)
+		f.GroupNamed = afterOverview
 		out = append(out, c.say("", c.w.Strengths(f), cites...))
 	}
 	if len(down) > 0 {

@@ -144,6 +144,8 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	case "ties":
 		// "joint 4th with 2 others": the others, or all who share.
 		out = append(out, format.Int(whole-1), format.Int(whole))
+	case "pearson", "spearman":
+		out = append(out, format.Number(v, 2), format.Number(math.Abs(v), 2))
 	case "rank":
 		out = append(out, format.Rank(whole, bands), format.Ordinal(whole), format.Int(whole))
 	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n":

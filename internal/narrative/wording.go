@@ -59,6 +59,11 @@ type Wording interface {
 	PPP(f CaveatFact) string
 	Judgement(f CaveatFact) string
 	OneCountry(f CaveatFact) string
+	// Association says how two indicators move together across a group;
+	// AssociationTooFew names the pairs with too few members reporting
+	// both to say.
+	Association(f AssociationFact) string
+	AssociationTooFew(f AssociationFact) string
 	// LowerPercentiles explains that percentiles run in the better
 	// direction for the lower-is-better indicators listed.
 	LowerPercentiles(inds []string) string
@@ -196,6 +201,9 @@ type RankedFact struct {
 	Focus string
 	Group string
 	Items []RankedItem
+	// GroupNamed is set when the sentence before has just named the
+	// group, so this one need not.
+	GroupNamed bool
 }
 
 // CompetitionFact describes the focus placed inside a competitor system.
@@ -249,4 +257,23 @@ type CaveatFact struct {
 	Country   string
 	// Indicators lists indicators a caveat covers together.
 	Indicators []string
+}
+
+// AssociationFact is how two indicators move together across a group's
+// members in a year (Spearman's rank correlation).
+type AssociationFact struct {
+	Seed  string
+	Group string
+	X, Y  string
+	N     string
+	Year  string
+	Rho   string
+	// Strength is Above (clear, |rho| >= AssociationClear), Level (loose)
+	// or Below (little association); Negative when higher X goes with
+	// lower Y.
+	Strength int
+	Negative bool
+	// Threshold, for AssociationTooFew, is the printed minimum number of
+	// members reporting both.
+	Threshold string
 }

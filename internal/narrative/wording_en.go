@@ -102,6 +102,7 @@ var englishHeadings = map[string]string{
 	"competition": "Competitor systems",
 	"gaps":        "Gaps",
 	"caveats":     "Reading these figures",
+	"association": "How indicators move together",
 }
 
 // Heading names a topic.
@@ -410,6 +411,13 @@ func (e english) Strengths(f RankedFact) string {
 	if len(f.Items) == 1 {
 		tmpl = [...]string{"Its strongest position {in} is on {items}.", "Measured against {group}, the clearest strength is {items}."}
 	}
+	if f.GroupNamed {
+		// The same phrasing picked, without the group again.
+		tmpl = [...]string{"Its strongest positions are on {items}.", "The clearest strengths are {items}."}
+		if len(f.Items) == 1 {
+			tmpl = [...]string{"Its strongest position is on {items}.", "The clearest strength is {items}."}
+		}
+	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], "group", f.Group, "in", e.in(f.Group), "items", e.ranked(f.Items))
 }
 
@@ -604,4 +612,34 @@ func (e english) LowerPercentiles(inds []string) string {
 // Cautions: what every pack says about its figures.
 func (e english) Cautions() string {
 	return e.fill("Ranks and percentiles depend on which institutions report and on how each indicator is defined; which indicators are shown and which direction counts as better are choices, not facts; small differences are within the uncertainty of the data; and the figures do not measure everything a university does.")
+}
+
+// Association: two indicators across a group's members, never as cause.
+func (e english) Association(f AssociationFact) string {
+	kv := []string{"x", f.X, "y", f.Y, "n", f.N, "group", f.Group, "year", f.Year, "rho", f.Rho}
+	if f.Strength == Below {
+		return e.fill("Across the {n} members of {group} reporting both in {year}, {x} and {y} show little association (Spearman's rank correlation {rho}).", kv...)
+	}
+	how := "clearly"
+	if f.Strength == Level {
+		how = "loosely"
+	}
+	with := "higher"
+	if f.Negative {
+		with = "lower"
+	}
+	return e.fill("Across the {n} members of {group} reporting both in {year}, higher {x} goes "+how+" with "+with+" {y} (Spearman's rank correlation {rho}); that is an association, not evidence that one causes the other.", kv...)
+}
+
+// AssociationTooFew: pairs with too few members reporting both.
+func (e english) AssociationTooFew(f AssociationFact) string {
+	lead := "Only {n} members of {group} report"
+	switch f.N {
+	case "0":
+		lead = "No member of {group} reports"
+	case "1":
+		lead = "Only one member of {group} reports"
+	}
+	return e.fill(lead+" both {x} and {y} in {year}, fewer than the {threshold} a rank correlation needs, so the pack does not say whether they move together.",
+		"n", f.N, "group", f.Group, "x", f.X, "y", f.Y, "year", f.Year, "threshold", f.Threshold)
 }

@@ -23,7 +23,7 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 		main = append(main, c.overview(sc)...)
 	}
 	if sc.has("strengths") {
-		main = append(main, c.strengthsAndRisks(sc)...)
+		main = append(main, c.strengthsAndRisks(sc, sc.has("position"))...)
 	}
 	if sc.has("change") {
 		main = append(main, c.headline(sc)...)
@@ -72,7 +72,7 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 func (c *composer) writeDetail(sc *scope) []Paragraph {
 	var out []Paragraph
 	if sc.has("strengths") {
-		s := append(c.overview(sc), c.strengthsAndRisks(sc)...)
+		s := append(c.overview(sc), c.strengthsAndRisks(sc, true)...)
 		if len(s) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("strengths"), Sentences: s})
 		}
@@ -80,6 +80,11 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 	for _, ind := range sc.inds {
 		if s := c.indicatorSentences(sc, ind); len(s) > 0 {
 			out = append(out, Paragraph{Heading: headingOf(ind), Sentences: s})
+		}
+	}
+	if sc.has("association") {
+		if s := c.association(sc); len(s) > 0 {
+			out = append(out, Paragraph{Heading: c.w.Heading("association"), Sentences: s})
 		}
 	}
 	if sc.has("competition") && len(sc.systems) > 0 {
@@ -132,7 +137,7 @@ func (c *composer) indicatorSentences(sc *scope, ind dataset.Indicator) []Senten
 func (c *composer) writeBullets(sc *scope) []Paragraph {
 	var out []Paragraph
 	if sc.has("strengths") {
-		for _, s := range append(c.overview(sc), c.strengthsAndRisks(sc)...) {
+		for _, s := range append(c.overview(sc), c.strengthsAndRisks(sc, true)...) {
 			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})
 		}
 	}
@@ -160,6 +165,11 @@ func (c *composer) writeBullets(sc *scope) []Paragraph {
 		}
 		if len(s) > 0 {
 			out = append(out, Paragraph{Bullet: true, Heading: headingOf(ind), Sentences: s})
+		}
+	}
+	if sc.has("association") {
+		for _, s := range c.association(sc) {
+			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})
 		}
 	}
 	if sc.has("competition") {

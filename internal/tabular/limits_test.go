@@ -131,3 +131,19 @@ func TestXLSXPaddingBomb(t *testing.T) {
 		t.Fatalf("got %v", err)
 	}
 }
+
+// TestXLSXRepeatedCells: cells that all claim column A never pass the
+// column limit by number; they are counted per row.
+func TestXLSXRepeatedCells(t *testing.T) {
+	row := `<row r="1"><c r="A1" t="inlineStr"><is><t>a</t></is></c></row><row r="2">` + strings.Repeat(`<c r="A2"><v>1</v></c>`, 50) + `</row>`
+	_, err := ParseXLSXWith("b.xlsx", book(t, row, ""), "", mustLimits(t, "columns=10"))
+	want := "b.xlsx:2:1: row 2 has more than the limit of 10 columns; the workbook may be damaged: save it again from the spreadsheet, or raise the limit with --limit columns=20"
+	if err == nil || err.Error() != want {
+		t.Errorf("\n got %v\nwant %s", err, want)
+	}
+	sst := strings.Repeat(`<si><t>x</t></si>`, 30)
+	_, err = ParseXLSXWith("b.xlsx", book(t, `<row r="1"><c r="A1" t="s"><v>0</v></c></row>`, sst), "", mustLimits(t, "sheet-cells=20"))
+	if err == nil || !strings.Contains(err.Error(), "shared string table has more than the limit of 20 cells") {
+		t.Errorf("shared strings: %v", err)
+	}
+}

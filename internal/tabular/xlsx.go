@@ -252,6 +252,9 @@ func (bk *xlsxBook) sharedStrings(name string) ([]string, error) {
 			switch t.Name.Local {
 			case "si":
 				inSI = false
+				if int64(len(out)) >= bk.lim.SheetCells {
+					return nil, diag.At(bk.file, 0, 0, "the workbook's shared string table has %s", bk.lim.Beyond(limits.SheetCells, "export the sheet as CSV UTF-8"))
+				}
 				if int64(sb.Len()) > bk.lim.CellBytes {
 					return nil, diag.At(bk.file, 0, 0, "shared string %d of the workbook is %s", len(out), bk.lim.Over(limits.CellBytes, int64(sb.Len()), ""))
 				}
@@ -460,6 +463,11 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 				if int64(len(text)) > bk.lim.CellBytes {
 					probs.Addf(bk.file, rowNum, cur.col, "cell %s%d is %s", ColumnName(cur.col), rowNum, bk.lim.Over(limits.CellBytes, int64(len(text)), ""))
 					text = ""
+				}
+				if int64(len(cells)) >= bk.lim.Columns {
+					// Cells that repeat a reference (r="A1" over and over)
+					// never pass the column limit; count them instead.
+					return nil, diag.At(bk.file, rowNum, cur.col, "row %d has %s", rowNum, bk.lim.Beyond(limits.Columns, "the workbook may be damaged: save it again from the spreadsheet"))
 				}
 				cells = append(cells, xlsxCell{col: cur.col, text: text})
 				nextCol = cur.col + 1

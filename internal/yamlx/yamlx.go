@@ -48,12 +48,39 @@ func (e *Error) Error() string {
 	}
 }
 
-// Parse reads src into a node tree, enforcing the size, depth and alias
-// limits. lineOffset is added to every reported line, for YAML embedded in a
-// larger file (a brief's front matter or a fenced block).
+// Limits caps one YAML document; zero fields mean the defaults above.
+type Limits struct {
+	Bytes, Depth, Scalar, Nodes int
+}
+
+func (l Limits) or() Limits {
+	if l.Bytes <= 0 {
+		l.Bytes = MaxBytes
+	}
+	if l.Depth <= 0 {
+		l.Depth = MaxDepth
+	}
+	if l.Scalar <= 0 {
+		l.Scalar = MaxScalar
+	}
+	if l.Nodes <= 0 {
+		l.Nodes = MaxNodes
+	}
+	return l
+}
+
+// Parse reads src into a node tree, enforcing the default size, depth and
+// alias limits. lineOffset is added to every reported line, for YAML
+// embedded in a larger file (a brief's front matter or a fenced block).
 func Parse(file string, src []byte, lineOffset int) (*yaml.Node, error) {
-	if len(src) > MaxBytes {
-		return nil, &Error{File: file, Line: lineOffset + 1, Msg: fmt.Sprintf("YAML of %d bytes is over the limit of %d bytes; split it or shorten it", len(src), MaxBytes)}
+	return ParseWith(file, src, lineOffset, Limits{})
+}
+
+// ParseWith is Parse with the given limits.
+func ParseWith(file string, src []byte, lineOffset int, lim Limits) (*yaml.Node, error) {
+	lim = lim.or()
+	if len(src) > lim.Bytes {
+		return nil, &Error{File: file, Line: lineOffset + 1, Msg: fmt.Sprintf("YAML of %d bytes is over the limit of %d bytes; shorten it, or raise the limit with --limit yaml=N", len(src), lim.Bytes)}
 	}
 	// Refuse anchors and aliases before the decoder expands anything.
 	var doc yaml.Node
@@ -65,7 +92,7 @@ func Parse(file string, src []byte, lineOffset int) (*yaml.Node, error) {
 		return nil, wrapYAMLError(file, err, lineOffset)
 	}
 	count := 0
-	if err := walkLimits(file, &doc, 0, &count, lineOffset); err != nil {
+	if err := walkLimits(file, &doc, 0, &count, lineOffset, lim); err != nil {
 		return nil, err
 	}
 	shift(&doc, lineOffset)
@@ -85,19 +112,19 @@ func shift(n *yaml.Node, off int) {
 	}
 }
 
-func walkLimits(file string, n *yaml.Node, depth int, count *int, off int) error {
+func walkLimits(file string, n *yaml.Node, depth int, count *int, off int, lim Limits) error {
 	*count++
-	if *count > MaxNodes {
-		return &Error{File: file, Line: n.Line + off, Column: n.Column, Msg: fmt.Sprintf("YAML has more than %d nodes; this is far beyond any brief or dictionary", MaxNodes)}
+	if *count > lim.Nodes {
+		return &Error{File: file, Line: n.Line + off, Column: n.Column, Msg: fmt.Sprintf("YAML has more than %d nodes, far beyond any brief or dictionary; raise the limit with --limit yaml-nodes=N if it is really meant", lim.Nodes)}
 	}
-	if depth > MaxDepth {
-		return &Error{File: file, Line: n.Line + off, Column: n.Column, Msg: fmt.Sprintf("YAML nested deeper than %d levels", MaxDepth)}
+	if depth > lim.Depth {
+		return &Error{File: file, Line: n.Line + off, Column: n.Column, Msg: fmt.Sprintf("YAML nested deeper than %d levels; flatten it, or raise the limit with --limit yaml-depth=N", lim.Depth)}
 	}
 	if n.Kind == yaml.AliasNode || n.Anchor != "" {
 		return &Error{File: file, Line: n.Line + off, Column: n.Column, Msg: "YAML anchors and aliases (& and *) are not accepted; write the value out in full"}
 	}
-	if n.Kind == yaml.ScalarNode && len(n.Value) > MaxScalar {
-		return &Error{File: file, Line: n.Line + off, Column: n.Column, Msg: fmt.Sprintf("a YAML value of %d bytes is over the limit of %d bytes", len(n.Value), MaxScalar)}
+	if n.Kind == yaml.ScalarNode && len(n.Value) > lim.Scalar {
+		return &Error{File: file, Line: n.Line + off, Column: n.Column, Msg: fmt.Sprintf("a YAML value of %d bytes is over the limit of %d bytes; shorten it, or raise the limit with --limit yaml-scalar=N", len(n.Value), lim.Scalar)}
 	}
 	if n.Kind == yaml.MappingNode {
 		seen := map[string]*yaml.Node{}
@@ -110,7 +137,7 @@ func walkLimits(file string, n *yaml.Node, depth int, count *int, off int) error
 		}
 	}
 	for _, c := range n.Content {
-		if err := walkLimits(file, c, depth+1, count, off); err != nil {
+		if err := walkLimits(file, c, depth+1, count, off, lim); err != nil {
 			return err
 		}
 	}

@@ -2,10 +2,10 @@
 """Writes the size-limit cases of the malformed-input catalogue.
 
 Cases in testdata/bad/data/ go over a default limit (they are large by
-design); cases in testdata/data/limits/ go over a limit lowered with
+design); cases named limit_* go over a limit lowered with
 --limit in their args.txt. Each case is the small base case (three
 institutions, four indicators) with one thing changed. Run from the
-repository root: python3 testdata/data/limits/generate.py
+repository root: python3 testdata/bad/data/limit_generate.py
 """
 import os
 
@@ -84,7 +84,7 @@ def with_notes(values):
 
 
 BAD = os.path.join("testdata", "bad", "data")
-LIM = os.path.join("testdata", "data", "limits")
+LIM = os.path.join("testdata", "bad", "data")
 
 # Over the default limits (64 KiB a field, 4,096 columns, 100 years).
 case(BAD, "note_too_long", with_notes(VALUES) + 'VA001,2024,intl_students,12.5,"' + "see the annex. " * 4400 + '"\n')
@@ -97,15 +97,23 @@ case(BAD, "population_nan_threshold", front="population:\n  min_total:\n    - {i
 
 # Over limits lowered with --limit.
 long_rows = VALUES + "VA001,2023,papers,510\nVA001,2024,academic_staff,380\n"
-case(LIM, "rows", long_rows, "--limit rows=8")
-case(LIM, "rows_at_limit_valid", VALUES, "--limit rows=8")
-case(LIM, "institutions", VALUES, "--limit institutions=2")
-case(LIM, "indicators", VALUES, "--limit indicators=3")
+case(LIM, "limit_rows", long_rows, "--limit rows=8")
+case(LIM, "limit_rows_at_limit_valid", VALUES, "--limit rows=8")
+case(LIM, "limit_institutions", VALUES, "--limit institutions=2")
+case(LIM, "limit_indicators", VALUES, "--limit indicators=3")
 assert len(REGISTER) < 200 < len(long_rows)
-case(LIM, "file_bytes", long_rows, "--limit file=200")
-case(LIM, "cell", with_notes(VALUES).replace("KE001,2024,papers,450,", "KE001,2024,papers,450,provisional figure from the annual return"), "--limit cell=32")
-case(LIM, "columns", "institution,year,papers,intl_students,academic_staff,female_share\nKE001,2024,450,14.5,1100,0.41\n", "--limit columns=5")
-case(LIM, "values", VALUES, "--limit values=20")
-case(LIM, "years", VALUES, "--limit years=1")
-case(LIM, "yaml_bytes", VALUES, "--limit yaml=200")
-case(LIM, "two_limits_valid", VALUES, "--limit rows=8,institutions=3 --limit=years=2")
+case(LIM, "limit_file_bytes", long_rows, "--limit file=200")
+case(LIM, "limit_cell", with_notes(VALUES).replace("KE001,2024,papers,450,", "KE001,2024,papers,450,provisional figure from the annual return"), "--limit cell=32")
+case(LIM, "limit_columns", "institution,year,papers,intl_students,academic_staff,female_share\nKE001,2024,450,14.5,1100,0.41\n", "--limit columns=5")
+case(LIM, "limit_values", VALUES, "--limit values=20")
+case(LIM, "limit_years", VALUES, "--limit years=1")
+case(LIM, "limit_yaml_bytes", VALUES, "--limit yaml=200")
+# A workbook sheet of 9 rows x 4 columns is held whole: 36 cells.
+with open(os.path.join(BAD, "xlsx_unknown_sheet", "values.xlsx"), "rb") as fh:
+    book = fh.read()
+case(LIM, "limit_sheet_cells", values_name="values.xlsx#Values", args="--limit sheet-cells=20", extra={})
+with open(os.path.join(LIM, "limit_sheet_cells", "values.xlsx"), "wb") as fh:
+    fh.write(book)
+os.remove(os.path.join(LIM, "limit_sheet_cells", "values.xlsx#Values"))
+
+case(LIM, "limit_two_limits_valid", VALUES, "--limit rows=8,institutions=3 --limit=years=2")

@@ -57,7 +57,7 @@ func TestComputeReportsProblemsAtTheirLines(t *testing.T) {
 		{"value slot outside each", "focus: KE02\nyear: 2025\ngroups:\n  - name: Home\n    where: {country: Kestria}\n    phrase: the {value} sector\n", "",
 			[]string{`b.md:10:5: group "Home": phrase "the {value} sector" uses {value}, which only an each group has; write the words in full`}},
 		{"focus lacks nearest indicator", "focus: OR03\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fwci]}\n", "",
-			[]string{`the focus OR03 has no value of "fwci" in 2025`}},
+			[]string{`b.md:10:5: group "Like us": the focus OR03 has no value in 2025 of any of fwci, so no institution can be measured against it; choose indicators the focus reports`}},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

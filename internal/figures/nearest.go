@@ -15,7 +15,8 @@ import (
 // year: each indicator is standardised by the mean and sample SD of the
 // group's pool (the ranked population, or all institutions with over: all)
 // with a value; d = sqrt(sum(((x - focus) / sd)^2)). Institutions lacking
-// any of the indicators are skipped, the focus itself is never chosen, an
+// any of the indicators are skipped, indicators the focus lacks are left
+// out of the profile (and the definition says so), the focus itself is never chosen, an
 // indicator with zero spread adds nothing, and equal distances are broken
 // by register id (ascending), so the choice is reproducible.
 func (r *resolver) nearest(spec *brief.GroupSpec, over string) []*Group {
@@ -35,15 +36,26 @@ func (r *resolver) nearest(spec *brief.GroupSpec, over string) []*Group {
 		return nil
 	}
 	year := r.b.Year
+	// An indicator the focus does not report cannot measure distance from
+	// it: it is left out of the profile and the group's definition says so,
+	// so one missing value does not stop the pack (a batch over a whole
+	// sector meets this). Only when none is left is it an error.
+	var used []int
+	var usedKeys, dropped []string
 	for _, k := range inds {
+		key := r.d.Dictionary.Indicators[k].Key
 		if _, has := r.d.Value(k, r.focus, year); !has {
-			r.errAt(spec.Pos, "group %q: the focus %s has no value of %q in %d, so no institution can be measured against it; choose indicators the focus reports", spec.Name, r.b.Focus, r.d.Dictionary.Indicators[k].Key, year)
-			ok = false
+			dropped = append(dropped, key)
+			continue
 		}
+		used = append(used, k)
+		usedKeys = append(usedKeys, key)
 	}
-	if !ok {
+	if len(used) == 0 {
+		r.errAt(spec.Pos, "group %q: the focus %s has no value in %d of any of %s, so no institution can be measured against it; choose indicators the focus reports", spec.Name, r.b.Focus, year, strings.Join(ns.Indicators, ", "))
 		return nil
 	}
+	inds = used
 	pool := r.pool(over)
 	sds := make([]float64, len(inds))
 	for j, k := range inds {
@@ -93,7 +105,10 @@ func (r *resolver) nearest(spec *brief.GroupSpec, over string) []*Group {
 		cands = cands[:ns.Count]
 	}
 	g := newGroup(spec.Name, "nearest", r.d.Register.Len())
-	g.Defined = fmt.Sprintf("the %d institutions nearest %s on %s in %d (standardised Euclidean distance)", len(cands), r.b.Focus, strings.Join(ns.Indicators, ", "), year)
+	g.Defined = fmt.Sprintf("the %d institutions nearest %s on %s in %d (standardised Euclidean distance)", len(cands), r.b.Focus, strings.Join(usedKeys, ", "), year)
+	if len(dropped) > 0 {
+		g.Defined += fmt.Sprintf("; %s left out because %s reports no value of %s in %d", strings.Join(dropped, ", "), r.b.Focus, map[bool]string{true: "it", false: "them"}[len(dropped) == 1], year)
+	}
 	if len(cands) < ns.Count {
 		g.Defined += fmt.Sprintf("; %d were asked for, but only %d institutions have every one of these indicators", ns.Count, len(cands))
 	}

@@ -119,6 +119,8 @@ func checkBlocks(d *dataset.Dataset, b *brief.Brief, groups []*Group, probs *dia
 			inds, grps, year = v.Indicators, v.Groups, v.Year
 		case *brief.CommentaryBlock:
 			inds, grps, span = v.Indicators, v.Groups, v.Years
+		case *brief.AppendixBlock:
+			inds, grps = v.Indicators, v.Groups
 		default:
 			continue
 		}

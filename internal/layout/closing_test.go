@@ -119,11 +119,11 @@ func TestStandardCautionsOnce(t *testing.T) {
 	text = flatText(t, out)
 	want := map[string]int{
 		"Only what is measured.": 0, "Choices are judgements.": 0, "Use with care.": 1,
-		"Uncertainty.": 1, // the brief's own
-		judgement:      0, // the brief discusses students per academic
+		"Uncertainty.":                 1, // the brief's own
+		judgement:                      0, // the brief discusses students per academic
 		"What the figures do not show": 0,
 		"set out in “Reading these figures” above. Keep in mind as well: • Use with care.": 1,
-		"Read them with “Reading these figures” and the notes in “About these figures”": 1, // the cover
+		"Read them with “Reading these figures” and the notes in “About these figures”":    1, // the cover
 	}
 	for phrase, n := range want {
 		if got := strings.Count(text, phrase); got != n {

@@ -113,6 +113,36 @@ func indicatorLabel(ind dataset.Indicator, short bool) string {
 	return l
 }
 
+// inDollars reports whether an indicator is in international dollars,
+// as format.Value decides it (converted, or derived from converted
+// amounts); it should become format's exported helper.
+func inDollars(ind dataset.Indicator) bool {
+	return ind.Unit == dataset.UnitCurrency && (ind.Currency || ind.InternationalDollars)
+}
+
+// unitLabel is indicatorLabel with "(PPP$)" for amounts in international
+// dollars: a table states the currency once, in the row or column label,
+// rather than in every cell, where it would widen every figure column.
+func unitLabel(ind dataset.Indicator, short bool) string {
+	l := indicatorLabel(ind, short)
+	if !inDollars(ind) {
+		return l
+	}
+	if base, ok := strings.CutSuffix(l, " ↓"); ok {
+		return base + " (PPP$) ↓"
+	}
+	return l + " (PPP$)"
+}
+
+// tableValue prints a value for a table cell: format.Value's digits and
+// unit, without the currency sign that unitLabel has already given.
+func tableValue(ind dataset.Indicator, v float64) string {
+	if inDollars(ind) {
+		return format.Number(v, ind.Decimals)
+	}
+	return format.Value(ind, v)
+}
+
 func hasLower(inds []dataset.Indicator) bool {
 	for _, ind := range inds {
 		if ind.Better == dataset.LowerIsBetter {
@@ -170,7 +200,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 	focus := w.m.Focus
 	for _, ind := range inds {
 		for gi, gr := range groups {
-			row := []cell{{text: indicatorLabel(ind, false)}}
+			row := []cell{{text: unitLabel(ind, false)}}
 			if multi {
 				if gi > 0 {
 					row[0] = cell{text: ""}
@@ -187,7 +217,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 				case "value":
 					cl.text = "–"
 					if has {
-						cl.text = format.Value(ind, pos.Value)
+						cl.text = tableValue(ind, pos.Value)
 						cl.shade = pos.Quartile
 					}
 				case "rank":
@@ -209,7 +239,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 					cl.text = "–"
 					if okd && dist.N > 0 {
 						v := map[string]float64{"median": dist.Median, "q1": dist.Q1, "q3": dist.Q3}[c]
-						cl.text = format.Value(ind, v)
+						cl.text = tableValue(ind, v)
 					}
 					cl.muted = true
 				case "change":
@@ -298,7 +328,7 @@ func (w *writer) peersTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 	head := []string{"Institution", "Country", "Rank on " + indicatorLabel(first, true)}
 	align := []byte{'L', 'L', 'R'}
 	for _, ind := range inds {
-		head = append(head, indicatorLabel(ind, true))
+		head = append(head, unitLabel(ind, true))
 		align = append(align, 'R')
 	}
 	g := grid{head: head, align: align, legend: true, caption: tb.Caption}
@@ -317,7 +347,7 @@ func (w *writer) peersTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 		for _, ind := range inds {
 			cl := cell{text: "–"}
 			if p, ok := w.m.PlaceOf(gr.Name, ind.Key, i, year); ok && p.HasValue {
-				cl = cell{text: format.Value(ind, p.Value), shade: p.Quartile}
+				cl = cell{text: tableValue(ind, p.Value), shade: p.Quartile}
 			}
 			row = append(row, cl)
 		}
@@ -356,11 +386,11 @@ func (w *writer) groupsTable(tb *brief.TableBlock, groups []*figures.Group, inds
 	}
 	for _, ind := range inds {
 		v, _ := w.m.Data.Value(w.m.Data.Dictionary.Index(ind.Key), w.m.Focus, year)
-		row := []cell{{text: indicatorLabel(ind, false)}, {text: format.Value(ind, v), bold: true}}
+		row := []cell{{text: unitLabel(ind, false)}, {text: tableValue(ind, v), bold: true}}
 		for _, gr := range groups {
 			cl := cell{text: "–"}
 			if d, ok := w.m.Distribution(gr.Name, ind.Key, year); ok && d.N > 0 {
-				cl.text = format.Value(ind, d.Median)
+				cl.text = tableValue(ind, d.Median)
 			}
 			if p, ok := w.m.PlaceOf(gr.Name, ind.Key, w.m.Focus, year); ok && p.HasValue {
 				cl.shade = p.Quartile

@@ -33,6 +33,16 @@ type grid struct {
 	// natural keeps the table at its content's width instead of the
 	// frame's (Markdown tables); noNumber leaves it without "Table n.".
 	natural, noNumber bool
+	// maxLines caps the lines of a wrapped text cell (0: 3), beyond
+	// which it is shortened with an ellipsis.
+	maxLines int
+}
+
+func (g grid) lineLimit() int {
+	if g.maxLines > 0 {
+		return g.maxLines
+	}
+	return 3
 }
 
 // tableSizes are the body and header sizes a table is tried at, in pt:
@@ -121,7 +131,7 @@ func (w *writer) setTable(g grid) {
 				room -= glyphColumn
 			}
 			if g.align[c] == 'L' {
-				rowLines[ri][c] = w.cellLines(r[c].text, f, room, 3)
+				rowLines[ri][c] = w.cellLines(r[c].text, f, room, g.lineLimit())
 			} else {
 				w.doc.SetFont(f)
 				rowLines[ri][c] = []string{w.doc.Fit(r[c].text, room)}

@@ -417,7 +417,9 @@ func (w *writer) populationTable(tb *brief.TableBlock) {
 			}
 		}
 	}
-	g := grid{head: []string{"Group", "Definition", "Counts", "Members", "Focus a member"}, align: []byte{'L', 'L', 'L', 'R', 'L'}, caption: tb.Caption}
+	// A group's definition is read in full: nearest-peer groups name
+	// every indicator they are drawn on.
+	g := grid{head: []string{"Group", "Definition", "Counts", "Members", "Focus a member"}, align: []byte{'L', 'L', 'L', 'R', 'L'}, caption: tb.Caption, maxLines: 8}
 	if g.caption == "" {
 		g.caption = "Population and comparison groups"
 	}

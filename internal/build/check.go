@@ -6,6 +6,9 @@ import (
 	"math"
 	"strings"
 
+	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
 	"peerpack/internal/format"
 	"peerpack/internal/layout"
 )
@@ -14,8 +17,9 @@ import (
 // the dataset summary, then each comparison group's size and coverage in
 // the brief's year, read from the figures model.
 func WriteCheckReport(w io.Writer, in *Inputs) {
-	in.Report.Write(w)
 	m := in.Figures
+	in.Report.Groups = groupCoverage(in.Brief, m)
+	in.Report.Write(w)
 	fmt.Fprintf(w, "\nComparison groups in %d (focus %s):\n", m.Year, m.FocusID)
 	for _, g := range m.Groups {
 		focus := "focus not a member"
@@ -35,7 +39,7 @@ func WriteCheckReport(w io.Writer, in *Inputs) {
 			}
 		}
 		if len(low) > 0 {
-			fmt.Fprintf(w, "    coverage under 70%%: %s\n", strings.Join(low, ", "))
+			fmt.Fprintf(w, "    coverage under 70%% in %d (the commentary cautions on these): %s\n", m.Year, strings.Join(low, ", "))
 		}
 		if len(g.Members) < 10 {
 			fmt.Fprintf(w, "    small group: fewer than 10 members, so quartiles and ranks are fragile (common practice, no source)\n")
@@ -49,4 +53,47 @@ func WriteCheckReport(w io.Writer, in *Inputs) {
 		fmt.Fprintln(w)
 	}
 	fmt.Fprintf(w, "\nThe brief would build.\n")
+}
+
+// groupCoverage is each group's share of members with a value, per
+// indicator the brief's blocks use (every indicator when they name none)
+// and year of the span, read from the model's distributions.
+func groupCoverage(b *brief.Brief, m *figures.Model) []dataset.GroupCoverage {
+	used := map[string]bool{}
+	for _, blk := range b.Blocks {
+		var inds []string
+		switch v := blk.(type) {
+		case *brief.ChartBlock:
+			inds = v.Indicators
+		case *brief.TableBlock:
+			inds = v.Indicators
+		case *brief.CommentaryBlock:
+			inds = v.Indicators
+		case *brief.AppendixBlock:
+			inds = v.Indicators
+		}
+		for _, k := range inds {
+			used[k] = true
+		}
+	}
+	var out []dataset.GroupCoverage
+	for _, g := range m.Groups {
+		gc := dataset.GroupCoverage{Name: g.Name, Members: len(g.Members), Years: m.Years}
+		for _, ind := range m.Data.Dictionary.Indicators {
+			if len(used) > 0 && !used[ind.Key] {
+				continue
+			}
+			row := make([]float64, len(m.Years))
+			for j, y := range m.Years {
+				row[j] = math.NaN()
+				if d, ok := m.Distribution(g.Name, ind.Key, y); ok && len(g.Members) > 0 {
+					row[j] = float64(d.N) / float64(len(g.Members))
+				}
+			}
+			gc.Indicators = append(gc.Indicators, ind.Key)
+			gc.Coverage = append(gc.Coverage, row)
+		}
+		out = append(out, gc)
+	}
+	return out
 }

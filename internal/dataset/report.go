@@ -187,8 +187,13 @@ func (r *Report) Write(w io.Writer) {
 
 	for _, g := range r.Groups {
 		p("\nCoverage in group %s (%s members)\n", g.Name, thousands(g.Members))
+		p("  %-30s", "indicator")
+		for _, y := range g.Years {
+			p(" %5d", y)
+		}
+		p("\n")
 		for i, key := range g.Indicators {
-			p("  %-24s", key)
+			p("  %-30s", key)
 			for j := range g.Years {
 				if i < len(g.Coverage) && j < len(g.Coverage[i]) {
 					p(" %4.0f%%", 100*g.Coverage[i][j])

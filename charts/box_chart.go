@@ -182,8 +182,10 @@ func boxLegend(l *legend, focusName string, withNamed, withOutliers bool) {
 	if withNamed {
 		l.add(legendEntry{Text: "Named institution", Thumb: markerThumb(NamedMarker())})
 	}
-	l.add(legendEntry{Text: "Median and middle half (quartiles)", Width: 20, Thumb: boxThumb})
-	l.add(legendEntry{Text: "Whiskers: within 1.5 × IQR of the box", Width: 20, Thumb: whiskerThumb})
+	// Short wording so the whole key sits on one row at full width: the
+	// same key repeats under every box chart of a page.
+	l.add(legendEntry{Text: "Median, quartiles", Width: 20, Thumb: boxThumb})
+	l.add(legendEntry{Text: "Whiskers: 1.5 × IQR", Width: 20, Thumb: whiskerThumb})
 	if withOutliers {
 		l.add(legendEntry{Text: "Beyond the whiskers", Thumb: markerThumb(OutlierMarker())})
 	}

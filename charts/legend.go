@@ -54,32 +54,77 @@ func (l *legend) rowHeight() vg.Length {
 	return max(textHeight(l.th.legendStyle()), vg.Points(9))
 }
 
-// rows splits the entries into lines that fit the width.
-func (l *legend) rows(width vg.Length) [][]legendEntry {
-	var rows [][]legendEntry
-	var cur []legendEntry
-	var x vg.Length
-	for _, e := range l.entries {
-		w := l.entryWidth(e)
-		if len(cur) > 0 && x+w > width {
-			rows = append(rows, cur)
-			cur, x = nil, 0
-		}
-		cur = append(cur, e)
-		x += w + legendGapOut
-	}
-	if len(cur) > 0 {
-		rows = append(rows, cur)
-	}
-	return rows
+// legendLayout is where each entry of a legend goes: rows of entries and,
+// for each entry, its left edge from the legend's left.
+type legendLayout struct {
+	rows [][]legendEntry
+	xs   [][]vg.Length
 }
+
+// layout places the entries. When they fit on one line they flow left to
+// right; otherwise they go into the most columns that fit, each column as
+// wide as its widest entry, filled row by row so the reading order stays
+// the entries' order and every thumbnail of a column lines up.
+func (l *legend) layout(width vg.Length) legendLayout {
+	n := len(l.entries)
+	if n == 0 {
+		return legendLayout{}
+	}
+	ws := make([]vg.Length, n)
+	var total vg.Length
+	for i, e := range l.entries {
+		ws[i] = l.entryWidth(e)
+		total += ws[i]
+	}
+	total += vg.Length(n-1) * legendGapOut
+	if total <= width {
+		row := make([]vg.Length, n)
+		var x vg.Length
+		for i := range ws {
+			row[i] = x
+			x += ws[i] + legendGapOut
+		}
+		return legendLayout{rows: [][]legendEntry{l.entries}, xs: [][]vg.Length{row}}
+	}
+	for cols := n - 1; cols >= 1; cols-- {
+		colW := make([]vg.Length, cols)
+		for i, w := range ws {
+			colW[i%cols] = max(colW[i%cols], w)
+		}
+		var sum vg.Length
+		for _, w := range colW {
+			sum += w
+		}
+		sum += vg.Length(cols-1) * legendGapOut
+		if sum > width && cols > 1 {
+			continue
+		}
+		var out legendLayout
+		for i := 0; i < n; i += cols {
+			end := min(i+cols, n)
+			row := make([]vg.Length, end-i)
+			var x vg.Length
+			for j := range row {
+				row[j] = x
+				x += colW[j] + legendGapOut
+			}
+			out.rows = append(out.rows, l.entries[i:end])
+			out.xs = append(out.xs, row)
+		}
+		return out
+	}
+	return legendLayout{}
+}
+
+// rows is the number of legend rows at a width.
+func (l *legend) rows(width vg.Length) int { return len(l.layout(width).rows) }
 
 // height is the legend's height at a width, 0 when it is empty.
 func (l *legend) height(width vg.Length) vg.Length {
 	if l == nil || (len(l.entries) == 0 && l.note == "") {
 		return 0
 	}
-	n := len(l.rows(width))
+	n := l.rows(width)
 	h := legendTopGap + vg.Length(n)*l.rowHeight() + vg.Length(max(n-1, 0))*legendRowGap
 	if l.note != "" {
 		sty := l.noteStyle()
@@ -96,9 +141,10 @@ func (l *legend) draw(c draw.Canvas) {
 	}
 	rh := l.rowHeight()
 	y := c.Max.Y - legendTopGap
-	for _, row := range l.rows(c.Max.X - c.Min.X) {
-		x := c.Min.X
-		for _, e := range row {
+	lay := l.layout(c.Max.X - c.Min.X)
+	for ri, row := range lay.rows {
+		for ei, e := range row {
+			x := c.Min.X + lay.xs[ri][ei]
 			tw := e.Width
 			if tw == 0 {
 				tw = legendThumb
@@ -113,7 +159,6 @@ func (l *legend) draw(c draw.Canvas) {
 			}
 			base := y - rh/2 - textHeight(sty)/2 + sty.FontExtents().Descent
 			fillText(&c, sty, x+tw+legendGapIn, base, draw.XLeft, e.Text)
-			x += l.entryWidth(e) + legendGapOut
 		}
 		y -= rh + legendRowGap
 	}

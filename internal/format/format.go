@@ -129,7 +129,7 @@ func Value(ind dataset.Indicator, v float64) string {
 	case dataset.UnitPercent:
 		return n + "%"
 	case dataset.UnitCurrency:
-		if inDollars(ind) {
+		if InDollars(ind) {
 			return "PPP$ " + n
 		}
 		return n
@@ -137,10 +137,10 @@ func Value(ind dataset.Indicator, v float64) string {
 	return n
 }
 
-// inDollars reports whether an indicator's values are international
+// InDollars reports whether an indicator's values are international
 // dollars: converted with PPP, or derived from converted amounts.
-func inDollars(ind dataset.Indicator) bool {
-	return ind.Currency || ind.InternationalDollars
+func InDollars(ind dataset.Indicator) bool {
+	return ind.Unit == dataset.UnitCurrency && (ind.Currency || ind.InternationalDollars)
 }
 
 // Difference prints the size of a difference between two values of an
@@ -156,7 +156,7 @@ func Difference(ind dataset.Indicator, d float64) string {
 		}
 		return n + " percentage points"
 	case dataset.UnitCurrency:
-		if inDollars(ind) {
+		if InDollars(ind) {
 			return "PPP$ " + n
 		}
 	}

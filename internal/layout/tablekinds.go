@@ -114,11 +114,8 @@ func indicatorLabel(ind dataset.Indicator, short bool) string {
 }
 
 // inDollars reports whether an indicator is in international dollars,
-// as format.Value decides it (converted, or derived from converted
-// amounts); it should become format's exported helper.
-func inDollars(ind dataset.Indicator) bool {
-	return ind.Unit == dataset.UnitCurrency && (ind.Currency || ind.InternationalDollars)
-}
+// as format.Value decides it.
+func inDollars(ind dataset.Indicator) bool { return format.InDollars(ind) }
 
 // unitLabel is indicatorLabel with "(PPP$)" for amounts in international
 // dollars: a table states the currency once, in the row or column label,

@@ -125,7 +125,7 @@ func (b *BarsPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		rank := fmt.Sprintf("%d", it.Rank)
 		fillText(&c, sty, c.Min.X+vg.Points(18), base, draw.XRight, rank)
 		fillText(&c, sty, c.Min.X+vg.Points(23), base, draw.XLeft, fitText(it.Label, sty, nameW-vg.Points(28)))
-		vt := valueText(bc.Indicator, it.Value)
+		vt := axisValueText(bc.Indicator, it.Value)
 		vx := max(bar.Max.X, tx(0)) + 3
 		c.SetColor(whiteColor)
 		c.Fill(vg.Rectangle{Min: vg.Point{X: vx - 1, Y: y0}, Max: vg.Point{X: vx + sty.Width(vt) + 1, Y: y1}}.Path())

@@ -28,7 +28,8 @@ type BoxRow struct {
 	FocusOutside bool
 	Box          stats.Box
 	// Focus is the focus institution's value, NaN when it has none;
-	// FocusText is that value as printed in tables.
+	// FocusText is that value as printed beside the axis (money without
+	// the "PPP$" the axis title states once).
 	Focus     float64
 	FocusText string
 	Marks     []Mark
@@ -130,7 +131,9 @@ func (b *BoxPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 	whisker := draw.LineStyle{Color: greyAxis, Width: vg.Points(0.8)}
 	edge := draw.LineStyle{Color: greyText, Width: vg.Points(0.7)}
 	median := draw.LineStyle{Color: PaletteBlack, Width: vg.Points(2)}
-	var labels []labelRequest
+	// Labels per row: a label must stay in its own row's band, or a
+	// name could read as belonging to the next group.
+	labels := make([][]labelRequest, len(b.Rows))
 	var obstacles []vg.Rectangle
 	var lines [][]vg.Point
 	focus := FocusMarker()
@@ -179,7 +182,7 @@ func (b *BoxPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 			named.Draw(&c, pt)
 			obstacles = append(obstacles, named.Rect(pt))
 			if b.LabelMarks && mk.Label != "" {
-				labels = append(labels, labelRequest{Anchor: pt, Text: mk.Label, Style: b.Theme.labelStyle(), Gap: half, Priority: 1, Prefer: []int{dirBelow, dirAbove}})
+				labels[i] = append(labels[i], labelRequest{Anchor: pt, Text: mk.Label, Style: b.Theme.labelStyle(), Gap: half, Priority: 1, Prefer: []int{dirBelow, dirAbove}})
 			}
 		}
 		if !math.IsNaN(r.Focus) {
@@ -187,14 +190,27 @@ func (b *BoxPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 			focus.Draw(&c, pt)
 			obstacles = append(obstacles, focus.Rect(pt))
 			if r.FocusText != "" {
-				labels = append(labels, labelRequest{Anchor: pt, Text: r.FocusText, Style: b.Theme.focusLabelStyle(), Gap: max(half, focus.Radius*1.15), Priority: 0, Prefer: []int{dirAbove, dirBelow}})
+				labels[i] = append(labels[i], labelRequest{Anchor: pt, Text: r.FocusText, Style: b.Theme.focusLabelStyle(), Gap: max(half, focus.Radius*1.15), Priority: 0, Prefer: []int{dirAbove, dirBelow}})
 			}
 		}
 	}
-	bounds := vg.Rectangle{Min: c.Min, Max: c.Max}
-	placed, dropped := placeLabels(labels, bounds, obstacles, lines...)
-	b.Dropped = dropped
-	drawLabels(&c, placed)
+	b.Dropped = 0
+	for i := range b.Rows {
+		bounds := vg.Rectangle{Min: c.Min, Max: c.Max}
+		cat := b.slot(i)
+		// Stacked rows are where a name can stray into the next group; side
+		// by side columns are wide and their names run along the value
+		// axis, so they keep the whole area.
+		if !b.Vertical {
+			bounds.Min.Y, bounds.Max.Y = max(bounds.Min.Y, trY(cat-0.5)), min(bounds.Max.Y, trY(cat+0.5))
+		}
+		placed, dropped := placeLabels(labels[i], bounds, obstacles, lines...)
+		b.Dropped += dropped
+		for _, l := range placed {
+			obstacles = append(obstacles, l.Rect)
+		}
+		drawLabels(&c, placed)
+	}
 }
 
 // normRect orders a rectangle's corners.

@@ -18,6 +18,10 @@ import (
 // the box plus one line of labels above and one below.
 const boxPitch = 40
 
+// legendShortName caps the focus name in a key that must stay on one
+// row.
+const legendShortName = 76
+
 // markNameWidth caps a labelled institution's name in a chart.
 const markNameWidth = 120
 
@@ -32,10 +36,13 @@ type BoxPanel struct {
 type BoxChart struct {
 	Panels   []BoxPanel
 	Vertical bool
-	// FocusName is the focus institution's name for the legend.
-	FocusName string
-	Theme     Theme
-	built     *panels
+	// FocusName is the focus institution's name for the legend;
+	// FocusShort the same fitted to legendShortName, used when the full
+	// name would push the key onto a second row.
+	FocusName  string
+	FocusShort string
+	Theme      Theme
+	built      *panels
 }
 
 // newBox plans a box chart from the model.
@@ -45,7 +52,8 @@ func newBox(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) {
 		return nil, err
 	}
 	year := chartYear(m, spec)
-	bc := &BoxChart{Vertical: spec.Orientation == "vertical", FocusName: institution(m, m.Focus).Name, Theme: th}
+	focus := institution(m, m.Focus)
+	bc := &BoxChart{Vertical: spec.Orientation == "vertical", FocusName: focus.Name, FocusShort: fitName(focus, th.text(sizeLegend, true, PaletteBlack), legendShortName), Theme: th}
 	for _, ind := range inds {
 		rows, err := boxRows(m, spec, ind, groups, year, marks, th)
 		if err != nil {
@@ -75,14 +83,19 @@ func (bc *BoxChart) panels() *panels {
 			outliers = outliers || len(r.Outliers) > 0
 		}
 	}
+	var drawn []*BoxPlotter
+	ps.dropped = func() int { return sumDropped(drawn, func(b *BoxPlotter) int { return b.Dropped }) }
 	ps.make = func(w vg.Length, cols int) []*plot.Plot {
 		out := make([]*plot.Plot, len(bc.Panels))
+		drawn = drawn[:0]
 		labelW := boxLabelWidth(w)
 		if bc.Vertical {
 			labelW = 0
 		}
 		for k, pn := range bc.Panels {
-			out[k] = boxPanel(pn, bc.Vertical, k%cols == 0, w, ps.dataWidth(w, cols, labelW), th)
+			var bp *BoxPlotter
+			out[k], bp = boxPanel(pn, bc.Vertical, k%cols == 0, w, ps.dataWidth(w, cols, labelW), th)
+			drawn = append(drawn, bp)
 		}
 		return out
 	}
@@ -91,7 +104,7 @@ func (bc *BoxChart) panels() *panels {
 	} else {
 		ps.panelHeight = func(vg.Length) vg.Length { return vg.Points(boxPitch*float64(n) + 34) }
 	}
-	boxLegend(ps.legend, bc.FocusName, named, outliers)
+	boxLegend(ps.legend, bc.FocusName, bc.FocusShort, named, outliers)
 	if len(missing) > 0 {
 		ps.legend.note = "Institutions without a value: " + strings.Join(missing, ", ") + "."
 	}
@@ -115,7 +128,7 @@ func boxRows(m *figures.Model, spec *brief.ChartBlock, ind dataset.Indicator, gr
 		}
 		r := BoxRow{Label: g.Name, Members: len(g.Members), Box: d.Box, Focus: math.NaN(), Outliers: d.Box.OutlierValues, FocusOutside: !g.FocusIn}
 		if p, ok := m.Position(g.Name, ind.Key, m.Focus, year); ok && p.HasValue {
-			r.Focus, r.FocusText = p.Value, valueText(ind, p.Value)
+			r.Focus, r.FocusText = p.Value, axisValueText(ind, p.Value)
 		}
 		for _, inst := range marks {
 			p, ok := m.Position(g.Name, ind.Key, inst, year)
@@ -139,7 +152,7 @@ func boxLabelWidth(w vg.Length) vg.Length { return min(vg.Points(160), w*0.34) }
 
 // boxPanel builds one panel; width is the chart's, dataW the panel's data
 // area (for axis titles and tick density).
-func boxPanel(pn BoxPanel, vertical, first bool, width, dataW vg.Length, th Theme) *plot.Plot {
+func boxPanel(pn BoxPanel, vertical, first bool, width, dataW vg.Length, th Theme) (*plot.Plot, *BoxPlotter) {
 	p := newPlot(th)
 	bp := &BoxPlotter{Rows: pn.Rows, Vertical: vertical, Theme: th, LabelMarks: first}
 	p.Add(grid(!vertical, vertical), bp)
@@ -173,19 +186,19 @@ func boxPanel(pn BoxPanel, vertical, first bool, width, dataW vg.Length, th Them
 	cat.Tick.Marker = ticks
 	cat.Tick.Length = 0
 	cat.LineStyle.Width = 0
-	return p
+	return p, bp
 }
 
 // boxLegend explains every mark of a box chart.
-func boxLegend(l *legend, focusName string, withNamed, withOutliers bool) {
-	l.add(legendEntry{Text: focusName, Bold: true, Thumb: markerThumb(FocusMarker())})
+func boxLegend(l *legend, focusName, focusShort string, withNamed, withOutliers bool) {
+	l.add(legendEntry{Text: focusName, Short: focusShort, Bold: true, Thumb: markerThumb(FocusMarker())})
 	if withNamed {
 		l.add(legendEntry{Text: "Named institution", Thumb: markerThumb(NamedMarker())})
 	}
 	// Short wording so the whole key sits on one row at full width: the
 	// same key repeats under every box chart of a page.
-	l.add(legendEntry{Text: "Median, quartiles", Width: 20, Thumb: boxThumb})
-	l.add(legendEntry{Text: "Whiskers: 1.5 × IQR", Width: 20, Thumb: whiskerThumb})
+	l.add(legendEntry{Text: "Median, quartiles", Width: 18, Thumb: boxThumb})
+	l.add(legendEntry{Text: "Whiskers: 1.5 × IQR", Width: 16, Thumb: whiskerThumb})
 	if withOutliers {
 		l.add(legendEntry{Text: "Beyond the whiskers", Thumb: markerThumb(OutlierMarker())})
 	}

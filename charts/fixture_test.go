@@ -80,6 +80,7 @@ func fixtureCharts() []fixtureChart {
 		}}},
 		{"trend", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendPanel(fxFWCI, 3)}}},
 		{"trend-panels", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendPanel(fxFWCI, 3), fxTrendPanel(fxIntl, 5)}}},
+		{"trend-systems", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendGroups(fxIntl, 31, 6), fxTrendGroups(fxFWCI, 37, 6), fxTrendGroups(fxInc, 41, 6)}}},
 		{"scatter", fxScatter(40)},
 		{"radar", fxRadar(true)},
 		{"radar-range", fxRadar(false)},
@@ -110,6 +111,28 @@ func fxTrendPanel(ind dataset.Indicator, seed uint64) TrendPanel {
 		pn.Focus.Values = append(pn.Focus.Values, v)
 	}
 	pn.Marks = []TrendLine{{Label: "Politechnika Źródłowa", Values: []float64{s * 1.2, s * 1.18, s * 1.15, s * 1.17, s * 1.1}}}
+	return pn
+}
+
+// fxTrendGroups is a trend panel over n invented systems whose medians
+// lie close together, the case where bands would blur into one mass.
+func fxTrendGroups(ind dataset.Indicator, seed uint64, n int) TrendPanel {
+	years := []int{2020, 2021, 2022, 2023, 2024, 2025}
+	pn := TrendPanel{Indicator: ind, Years: years}
+	s := scaleOf(ind)
+	names := []string{"Kestria", "Aldmere", "Orvanne", "Nordvald", "Wieldania", "Lusmara"}
+	for gi := 0; gi < n; gi++ {
+		b := TrendBand{Label: names[gi%len(names)]}
+		for i := range years {
+			vals := fxValues(seed+uint64(10*gi+i), 25, s*(0.9+0.02*float64(i)+0.04*float64(gi)), s*0.2)
+			bx := stats.BoxOf(vals, stats.Type7)
+			b.Median, b.Q1, b.Q3 = append(b.Median, bx.Median), append(b.Q1, bx.Q1), append(b.Q3, bx.Q3)
+		}
+		pn.Bands = append(pn.Bands, b)
+	}
+	for i := range years {
+		pn.Focus.Values = append(pn.Focus.Values, s*(1.05-0.02*float64(i)))
+	}
 	return pn
 }
 

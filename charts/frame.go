@@ -63,9 +63,23 @@ type panels struct {
 	// panelHeight is one panel's height at a panel width.
 	panelHeight func(panelWidth vg.Length) vg.Length
 	minPanel    vg.Length
+	// legendInGap lets the legend take the empty cells a grid leaves at
+	// the end of its last row (three panels in two columns), when it fits
+	// there, so the grid has no hole and the chart is one legend shorter.
+	legendInGap bool
+	// dropped, when set, sums the labels the plots of the last make left
+	// out for lack of room; the legend's note then says so (prepare).
+	dropped   func() int
+	droppedAt map[vg.Length]int
+	baseNote  string
+	noteKept  bool
 }
 
 const panelGap = 10
+
+// panelsTop is room above the plots: the top tick label of a value axis
+// is centred on the data area's edge and would otherwise overhang it.
+const panelsTop = 5
 
 // cols is the number of panel columns at a chart width.
 func (ps *panels) cols(width vg.Length) int {
@@ -96,6 +110,28 @@ func (ps *panels) dataWidth(width vg.Length, cols int, labelW vg.Length) vg.Leng
 	return (width - labelW - vg.Length(cols-1)*panelGap - vg.Length(cols)*axisRoom) / vg.Length(cols)
 }
 
+// gapCells is the empty cells at the end of the last row, as a rectangle
+// width in cells (0 when the grid is full).
+func (ps *panels) gapCells(width vg.Length) int {
+	c := ps.cols(width)
+	return ps.rows(width)*c - max(ps.count, 1)
+}
+
+// legendGap reports whether the legend is drawn in the grid's empty cells
+// at this width.
+func (ps *panels) legendGap(width vg.Length) bool {
+	g := ps.gapCells(width)
+	if !ps.legendInGap || g == 0 || ps.legend == nil {
+		return false
+	}
+	gw := vg.Length(g)*ps.panelWidth(width) + vg.Length(g-1)*panelGap - legendGapLeft
+	return ps.legend.height(gw) <= ps.panelHeight(ps.panelWidth(width))
+}
+
+// legendGapLeft indents a legend set in an empty grid cell, so it does not
+// touch the neighbouring panel's data.
+const legendGapLeft = 14
+
 func (ps *panels) plotsHeight(width vg.Length) vg.Length {
 	r := ps.rows(width)
 	return vg.Length(r)*ps.panelHeight(ps.panelWidth(width)) + vg.Length(r-1)*panelGap
@@ -103,7 +139,37 @@ func (ps *panels) plotsHeight(width vg.Length) vg.Length {
 
 // Height implements Chart.
 func (ps *panels) Height(width vg.Length) vg.Length {
-	return ps.plotsHeight(width) + ps.legend.height(width)
+	ps.prepare(width)
+	if ps.legendGap(width) {
+		return panelsTop + ps.plotsHeight(width)
+	}
+	return panelsTop + ps.plotsHeight(width) + ps.legend.height(width)
+}
+
+// drawPlots draws the plots into area, one alone or a grid aligned with
+// plot.Align, and returns the grid's cells (nil for a single plot).
+func (ps *panels) drawPlots(area draw.Canvas, plots []*plot.Plot, cols int) [][]draw.Canvas {
+	if len(plots) == 1 {
+		plots[0].Draw(area)
+		return nil
+	}
+	if len(plots) == 0 {
+		return nil
+	}
+	rows := (len(plots) + cols - 1) / cols
+	grid := make([][]*plot.Plot, rows)
+	for r := range grid {
+		grid[r] = make([]*plot.Plot, cols)
+	}
+	for i, p := range plots {
+		grid[i/cols][i%cols] = p
+	}
+	tiles := draw.Tiles{Rows: rows, Cols: cols, PadX: panelGap, PadY: panelGap}
+	cs := plot.Align(grid, tiles, area)
+	for i, p := range plots {
+		p.Draw(cs[i/cols][i%cols])
+	}
+	return cs
 }
 
 // Draw implements Chart.
@@ -116,26 +182,22 @@ func (ps *panels) Draw(c draw.Canvas) (err error) {
 		}
 	}()
 	w := c.Max.X - c.Min.X
+	ps.prepare(w)
+	inGap := ps.legendGap(w)
 	lh := ps.legend.height(w)
-	area := draw.Crop(c, 0, 0, lh, 0)
+	if inGap {
+		lh = 0
+	}
+	area := draw.Crop(c, 0, 0, lh, -panelsTop)
 	cols := ps.cols(w)
 	plots := ps.make(w, cols)
-	if len(plots) == 1 {
-		plots[0].Draw(area)
-	} else if len(plots) > 1 {
-		rows := (len(plots) + cols - 1) / cols
-		grid := make([][]*plot.Plot, rows)
-		for r := range grid {
-			grid[r] = make([]*plot.Plot, cols)
-		}
-		for i, p := range plots {
-			grid[i/cols][i%cols] = p
-		}
-		tiles := draw.Tiles{Rows: rows, Cols: cols, PadX: panelGap, PadY: panelGap}
-		cs := plot.Align(grid, tiles, area)
-		for i, p := range plots {
-			p.Draw(cs[i/cols][i%cols])
-		}
+	cs := ps.drawPlots(area, plots, cols)
+	if inGap && len(cs) > 0 {
+		rows := len(cs)
+		cell := cs[rows-1][len(plots)%cols]
+		cell.Max.X = cs[rows-1][cols-1].Max.X
+		cell.Min.X += legendGapLeft
+		ps.legend.draw(cell)
 	}
 	if lh > 0 {
 		lc := c

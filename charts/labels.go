@@ -27,6 +27,9 @@ type placedLabel struct {
 	labelRequest
 	Rect   vg.Rectangle
 	Leader bool
+	// OverData is set when no place clear of the soft obstacles was
+	// found, so the label covers data and needs a halo.
+	OverData bool
 }
 
 // labelDirs are the candidate offsets as unit steps (dx, dy): right,
@@ -51,6 +54,14 @@ const (
 //
 // lines are polylines (data lines, whiskers) a label should not cross.
 func placeLabels(reqs []labelRequest, bounds vg.Rectangle, obstacles []vg.Rectangle, lines ...[]vg.Point) (placed []placedLabel, dropped int) {
+	return placeLabelsAvoiding(reqs, bounds, obstacles, nil, lines...)
+}
+
+// placeLabelsAvoiding is placeLabels with soft obstacles as well (the
+// points of a scatter): a label first looks for a place clear of them
+// too, out to the farthest ring, and only when there is none may sit
+// over them (the caller then draws a halo behind it).
+func placeLabelsAvoiding(reqs []labelRequest, bounds vg.Rectangle, obstacles, soft []vg.Rectangle, lines ...[]vg.Point) (placed []placedLabel, dropped int) {
 	order := make([]int, len(reqs))
 	for i := range order {
 		order[i] = i
@@ -61,16 +72,24 @@ func placeLabels(reqs []labelRequest, bounds vg.Rectangle, obstacles []vg.Rectan
 		r := reqs[i]
 		w, h := r.Style.Width(r.Text), textHeight(r.Style)
 		ok := false
-		for ring, dist := range []vg.Length{r.Gap + 1.5, r.Gap + 9, r.Gap + 18, r.Gap + 30, r.Gap + 45} {
-			for _, d := range candidateDirs(r.Prefer) {
-				rect := labelRect(r.Anchor, d, dist, w, h)
-				if !inside(rect, bounds) || overlapsAny(rect, taken) || crossesAny(rect, lines) {
-					continue
+		for pass, avoid := range [][]vg.Rectangle{soft, nil} {
+			if pass == 0 && len(soft) == 0 {
+				continue
+			}
+			for ring, dist := range []vg.Length{r.Gap + 1.5, r.Gap + 9, r.Gap + 18, r.Gap + 30, r.Gap + 45} {
+				for _, d := range candidateDirs(r.Prefer) {
+					rect := labelRect(r.Anchor, d, dist, w, h)
+					if !inside(rect, bounds) || overlapsAny(rect, taken) || overlapsAny(rect, avoid) || crossesAny(rect, lines) {
+						continue
+					}
+					placed = append(placed, placedLabel{labelRequest: r, Rect: rect, Leader: ring > 0, OverData: pass == 1 && len(soft) > 0})
+					taken = append(taken, rect)
+					ok = true
+					break
 				}
-				placed = append(placed, placedLabel{labelRequest: r, Rect: rect, Leader: ring > 0})
-				taken = append(taken, rect)
-				ok = true
-				break
+				if ok {
+					break
+				}
 			}
 			if ok {
 				break
@@ -201,4 +220,67 @@ func segmentHitsRect(a, b vg.Point, r vg.Rectangle) bool {
 	}
 	return clip(-dx, float64(a.X-r.Min.X)) && clip(dx, float64(r.Max.X-a.X)) &&
 		clip(-dy, float64(a.Y-r.Min.Y)) && clip(dy, float64(r.Max.Y-a.Y)) && t0 <= t1
+}
+
+// spreadLabels moves labels of height h along one axis from their wanted
+// centres so that no two overlap, each cluster of labels that would
+// collide set as a block centred on its members' wanted mean (the
+// cluster-merging step of direct line labelling), then kept within
+// [lo, hi]. The result is in the input's order; it keeps the input's
+// order along the axis for labels wanted in that order, so leader lines
+// never cross.
+func spreadLabels(want []vg.Length, h, lo, hi vg.Length) []vg.Length {
+	n := len(want)
+	order := make([]int, n)
+	for i := range order {
+		order[i] = i
+	}
+	sort.SliceStable(order, func(a, b int) bool { return want[order[a]] < want[order[b]] })
+	type cluster struct {
+		first, count int // into order
+		sum          vg.Length
+		centre       vg.Length
+	}
+	var cs []cluster
+	for k, i := range order {
+		cs = append(cs, cluster{first: k, count: 1, sum: want[i], centre: want[i]})
+		// Merge back while the new cluster overlaps the one before it.
+		for len(cs) > 1 {
+			a, b := cs[len(cs)-2], cs[len(cs)-1]
+			if a.centre+vg.Length(a.count)*h/2 <= b.centre-vg.Length(b.count)*h/2 {
+				break
+			}
+			m := cluster{first: a.first, count: a.count + b.count, sum: a.sum + b.sum}
+			m.centre = m.sum / vg.Length(m.count)
+			cs = append(cs[:len(cs)-2], m)
+		}
+	}
+	out := make([]vg.Length, n)
+	for _, c := range cs {
+		start := c.centre - vg.Length(c.count)*h/2 + h/2
+		for j := 0; j < c.count; j++ {
+			out[order[c.first+j]] = start + vg.Length(j)*h
+		}
+	}
+	// Keep inside the bounds, pushing neighbours along when a label at an
+	// edge moves (from the top down, then from the bottom up).
+	if n > 0 {
+		for k := n - 1; k >= 0; k-- {
+			i := order[k]
+			limit := hi - h/2
+			if k < n-1 {
+				limit = min(limit, out[order[k+1]]-h)
+			}
+			out[i] = min(out[i], limit)
+		}
+		for k := 0; k < n; k++ {
+			i := order[k]
+			limit := lo + h/2
+			if k > 0 {
+				limit = max(limit, out[order[k-1]]+h)
+			}
+			out[i] = max(out[i], limit)
+		}
+	}
+	return out
 }

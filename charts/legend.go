@@ -11,7 +11,10 @@ import (
 // legendEntry is one key of a legend: a thumbnail and its words.
 type legendEntry struct {
 	Text string
-	Bold bool
+	// Short, when set, replaces Text when the legend would otherwise
+	// take a second row (a long institution name gives way first).
+	Short string
+	Bold  bool
 	// Width of the thumbnail; 0 means the standard 14 pt.
 	Width vg.Length
 	Thumb func(c *draw.Canvas, r vg.Rectangle)
@@ -39,15 +42,11 @@ const (
 func (l *legend) add(e legendEntry) { l.entries = append(l.entries, e) }
 
 func (l *legend) entryWidth(e legendEntry) vg.Length {
-	sty := l.th.legendStyle()
-	if e.Bold {
-		sty = l.th.text(sizeLegend, true, PaletteBlack)
-	}
-	tw := e.Width
-	if tw == 0 {
-		tw = legendThumb
-	}
-	return tw + legendGapIn + sty.Width(e.Text)
+	return l.entryWidthOf(e, e.Text)
+}
+
+func (l *legend) entryWidthOf(e legendEntry, s string) vg.Length {
+	return thumbWidth(e) + legendGapIn + l.entryStyle(e).Width(s)
 }
 
 func (l *legend) rowHeight() vg.Length {
@@ -61,6 +60,21 @@ type legendLayout struct {
 	xs   [][]vg.Length
 }
 
+// oneRow lays the entries in one row, each text as given, or reports
+// that they do not fit.
+func (l *legend) oneRow(entries []legendEntry, width vg.Length) (legendLayout, bool) {
+	row := make([]vg.Length, len(entries))
+	var x vg.Length
+	for i, e := range entries {
+		row[i] = x
+		x += l.entryWidth(e) + legendGapOut
+	}
+	if x-legendGapOut > width {
+		return legendLayout{}, false
+	}
+	return legendLayout{rows: [][]legendEntry{entries}, xs: [][]vg.Length{row}}, true
+}
+
 // layout places the entries. When they fit on one line they flow left to
 // right; otherwise they go into the most columns that fit, each column as
 // wide as its widest entry, filled row by row so the reading order stays
@@ -70,21 +84,28 @@ func (l *legend) layout(width vg.Length) legendLayout {
 	if n == 0 {
 		return legendLayout{}
 	}
-	ws := make([]vg.Length, n)
-	var total vg.Length
-	for i, e := range l.entries {
-		ws[i] = l.entryWidth(e)
-		total += ws[i]
+	if lay, ok := l.oneRow(l.entries, width); ok {
+		return lay
 	}
-	total += vg.Length(n-1) * legendGapOut
-	if total <= width {
-		row := make([]vg.Length, n)
-		var x vg.Length
-		for i := range ws {
-			row[i] = x
-			x += ws[i] + legendGapOut
+	short := make([]legendEntry, n)
+	shortened := false
+	for i, e := range l.entries {
+		short[i] = e
+		if e.Short != "" && e.Short != e.Text {
+			short[i].Text, shortened = e.Short, true
 		}
-		return legendLayout{rows: [][]legendEntry{l.entries}, xs: [][]vg.Length{row}}
+	}
+	if shortened {
+		if lay, ok := l.oneRow(short, width); ok {
+			return lay
+		}
+	}
+	// A wrapped key uses the short texts too: a long name would
+	// otherwise widen its whole column.
+	entries := short
+	ws := make([]vg.Length, n)
+	for i, e := range entries {
+		ws[i] = l.entryWidth(e)
 	}
 	for cols := n - 1; cols >= 1; cols-- {
 		colW := make([]vg.Length, cols)
@@ -108,24 +129,90 @@ func (l *legend) layout(width vg.Length) legendLayout {
 				row[j] = x
 				x += colW[j] + legendGapOut
 			}
-			out.rows = append(out.rows, l.entries[i:end])
+			out.rows = append(out.rows, entries[i:end])
 			out.xs = append(out.xs, row)
+		}
+		// Two ragged rows read well enough; from three on, columns do,
+		// unless they cost more rows than plain wrapping.
+		if flow := l.flow(entries, width); len(flow.rows) < 3 || len(flow.rows) < len(out.rows) {
+			return flow
 		}
 		return out
 	}
 	return legendLayout{}
 }
 
+// flow wraps the entries left to right at the width, without columns.
+func (l *legend) flow(entries []legendEntry, width vg.Length) legendLayout {
+	var out legendLayout
+	var cur []legendEntry
+	var xs []vg.Length
+	var x vg.Length
+	for i, e := range entries {
+		w := l.entryWidth(e)
+		if len(cur) > 0 && x+w > width {
+			out.rows, out.xs = append(out.rows, entries[i-len(cur):i]), append(out.xs, xs)
+			cur, xs, x = nil, nil, 0
+		}
+		cur = append(cur, e)
+		xs = append(xs, x)
+		x += w + legendGapOut
+	}
+	if len(cur) > 0 {
+		out.rows, out.xs = append(out.rows, entries[len(entries)-len(cur):]), append(out.xs, xs)
+	}
+	return out
+}
+
 // rows is the number of legend rows at a width.
 func (l *legend) rows(width vg.Length) int { return len(l.layout(width).rows) }
+
+func (l *legend) entryStyle(e legendEntry) text.Style {
+	if e.Bold {
+		return l.th.text(sizeLegend, true, PaletteBlack)
+	}
+	return l.th.legendStyle()
+}
+
+func thumbWidth(e legendEntry) vg.Length {
+	if e.Width == 0 {
+		return legendThumb
+	}
+	return e.Width
+}
+
+// entryLines is an entry's text at left edge x of a legend of the width:
+// one line, or wrapped over up to three when even a column to itself is
+// too narrow, so no key runs past the chart's edge.
+func (l *legend) entryLines(e legendEntry, x, width vg.Length) []string {
+	room := width - x - thumbWidth(e) - legendGapIn
+	sty := l.entryStyle(e)
+	if sty.Width(e.Text) <= room || room <= 0 {
+		return []string{e.Text}
+	}
+	return wrapText(e.Text, sty, room, 3)
+}
+
+// rowLines is the number of text lines a legend row takes.
+func (l *legend) rowLines(lay legendLayout, ri int, width vg.Length) int {
+	n := 1
+	for ei, e := range lay.rows[ri] {
+		n = max(n, len(l.entryLines(e, lay.xs[ri][ei], width)))
+	}
+	return n
+}
 
 // height is the legend's height at a width, 0 when it is empty.
 func (l *legend) height(width vg.Length) vg.Length {
 	if l == nil || (len(l.entries) == 0 && l.note == "") {
 		return 0
 	}
-	n := l.rows(width)
-	h := legendTopGap + vg.Length(n)*l.rowHeight() + vg.Length(max(n-1, 0))*legendRowGap
+	lay := l.layout(width)
+	n := len(lay.rows)
+	h := legendTopGap + vg.Length(max(n-1, 0))*legendRowGap
+	for ri := range lay.rows {
+		h += vg.Length(l.rowLines(lay, ri, width)) * l.rowHeight()
+	}
 	if l.note != "" {
 		sty := l.noteStyle()
 		h += vg.Length(len(wrapText(l.note, sty, width, 4))) * (textHeight(sty) + 1)
@@ -141,26 +228,23 @@ func (l *legend) draw(c draw.Canvas) {
 	}
 	rh := l.rowHeight()
 	y := c.Max.Y - legendTopGap
-	lay := l.layout(c.Max.X - c.Min.X)
+	width := c.Max.X - c.Min.X
+	lay := l.layout(width)
 	for ri, row := range lay.rows {
 		for ei, e := range row {
 			x := c.Min.X + lay.xs[ri][ei]
-			tw := e.Width
-			if tw == 0 {
-				tw = legendThumb
-			}
+			tw := thumbWidth(e)
 			r := vg.Rectangle{Min: vg.Point{X: x, Y: y - rh}, Max: vg.Point{X: x + tw, Y: y}}
 			if e.Thumb != nil {
 				e.Thumb(&c, r)
 			}
-			sty := l.th.legendStyle()
-			if e.Bold {
-				sty = l.th.text(sizeLegend, true, PaletteBlack)
+			sty := l.entryStyle(e)
+			for k, line := range l.entryLines(e, lay.xs[ri][ei], width) {
+				base := y - vg.Length(k)*rh - rh/2 - textHeight(sty)/2 + sty.FontExtents().Descent
+				fillText(&c, sty, x+tw+legendGapIn, base, draw.XLeft, line)
 			}
-			base := y - rh/2 - textHeight(sty)/2 + sty.FontExtents().Descent
-			fillText(&c, sty, x+tw+legendGapIn, base, draw.XLeft, e.Text)
 		}
-		y -= rh + legendRowGap
+		y -= vg.Length(l.rowLines(lay, ri, width))*rh + legendRowGap
 	}
 	if l.note != "" {
 		sty := l.noteStyle()

@@ -15,6 +15,16 @@ import (
 // valueText prints an indicator value exactly as tables and sentences do.
 func valueText(ind dataset.Indicator, v float64) string { return format.Value(ind, v) }
 
+// axisValueText prints a value beside an axis whose title already names
+// the unit: money as bare digits (the title says "(PPP$)", as a table
+// states the currency once in its header), other units as valueText.
+func axisValueText(ind dataset.Indicator, v float64) string {
+	if ind.Unit == dataset.UnitCurrency {
+		return format.Number(v, ind.Decimals)
+	}
+	return valueText(ind, v)
+}
+
 // unitWords names an indicator's unit for an axis title.
 func unitWords(ind dataset.Indicator) string {
 	switch ind.Unit {
@@ -27,10 +37,12 @@ func unitWords(ind dataset.Indicator) string {
 	case dataset.UnitCount:
 		return "count"
 	case dataset.UnitCurrency:
-		if ind.Currency {
+		// International dollars whether converted here or derived from
+		// converted amounts: the same test the tables use for "PPP$".
+		if format.InDollars(ind) {
 			return "PPP$"
 		}
-		return "currency"
+		return "local currency"
 	case dataset.UnitIndex:
 		return "index"
 	case dataset.UnitScore:
@@ -50,20 +62,42 @@ func shortName(ind dataset.Indicator) string {
 	return ind.Key
 }
 
-// axisTitle is "Short (unit)" with the better direction, so a reader of a
-// printed page need not look up which way is good.
-func axisTitle(ind dataset.Indicator) string {
-	s := shortName(ind)
+// axisPhrases are an axis title's phrases, which a line break may fall
+// between but never inside: "Short (unit)" and the better direction, so a
+// reader of a printed page need not look up which way is good. The
+// direction is "" for a neutral indicator.
+func axisPhrases(ind dataset.Indicator) (name, unit, direction string) {
+	name = shortName(ind)
 	if u := unitWords(ind); u != "" {
-		s += " (" + u + ")"
+		unit = "(" + u + ")"
 	}
 	switch ind.Better {
 	case dataset.HigherIsBetter:
-		s += ", higher is better"
+		direction = "higher is better"
 	case dataset.LowerIsBetter:
-		s += ", lower is better"
+		direction = "lower is better"
+	}
+	return name, unit, direction
+}
+
+// axisTitle is the whole axis title on one line.
+func axisTitle(ind dataset.Indicator) string {
+	name, unit, dir := axisPhrases(ind)
+	s := joinNonEmpty(" ", name, unit)
+	if dir != "" {
+		s += ", " + dir
 	}
 	return s
+}
+
+func joinNonEmpty(sep string, parts ...string) string {
+	var out []string
+	for _, p := range parts {
+		if p != "" {
+			out = append(out, p)
+		}
+	}
+	return strings.Join(out, sep)
 }
 
 // valueTicks labels a value axis at "nice" steps (1, 2 or 5 times a power
@@ -169,23 +203,45 @@ func (y yearTicks) Ticks(lo, hi float64) []plot.Tick {
 }
 
 // fitAxisTitle is the axis title on one line when it fits, else on two
-// lines, else without the better-direction words, shortened at the end
-// as a last resort.
+// lines broken between phrases ("Short (unit)" over "higher is better",
+// or "Short" over "(unit), higher is better"), else "Short (unit)" alone,
+// else the name wrapped at a space with the unit kept whole on the last
+// line, shortened with an ellipsis only as a last resort.
 func fitAxisTitle(ind dataset.Indicator, th Theme, length vg.Length) string {
 	sty := th.axisStyle()
+	fits := func(lines ...string) bool {
+		for _, l := range lines {
+			if sty.Width(l) > length {
+				return false
+			}
+		}
+		return true
+	}
+	name, unit, dir := axisPhrases(ind)
 	full := axisTitle(ind)
-	if sty.Width(full) <= length {
+	if fits(full) {
 		return full
 	}
-	short := shortName(ind)
-	if u := unitWords(ind); u != "" {
-		short += " (" + u + ")"
-	}
-	for _, t := range []string{full, short} {
-		lines := wrapText(t, sty, length, 2)
-		if !strings.HasSuffix(lines[len(lines)-1], "…") {
-			return strings.Join(lines, "\n")
+	head := joinNonEmpty(" ", name, unit)
+	if dir != "" {
+		if fits(head, dir) {
+			return head + "\n" + dir
+		}
+		if unit != "" && fits(name, unit+", "+dir) {
+			return name + "\n" + unit + ", " + dir
 		}
 	}
-	return strings.Join(wrapText(short, sty, length, 2), "\n")
+	if fits(head) {
+		return head
+	}
+	if unit != "" && fits(name, unit) {
+		return name + "\n" + unit
+	}
+	// The name itself is too long for a line: wrap it at a space, the unit
+	// glued (non-breaking) to its last word so it is never split.
+	words := strings.Fields(name)
+	if unit != "" && len(words) > 0 {
+		words[len(words)-1] += " " + unit
+	}
+	return strings.Join(wrapWords(words, sty, length, 2), "\n")
 }

@@ -104,6 +104,7 @@ func (s *ScatterPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 		}
 	}
 	radius := vg.Points(2.3)
+	var points []vg.Rectangle
 	for gi, g := range sc.Groups {
 		mk := seriesMarker(GroupSeries(gi), radius)
 		mk.Fill = tint(mk.Fill, 170)
@@ -114,6 +115,7 @@ func (s *ScatterPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 			pt := vg.Point{X: trX(g.X[i]), Y: trY(g.Y[i])}
 			if c.Contains(pt) {
 				mk.Draw(&c, pt)
+				points = append(points, mk.Rect(pt))
 			}
 		}
 	}
@@ -132,12 +134,16 @@ func (s *ScatterPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 		obstacles = append(obstacles, focus.Rect(pt))
 		labels = append(labels, labelRequest{Anchor: pt, Text: sc.Focus.Label, Style: th.focusLabelStyle(), Gap: focus.Radius, Priority: 0})
 	}
-	placed, dropped := placeLabels(labels, vg.Rectangle{Min: c.Min, Max: c.Max}, obstacles, lines...)
+	// Labels go to free space first (clear of every point, a leader line
+	// back when moved out); only where the points leave none does a label
+	// sit over them, on a white halo that keeps it legible.
+	placed, dropped := placeLabelsAvoiding(labels, vg.Rectangle{Min: c.Min, Max: c.Max}, obstacles, points, lines...)
 	s.Dropped = dropped
-	// A white halo behind each label keeps it legible over dense points.
 	for _, l := range placed {
-		c.SetColor(tint(whiteColor, 215))
-		c.Fill(l.Rect.Path())
+		halo := l.Rect
+		halo.Min.X, halo.Max.X = halo.Min.X-1, halo.Max.X+1
+		c.SetColor(tint(whiteColor, 225))
+		c.Fill(halo.Path())
 	}
 	drawLabels(&c, placed)
 }
@@ -149,9 +155,17 @@ func (sc *ScatterChart) panels() *panels {
 	th := sc.Theme
 	ps := &panels{legend: &legend{th: th}, count: 1}
 	ps.panelHeight = func(w vg.Length) vg.Length { return max(min(w*0.62, vg.Points(340)), vg.Points(170)) }
+	var drawn *ScatterPlotter
+	ps.dropped = func() int {
+		if drawn == nil {
+			return 0
+		}
+		return drawn.Dropped
+	}
 	ps.make = func(w vg.Length, _ int) []*plot.Plot {
 		p := newPlot(th)
-		p.Add(grid(true, true), &ScatterPlotter{Chart: sc})
+		drawn = &ScatterPlotter{Chart: sc}
+		p.Add(grid(true, true), drawn)
 		p.X.Label.Text = fitAxisTitle(sc.XInd, th, w-40)
 		p.Y.Label.Text = fitAxisTitle(sc.YInd, th, ps.panelHeight(w)-40)
 		return []*plot.Plot{p}

@@ -35,7 +35,12 @@ func fillTextIn(c *draw.Canvas, sty text.Style, r vg.Rectangle, s string) {
 // wrapText breaks s at spaces into lines that fit width, at most maxLines
 // of them, the last shortened with an ellipsis when words remain.
 func wrapText(s string, sty text.Style, width vg.Length, maxLines int) []string {
-	words := strings.Fields(s)
+	return wrapWords(strings.Fields(s), sty, width, maxLines)
+}
+
+// wrapWords is wrapText over given words; a "word" may hold spaces when
+// it must never be broken (a unit in parentheses).
+func wrapWords(words []string, sty text.Style, width vg.Length, maxLines int) []string {
 	var lines []string
 	cur := ""
 	for i, w := range words {

@@ -1,10 +1,12 @@
 package charts
 
 import (
+	"fmt"
 	"image/color"
 	"math"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
@@ -35,13 +37,40 @@ type TrendPanel struct {
 	Marks     []TrendLine
 }
 
-// TrendPlotter draws a TrendPanel: each group's interquartile band and
-// median line, named institutions in grey, the focus on top.
+// MaxBandGroups is the most groups whose interquartile bands a trend
+// draws: more overlapping bands blur into one tinted mass, so above it
+// only the median lines are drawn and the legend says so (common
+// practice, no source).
+const MaxBandGroups = 2
+
+// TrendPlotter draws a TrendPanel: each group's interquartile band (up to
+// MaxBandGroups groups) and median line, named institutions in grey, the
+// focus on top, and the latest values in a column right of the last year.
 type TrendPlotter struct {
 	Panel TrendPanel
 	Theme Theme
+	// EndRoom is the room right of the last year for the end labels, and
+	// DataWidth the data area's width it is part of; with EndRoom 0 the
+	// data range simply leaves a fifth of the span.
+	EndRoom, DataWidth vg.Length
 	// Dropped counts labels left out for lack of room, after Plot.
 	Dropped int
+}
+
+// showBands reports whether the panel's bands are drawn.
+func (pn TrendPanel) showBands() bool { return len(pn.Bands) <= MaxBandGroups }
+
+// End labels: a short leader from the line's end to a column of values,
+// each value after its group's marker so it is tied to the line in print.
+const (
+	endLeader = 8 // line end to label column
+	endMark   = 7 // room for the marker before the value
+	endPad    = 1 // between stacked labels
+)
+
+// endLabelWidth is the room one end label takes right of the last year.
+func endLabelWidth(sty text.Style, s string) vg.Length {
+	return endLeader + endMark + sty.Width(s) + 2
 }
 
 // DataRange implements plot.DataRanger, leaving room right of the last
@@ -56,8 +85,10 @@ func (t *TrendPlotter) DataRange() (xmin, xmax, ymin, ymax float64) {
 		}
 	}
 	for _, b := range t.Panel.Bands {
-		see(b.Q1)
-		see(b.Q3)
+		if t.Panel.showBands() {
+			see(b.Q1)
+			see(b.Q3)
+		}
 		see(b.Median)
 	}
 	see(t.Panel.Focus.Values)
@@ -77,7 +108,14 @@ func (t *TrendPlotter) DataRange() (xmin, xmax, ymin, ymax float64) {
 	}
 	first, last := float64(ys[0]), float64(ys[len(ys)-1])
 	span := math.Max(last-first, 1)
-	return first - span*0.03, last + span*0.22, lo - pad, hi + pad
+	right := span * 0.22
+	if t.EndRoom > 0 && t.DataWidth > 0 {
+		// The room is asked in points; give the years the rest of the
+		// data area, never less than three fifths of it.
+		room := min(t.EndRoom, t.DataWidth*0.4)
+		right = span * 1.03 * float64(room/(t.DataWidth-room))
+	}
+	return first - span*0.03, last + right, lo - pad, hi + pad
 }
 
 // segments splits a yearly series at missing values, so a gap in the data
@@ -117,6 +155,17 @@ func tint(c color.Color, alpha uint8) color.Color {
 	return color.NRGBA{R: uint8(r >> 8), G: uint8(g >> 8), B: uint8(b >> 8), A: uint8(a * 255)}
 }
 
+// endLabel is one value in the column of latest values.
+type endLabel struct {
+	anchor vg.Point
+	text   string
+	style  text.Style
+	// mark is drawn before the value (nil for none); gap is the radius of
+	// the line's own end marker, where the leader starts.
+	mark *Marker
+	gap  vg.Length
+}
+
 // Plot implements plot.Plotter.
 func (t *TrendPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 	trX, trY := p.Transforms(&c)
@@ -124,11 +173,14 @@ func (t *TrendPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 	var labels []labelRequest
 	var obstacles []vg.Rectangle
 	var lines [][]vg.Point
+	var ends []endLabel
 	// Bands first, so every line stays visible above them.
-	for gi, b := range pn.Bands {
-		s := GroupSeries(gi)
-		for _, seg := range bandSegments(pn.Years, b.Q1, b.Q3, trX, trY) {
-			c.FillPolygon(tint(s.Colour, 46), seg)
+	if pn.showBands() {
+		for gi, b := range pn.Bands {
+			s := GroupSeries(gi)
+			for _, seg := range bandSegments(pn.Years, b.Q1, b.Q3, trX, trY) {
+				c.FillPolygon(tint(s.Colour, 46), seg)
+			}
 		}
 	}
 	for gi, b := range pn.Bands {
@@ -142,6 +194,11 @@ func (t *TrendPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 				mk.Draw(&c, pt)
 				obstacles = append(obstacles, mk.Rect(pt))
 			}
+		}
+		// Group medians' latest values, so the gap to the focus can be
+		// read.
+		if y, v, ok := lastValue(pn.Years, b.Median); ok {
+			ends = append(ends, endLabel{anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, text: axisValueText(pn.Indicator, v), style: t.Theme.labelStyle(), mark: &mk})
 		}
 	}
 	named := NamedMarker()
@@ -157,7 +214,7 @@ func (t *TrendPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 			}
 		}
 		if y, v, ok := lastValue(pn.Years, m.Values); ok && m.Label != "" {
-			labels = append(labels, labelRequest{Anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, Text: m.Label, Style: t.Theme.labelStyle(), Gap: named.Radius, Priority: 2, Prefer: []int{dirRight}})
+			labels = append(labels, labelRequest{Anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, Text: m.Label, Style: t.Theme.labelStyle(), Gap: named.Radius, Priority: 2, Prefer: []int{dirBelow, dirAbove, 6, 7}})
 		}
 	}
 	focus := FocusMarker()
@@ -172,17 +229,57 @@ func (t *TrendPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 		}
 	}
 	if y, v, ok := lastValue(pn.Years, pn.Focus.Values); ok {
-		labels = append(labels, labelRequest{Anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, Text: valueText(pn.Indicator, v), Style: t.Theme.focusLabelStyle(), Gap: focus.Radius, Priority: 0, Prefer: []int{dirRight}})
+		// The bold value is the focus's key; a second diamond beside the
+		// line's last one would read as one more year.
+		ends = append(ends, endLabel{anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, text: axisValueText(pn.Indicator, v), style: t.Theme.focusLabelStyle(), gap: focus.Radius})
 	}
-	// Group medians' latest values, so the gap to the focus can be read.
-	for _, b := range pn.Bands {
-		if y, v, ok := lastValue(pn.Years, b.Median); ok {
-			labels = append(labels, labelRequest{Anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, Text: valueText(pn.Indicator, v), Style: t.Theme.labelStyle(), Gap: vg.Points(2.4), Priority: 1, Prefer: []int{dirRight}})
-		}
+	var lastX vg.Length
+	if len(pn.Years) > 0 {
+		lastX = trX(float64(pn.Years[len(pn.Years)-1]))
 	}
+	obstacles = append(obstacles, t.drawEnds(&c, ends, lastX)...)
 	placed, dropped := placeLabels(labels, vg.Rectangle{Min: c.Min, Max: c.Max}, obstacles, lines...)
-	t.Dropped = dropped
+	t.Dropped += dropped
 	drawLabels(&c, placed)
+}
+
+// drawEnds sets the latest values in one column right of the last year,
+// spread so none overlaps (spreadLabels), each joined to its line's end by
+// a short leader, and returns their boxes. Values that cannot fit in the
+// panel's height are left out and counted in Dropped.
+func (t *TrendPlotter) drawEnds(c *draw.Canvas, ends []endLabel, lastX vg.Length) []vg.Rectangle {
+	if len(ends) == 0 {
+		return nil
+	}
+	h := textHeight(t.Theme.labelStyle()) + endPad
+	room := c.Max.Y - c.Min.Y
+	if fit := int(room / h); len(ends) > fit {
+		t.Dropped += len(ends) - fit
+		ends = ends[:fit]
+	}
+	want := make([]vg.Length, len(ends))
+	for i, e := range ends {
+		want[i] = e.anchor.Y
+	}
+	at := spreadLabels(want, h, c.Min.Y, c.Max.Y)
+	x0 := lastX + endLeader
+	leader := draw.LineStyle{Color: greyMark, Width: vg.Points(0.4)}
+	var boxes []vg.Rectangle
+	for i, e := range ends {
+		y := at[i]
+		gap := e.gap
+		if e.mark != nil {
+			gap = max(gap, e.mark.Radius)
+			e.mark.Draw(c, vg.Point{X: x0 + endMark/2, Y: y})
+		}
+		if from := e.anchor.X + gap + 1; from < x0-1 {
+			c.StrokeLine2(leader, from, e.anchor.Y, x0-1, y)
+		}
+		r := vg.Rectangle{Min: vg.Point{X: x0 + endMark, Y: y - h/2 + endPad/2}, Max: vg.Point{X: x0 + endMark + e.style.Width(e.text), Y: y + h/2 - endPad/2}}
+		fillTextIn(c, e.style, r, e.text)
+		boxes = append(boxes, vg.Rectangle{Min: vg.Point{X: x0, Y: r.Min.Y}, Max: r.Max})
+	}
+	return boxes
 }
 
 // bandSegments returns the polygons of an interquartile band, split where
@@ -226,14 +323,33 @@ func (tc *TrendChart) panels() *panels {
 		return tc.built
 	}
 	th := tc.Theme
-	ps := &panels{legend: &legend{th: th}, count: len(tc.Panels), minPanel: vg.Points(170)}
+	ps := &panels{legend: &legend{th: th}, count: len(tc.Panels), minPanel: vg.Points(170), legendInGap: true}
+	// The end-label column is as wide as the widest latest value.
+	var endRoom vg.Length
+	for _, pn := range tc.Panels {
+		for _, b := range pn.Bands {
+			if _, v, ok := lastValue(pn.Years, b.Median); ok {
+				endRoom = max(endRoom, endLabelWidth(th.labelStyle(), axisValueText(pn.Indicator, v)))
+			}
+		}
+		if _, v, ok := lastValue(pn.Years, pn.Focus.Values); ok {
+			endRoom = max(endRoom, endLabelWidth(th.focusLabelStyle(), axisValueText(pn.Indicator, v)))
+		}
+	}
+	var drawn []*TrendPlotter
+	ps.dropped = func() int { return sumDropped(drawn, func(t *TrendPlotter) int { return t.Dropped }) }
 	ps.make = func(w vg.Length, cols int) []*plot.Plot {
+		drawn = drawn[:0]
 		ph := ps.panelHeight(ps.panelWidth(w))
+		dw := ps.dataWidth(w, cols, vg.Points(40))
 		out := make([]*plot.Plot, len(tc.Panels))
 		for k, pn := range tc.Panels {
 			p := newPlot(th)
-			p.Add(grid(false, true), &TrendPlotter{Panel: pn, Theme: th})
-			p.X.Tick.Marker = yearTicks{years: pn.Years, room: ps.dataWidth(w, cols, vg.Points(40))}
+			tp := &TrendPlotter{Panel: pn, Theme: th, EndRoom: endRoom, DataWidth: dw}
+			drawn = append(drawn, tp)
+			p.Add(grid(false, true), tp)
+			// Year labels share the data area with the end labels.
+			p.X.Tick.Marker = yearTicks{years: pn.Years, room: dw - min(endRoom, dw*0.4)}
 			p.Y.Label.Text = fitAxisTitle(pn.Indicator, th, ph-30)
 			p.Y.Tick.Marker = ticksFor(ph - 30)
 			out[k] = p
@@ -246,10 +362,15 @@ func (tc *TrendChart) panels() *panels {
 	focus.Radius = vg.Points(3.6)
 	l.add(legendEntry{Text: tc.FocusName, Bold: true, Width: 20, Thumb: lineThumb(draw.LineStyle{Color: FocusColour, Width: vg.Points(2)}, &focus)})
 	if len(tc.Panels) > 0 {
+		bands := tc.Panels[0].showBands()
 		for gi, b := range tc.Panels[0].Bands {
 			s := GroupSeries(gi)
 			mk := seriesMarker(s, vg.Points(2.4))
 			line := lineThumb(draw.LineStyle{Color: s.Colour, Width: vg.Points(1.3), Dashes: s.Dashes}, &mk)
+			if !bands {
+				l.add(legendEntry{Text: b.Label + " median", Width: 20, Thumb: line})
+				continue
+			}
 			band := fillThumb(tint(s.Colour, 46), nil)
 			l.add(legendEntry{Text: b.Label + ": median and middle half", Width: 20, Thumb: func(c *draw.Canvas, r vg.Rectangle) { band(c, r); line(c, r) }})
 		}
@@ -257,6 +378,9 @@ func (tc *TrendChart) panels() *panels {
 			nm := NamedMarker()
 			nm.Radius = vg.Points(2.4)
 			l.add(legendEntry{Text: "Named institution", Width: 20, Thumb: lineThumb(draw.LineStyle{Color: greyMark, Width: vg.Points(0.9)}, &nm)})
+		}
+		if !bands {
+			l.note = fmt.Sprintf("Medians only: the middle half of each group is shaded for up to %d groups. Latest values right of each line.", MaxBandGroups)
 		}
 	}
 	tc.built = ps

@@ -140,10 +140,10 @@ func TestLoadPipeline(t *testing.T) {
 	if !inc[0] || inc[1] || inc[2] || inc[3] {
 		t.Errorf("included %v", inc)
 	}
-	if got := strings.Join(d.Population.Excluded[1], "; "); got != "subject_max in 2024 is 0.90, above 0.80; register field mission is empty" {
+	if got := strings.Join(d.Population.Excluded[1], "; "); got != "largest subject share in 2024 is 0.90, above 0.80; register field mission is empty" {
 		t.Errorf("A2 reasons %q", got)
 	}
-	if got := strings.Join(d.Population.Excluded[2], "; "); got != "papers over 2022-2024 is 300, below 600" {
+	if got := strings.Join(d.Population.Excluded[2], "; "); got != "papers summed over 2022–2024 is 300, below 600" {
 		t.Errorf("B1 reasons %q", got)
 	}
 	if rep.Population.Unchecked != 1 {
@@ -160,7 +160,11 @@ func TestLoadPipeline(t *testing.T) {
 		"Purchasing-power parity: income converted to international dollars",
 		"cites_per_paper = ratio of citations to papers: 2 computed, 9 missing for want of an input, 1 missing because the divisor is zero",
 		"Ranked population: 1 included, 3 excluded",
-		"excluded B1 (Cedar University): papers over 2022-2024 is 300, below 600",
+		"excluded B1 (Cedar University): papers summed over 2022–2024 is 300, below 600",
+		// Rule texts read as running text: labels, en dash, "of at least".
+		"rule: papers summed over 2022–2024 of at least 600",
+		"rule: largest subject share in 2024 of at most 0.80",
+		"rule: a value in the register's mission column",
 		"No problems found.",
 	} {
 		if !strings.Contains(out.String(), want) {

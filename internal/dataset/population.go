@@ -5,6 +5,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"peerpack/internal/yamlx"
 )
@@ -56,9 +58,10 @@ func (l *loader) population(d *Dataset) {
 		}
 		in := dict.Indicators[ind]
 		first := b.Year - r.Years + 1
-		rule := fmt.Sprintf("%s summed over %d-%d at least %s", in.Label, first, b.Year, num(r.AtLeast, in.Decimals))
+		label := runningText(in)
+		rule := fmt.Sprintf("%s summed over %s of at least %s", label, yearRange(first, b.Year), num(r.AtLeast, in.Decimals))
 		if r.Years == 1 {
-			rule = fmt.Sprintf("%s in %d at least %s", in.Label, b.Year, num(r.AtLeast, in.Decimals))
+			rule = fmt.Sprintf("%s in %d of at least %s", label, b.Year, num(r.AtLeast, in.Decimals))
 		}
 		p.Rules = append(p.Rules, rule)
 		for inst := 0; inst < n; inst++ {
@@ -71,9 +74,9 @@ func (l *loader) population(d *Dataset) {
 			}
 			switch {
 			case seen == 0:
-				exclude(inst, fmt.Sprintf("no %s values in %d-%d", in.Key, first, b.Year))
+				exclude(inst, fmt.Sprintf("no value of %s in %s", label, yearRange(first, b.Year)))
 			case sum < r.AtLeast:
-				exclude(inst, fmt.Sprintf("%s over %d-%d is %s, below %s", in.Key, first, b.Year, num(sum, in.Decimals), num(r.AtLeast, in.Decimals)))
+				exclude(inst, fmt.Sprintf("%s summed over %s is %s, below %s", label, yearRange(first, b.Year), num(sum, in.Decimals), num(r.AtLeast, in.Decimals)))
 			}
 		}
 	}
@@ -87,7 +90,8 @@ func (l *loader) population(d *Dataset) {
 			continue
 		}
 		in := dict.Indicators[ind]
-		p.Rules = append(p.Rules, fmt.Sprintf("%s in %d at most %s", in.Label, b.Year, num(r.AtMost, in.Decimals)))
+		label := runningText(in)
+		p.Rules = append(p.Rules, fmt.Sprintf("%s in %d of at most %s", label, b.Year, num(r.AtMost, in.Decimals)))
 		for inst := 0; inst < n; inst++ {
 			v, ok := d.Value(ind, inst, b.Year)
 			if !ok {
@@ -95,7 +99,7 @@ func (l *loader) population(d *Dataset) {
 				continue
 			}
 			if v > r.AtMost {
-				exclude(inst, fmt.Sprintf("%s in %d is %s, above %s", in.Key, b.Year, num(v, max(in.Decimals, 2)), num(r.AtMost, max(in.Decimals, 2))))
+				exclude(inst, fmt.Sprintf("%s in %d is %s, above %s", label, b.Year, num(v, max(in.Decimals, 2)), num(r.AtMost, max(in.Decimals, 2))))
 			}
 		}
 	}
@@ -113,7 +117,7 @@ func (l *loader) population(d *Dataset) {
 			l.probs.Addf(b.File, pos.Line, pos.Column, "%s", msg)
 			continue
 		}
-		p.Rules = append(p.Rules, fmt.Sprintf("register field %s present", attr))
+		p.Rules = append(p.Rules, fmt.Sprintf("a value in the register's %s column", attr))
 		for inst, in := range d.Register.Institutions {
 			if v, _ := in.Attr(attr); strings.TrimSpace(v) == "" {
 				exclude(inst, fmt.Sprintf("register field %s is empty", attr))
@@ -136,15 +140,61 @@ func (l *loader) population(d *Dataset) {
 	l.rep.Population = out
 }
 
-// num prints a rule threshold or total; presentation formatting with
-// thousands separators belongs to internal/format, which imports this
-// package, so these messages use plain digits.
+// num prints a rule threshold or total with thousands separators
+// ("1,000"), as the pack prints numbers. internal/format, the one place
+// numbers are formatted for the pack, imports this package, so rule texts
+// use the package's own thousands helper (report.go).
 func num(v float64, decimals int) string {
 	if math.IsNaN(v) {
 		return "missing"
 	}
+	s := strconv.FormatFloat(v, 'f', decimals, 64)
 	if v == math.Trunc(v) && math.Abs(v) < 1e15 {
-		return strconv.FormatFloat(v, 'f', 0, 64)
+		s = strconv.FormatFloat(v, 'f', 0, 64)
 	}
-	return strconv.FormatFloat(v, 'f', decimals, 64)
+	whole, frac, hasFrac := strings.Cut(s, ".")
+	n, err := strconv.ParseInt(whole, 10, 64)
+	if err != nil {
+		return s
+	}
+	out := thousands(int(n))
+	if n == 0 && strings.HasPrefix(whole, "-") {
+		out = "-0"
+	}
+	if hasFrac {
+		out += "." + frac
+	}
+	return out
+}
+
+// yearRange prints a span of years with an en dash, as running text
+// writes ranges ("2021–2025"; common practice, no source).
+func yearRange(first, last int) string {
+	return strconv.Itoa(first) + "\u2013" + strconv.Itoa(last)
+}
+
+// runningText is an indicator's label as running text reads it: the
+// first letter lowered unless the first word is an abbreviation ("FWCI",
+// "PhD share") or the capital is joined to what follows ("A-level"); the
+// key when there is no label.
+func runningText(ind Indicator) string {
+	s := ind.Label
+	if s == "" {
+		return ind.Key
+	}
+	r, n := utf8.DecodeRuneInString(s)
+	if !unicode.IsUpper(r) {
+		return s
+	}
+	word := s[n:]
+	if r2, _ := utf8.DecodeRuneInString(word); word != "" && !unicode.IsLower(r2) {
+		return s
+	}
+	if i := strings.IndexFunc(word, unicode.IsSpace); i >= 0 {
+		word = word[:i]
+	}
+	if strings.IndexFunc(word, unicode.IsUpper) >= 0 {
+		return s
+	}
+	return string(unicode.ToLower(r)) + s[n:]
 }

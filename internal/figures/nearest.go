@@ -41,15 +41,16 @@ func (r *resolver) nearest(spec *brief.GroupSpec, over string) []*Group {
 	// so one missing value does not stop the pack (a batch over a whole
 	// sector meets this). Only when none is left is it an error.
 	var used []int
-	var usedKeys, dropped []string
+	// The definition is read in the pack: labels, not keys.
+	var usedLabels, dropped []string
 	for _, k := range inds {
-		key := r.d.Dictionary.Indicators[k].Key
+		label := runningLabel(r.d.Dictionary.Indicators[k])
 		if _, has := r.d.Value(k, r.focus, year); !has {
-			dropped = append(dropped, key)
+			dropped = append(dropped, label)
 			continue
 		}
 		used = append(used, k)
-		usedKeys = append(usedKeys, key)
+		usedLabels = append(usedLabels, label)
 	}
 	if len(used) == 0 {
 		r.errAt(spec.Pos, "group %q: the focus %s has no value in %d of any of %s, so no institution can be measured against it; choose indicators the focus reports", spec.Name, r.b.Focus, year, strings.Join(ns.Indicators, ", "))
@@ -105,9 +106,10 @@ func (r *resolver) nearest(spec *brief.GroupSpec, over string) []*Group {
 		cands = cands[:ns.Count]
 	}
 	g := newGroup(spec.Name, "nearest", r.d.Register.Len())
-	g.Defined = fmt.Sprintf("the %d institutions nearest %s on %s in %d (standardised Euclidean distance)", len(cands), r.b.Focus, strings.Join(usedKeys, ", "), year)
+	focusName := r.d.Register.Institutions[r.focus].Name
+	g.Defined = fmt.Sprintf("the %d institutions nearest %s on %s in %d (standardised Euclidean distance)", len(cands), focusName, listText(usedLabels), year)
 	if len(dropped) > 0 {
-		g.Defined += fmt.Sprintf("; %s left out because %s reports no value of %s in %d", strings.Join(dropped, ", "), r.b.Focus, map[bool]string{true: "it", false: "them"}[len(dropped) == 1], year)
+		g.Defined += fmt.Sprintf("; %s left out because %s reports no value of %s in %d", listText(dropped), focusName, map[bool]string{true: "it", false: "them"}[len(dropped) == 1], year)
 	}
 	if len(cands) < ns.Count {
 		g.Defined += fmt.Sprintf("; %d were asked for, but only %d institutions have every one of these indicators", ns.Count, len(cands))

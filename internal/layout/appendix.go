@@ -18,9 +18,8 @@ func (w *writer) appendix(ab *brief.AppendixBlock) {
 	if !ok {
 		return
 	}
-	w.flushColumns()
-	w.cols = 1
-	w.setFrame()
+	// An annex is set in one column, below anything set in columns.
+	w.setColumns(1)
 	switch ab.Type {
 	case "data":
 		w.dataAppendix(sc)
@@ -38,7 +37,8 @@ type appendixScope struct {
 }
 
 // appendixScope resolves a block's indicators (default: every indicator
-// the pack shows, as the closing's coverage table counts them) and groups
+// the pack shows, as the closing's coverage table counts them, or the
+// whole dictionary when the pack shows none) and groups
 // (default: every group of the brief). The figures stage checks the names
 // first; layout checks again so that a model built without that check
 // still gets a positioned message rather than an empty annex.
@@ -61,6 +61,11 @@ func (w *writer) appendixScope(ab *brief.AppendixBlock) (appendixScope, bool) {
 		sc.indicators = inDictionaryOrder(dict, want)
 	} else {
 		sc.indicators = inDictionaryOrder(dict, w.packIndicators())
+	}
+	if len(sc.indicators) == 0 {
+		// A pack that shows no indicator elsewhere: the annex covers the
+		// whole dictionary rather than nothing.
+		sc.indicators = dict.Indicators
 	}
 	if len(ab.Groups) == 0 {
 		sc.groups = w.m.Groups

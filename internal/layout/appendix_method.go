@@ -39,7 +39,7 @@ func (w *writer) annexSize() float64 { return w.st.size - 0.5 }
 func (w *writer) annexIndicators(sc appendixScope) {
 	dict := w.m.Data.Dictionary
 	w.annexHeading("Indicators and sources", keepWithNext)
-	w.plain(fmt.Sprintf("The pack uses %s %s of the dictionary %s. Each is listed with its definition and source, the unit and decimals it is printed with, and the direction counted as better.",
+	w.plain(fmt.Sprintf("The pack uses %s %s of the dictionary %s. Each is listed with its definition and source, its unit, the decimals it is printed with and the direction counted as better; ranks run in that direction, 1 being best, and neutral indicators rank from the highest value with no judgement implied.",
 		format.Int(len(sc.indicators)), format.Plural(len(sc.indicators), "indicator", "indicators"), dict.File))
 	var pillars []string
 	byPillar := map[string][]dataset.Indicator{}
@@ -81,15 +81,14 @@ func indicatorNote(ind dataset.Indicator, dict *dataset.Dictionary) string {
 	} else if ind.Derive == "" {
 		parts = append(parts, "Source: not stated in the dictionary.")
 	}
-	unit := fmt.Sprintf("Unit: %s, printed with %d %s", ind.Unit, ind.Decimals, format.Plural(ind.Decimals, "decimal", "decimals"))
+	unit := fmt.Sprintf("%s, %d %s, %s", upperFirst(string(ind.Unit)), ind.Decimals, format.Plural(ind.Decimals, "decimal", "decimals"), polarityNote(ind.Better))
 	switch {
 	case ind.Currency:
 		unit += "; converted from local currency to international dollars (PPP$) before any figure is computed"
-	case inDollars(ind):
+	case format.InDollars(ind):
 		unit += "; in international dollars (PPP$), computed from converted amounts"
 	}
 	parts = append(parts, unit+".")
-	parts = append(parts, polarityNote(ind.Better))
 	if j := strings.TrimSpace(ind.Judgement); j != "" {
 		parts = append(parts, sentence("Value judgement: "+j))
 	}
@@ -97,16 +96,16 @@ func indicatorNote(ind dataset.Indicator, dict *dataset.Dictionary) string {
 	return strings.Join(parts, " ")
 }
 
-// polarityNote says which direction counts as better and what that does
-// to ranks (figures.RankDirection is the one mapping used for ranking).
+// polarityNote says which direction counts as better (ranks follow it
+// through figures.RankDirection).
 func polarityNote(p dataset.Polarity) string {
 	switch p {
 	case dataset.HigherIsBetter:
-		return "Higher values are better; rank 1 is the highest."
+		return "higher is better"
 	case dataset.LowerIsBetter:
-		return "Lower values are better (marked ↓ in tables); rank 1 is the lowest."
+		return "lower is better (↓ in tables)"
 	}
-	return "Neutral: no direction is counted as better; ranks run from the highest value and carry no judgement."
+	return "neutral (no direction is better)"
 }
 
 // sentence ends a text with a full stop unless it has one.
@@ -147,7 +146,7 @@ func (w *writer) annexGroups(sc appendixScope) {
 		if g.FocusIn {
 			b.WriteString(focus + " is a member.")
 		} else {
-			b.WriteString(focus + " is not a member and is placed among the members by its value.")
+			b.WriteString(focus + " is not a member.")
 		}
 		switch {
 		case len(g.Nearest) > 0:
@@ -188,7 +187,7 @@ func (w *writer) annexPopulation() {
 	excluded := len(pop.Excluded)
 	w.plain(fmt.Sprintf("The register %s holds %s institutions. The population rules below leave out %s, so %s form the ranked population that the groups draw on. Rules like these keep out institutions whose figures rest on too few papers or staff to compare reliably.",
 		d.Register.File, format.Int(n), format.Int(excluded), format.Int(n-excluded)))
-	counts, ok := ruleExclusions(w.b, pop)
+	counts, ok := ruleExclusions(w.b, pop, d.Dictionary)
 	for i, r := range pop.Rules {
 		text := sentence(upperFirst(r))
 		if ok {
@@ -212,14 +211,20 @@ func (w *writer) annexMoney(sc appendixScope) {
 	d := w.m.Data
 	dict := d.Dictionary
 	var converted, derived, local []string
-	for _, ind := range dict.Indicators {
-		if ind.Unit != dataset.UnitCurrency {
-			continue
+	if d.PPP != nil {
+		for _, k := range d.PPP.Converted {
+			if ind, ok := dict.Lookup(k); ok {
+				converted = append(converted, lowerFirst(ind.Label))
+			}
 		}
+	}
+	// Amounts computed from converted money are named only when this
+	// annex covers them; every converted amount is named, as conversion
+	// happens before anything else.
+	for _, ind := range sc.indicators {
 		switch {
-		case ind.Currency && d.PPP != nil:
-			converted = append(converted, lowerFirst(ind.Label))
-		case inDollars(ind):
+		case ind.Unit != dataset.UnitCurrency || ind.Currency && d.PPP != nil:
+		case format.InDollars(ind):
 			derived = append(derived, lowerFirst(ind.Label))
 		default:
 			local = append(local, lowerFirst(ind.Label))
@@ -233,16 +238,16 @@ func (w *writer) annexMoney(sc appendixScope) {
 			s += "the brief names no PPP file."
 		}
 		if len(local) > 0 {
-			s += " " + upperFirst(strings.Join(local, ", ")) + " are shown in the currency units of the data as given, which are comparable only within one currency."
+			s += " " + upperFirst(joinAnd(local)) + format.Plural(len(local), " is", " are") + " shown in the currency units of the data as given, comparable only within one currency."
 		}
 		w.plain(s)
 		return
 	}
 	countries, first, last := pppExtent(d.PPP)
 	s := fmt.Sprintf("Money amounts (%s) are converted from local currency to international dollars (PPP$) before any figure is computed: each value is divided by the purchasing-power-parity factor of its country and year, a factor being local currency units per international dollar. The factors are read from %s (%s %s, %d–%d).",
-		strings.Join(converted, ", "), w.b.Data.PPP, format.Int(countries), format.Plural(countries, "country", "countries"), first, last)
+		joinAnd(converted), w.b.Data.PPP, format.Int(countries), format.Plural(countries, "country", "countries"), first, last)
 	if len(derived) > 0 {
-		s += " " + upperFirst(strings.Join(derived, ", ")) + " are computed from the converted amounts and so are in international dollars too."
+		s += " " + upperFirst(joinAnd(derived)) + format.Plural(len(derived), " is", " are") + " computed from the converted amounts and so in international dollars too."
 	}
 	s += " PPP factors are estimates and are revised from time to time, so small differences in money indicators between countries deserve less weight than those within one country."
 	w.plain(s)
@@ -272,13 +277,17 @@ const annexCoverageGroups = 6
 // annexCoverage tabulates, for each indicator and group in scope, the
 // members with a value in the brief's year out of all members.
 func (w *writer) annexCoverage(sc appendixScope) {
-	if len(sc.groups) == 0 {
+	if len(sc.groups) == 0 || len(sc.indicators) == 0 {
 		return
 	}
 	w.annexHeading("Coverage by group", 40)
 	w.plain(fmt.Sprintf("Members with a value in %d out of all members of each group. An institution without a value is left out of that indicator's figures, never counted as zero; bold marks coverage under %s%%, where the commentary adds a caution.", w.m.Year, format.Number(narrative.MinCoverage, 0)))
-	for start := 0; start < len(sc.groups); start += annexCoverageGroups {
-		gs := sc.groups[start:min(start+annexCoverageGroups, len(sc.groups))]
+	// Groups are shared out evenly between the tables (8 groups: 4 and 4,
+	// not 6 and 2).
+	tables := (len(sc.groups) + annexCoverageGroups - 1) / annexCoverageGroups
+	per := (len(sc.groups) + tables - 1) / tables
+	for start := 0; start < len(sc.groups); start += per {
+		gs := sc.groups[start:min(start+per, len(sc.groups))]
 		g := grid{head: []string{"Indicator"}, align: []byte{'L'}}
 		for _, gr := range gs {
 			g.head = append(g.head, gr.Name)
@@ -329,4 +338,106 @@ func (w *writer) annexWeights() {
 // listed here, each weight stated as the value judgement it is.
 func compositeStatement(m *figures.Model) string {
 	return "No composite score is computed in this pack: each indicator is shown on its own, and none is weighted against another. Any composite built from these figures would rest on weights that are value judgements, and its ranks would move with them."
+}
+
+// annexLimits sets out the limits of these figures for this pack: the
+// least complete figure, the value judgements, noise and small groups,
+// and what the indicators leave out; the pack's standing cautions are
+// pointed to rather than repeated.
+func (w *writer) annexLimits(sc appendixScope) {
+	w.annexHeading("Limits of these figures", keepWithNext)
+	size := w.annexSize()
+	if ind, g, n, total, ok := w.leastCovered(sc); ok {
+		w.runIn("Coverage of the data.", fmt.Sprintf("The least complete figure in this annex is %s in %s: %s of %s members report it in %d. Institutions without a value are left out, so a group's median describes those that report, who may differ from those that do not.",
+			lowerFirst(ind.Label), g.Name, format.Int(n), format.Int(total), w.m.Year), size)
+	}
+	judged := 0
+	for _, ind := range sc.indicators {
+		if strings.TrimSpace(ind.Judgement) != "" {
+			judged++
+		}
+	}
+	vj := fmt.Sprintf("The choice of these %s indicators, of the members of each group and of the direction counted as better are value judgements made for this pack; other defensible choices can move positions.", format.Int(len(sc.indicators)))
+	if judged > 0 {
+		vj += fmt.Sprintf(" For %s %s the dictionary records why the direction itself is a judgement (see above).", format.Int(judged), format.Plural(judged, "indicator", "indicators"))
+	}
+	w.runIn("Value judgements.", vj, size)
+	noise := fmt.Sprintf("Differences of a rank or two, or of fewer than %s percentile points, lie within the year-to-year noise of the data and of revisions, and are not read as movement.", format.Number(narrative.PercentileNoise, 0))
+	if g, ok := smallestGroup(sc.groups); ok {
+		noise += fmt.Sprintf(" The smallest group, %s, has %s %s", g.Name, format.Int(len(g.Members)), format.Plural(len(g.Members), "member", "members"))
+		if len(g.Members) < narrative.SmallGroup {
+			noise += fmt.Sprintf("; with fewer than %d, its quartiles move when a single member changes", narrative.SmallGroup)
+		}
+		noise += "."
+	}
+	w.runIn("Noise and small groups.", noise, size)
+	w.runIn("What is not measured.", w.unmeasured(sc), size)
+	if w.own != nil {
+		w.plain("The cautions that go with every reading of these figures are set out in “" + w.own.title + "”.")
+	} else {
+		w.plain("The cautions that go with every reading of these figures close the pack, in “About these figures”.")
+	}
+}
+
+// leastCovered finds the indicator and group in scope with the smallest
+// share of members reporting in the brief's year (ties: the first in
+// dictionary and brief order).
+func (w *writer) leastCovered(sc appendixScope) (ind dataset.Indicator, g *figures.Group, n, total int, ok bool) {
+	best := 2.0
+	for _, in := range sc.indicators {
+		for _, gr := range sc.groups {
+			if len(gr.Members) == 0 {
+				continue
+			}
+			c := 0
+			if d, has := w.m.Distribution(gr.Name, in.Key, w.m.Year); has {
+				c = d.N
+			}
+			if share := float64(c) / float64(len(gr.Members)); share < best {
+				best, ind, g, n, total, ok = share, in, gr, c, len(gr.Members), true
+			}
+		}
+	}
+	return ind, g, n, total, ok
+}
+
+// smallestGroup is the group in scope with the fewest members.
+func smallestGroup(gs []*figures.Group) (*figures.Group, bool) {
+	var out *figures.Group
+	for _, g := range gs {
+		if out == nil || len(g.Members) < len(out.Members) {
+			out = g
+		}
+	}
+	return out, out != nil
+}
+
+// unmeasured names the pillars the indicators cover and what such
+// indicators leave out.
+func (w *writer) unmeasured(sc appendixScope) string {
+	var pillars []string
+	seen := map[string]bool{}
+	for _, ind := range sc.indicators {
+		p := strings.TrimSpace(ind.Pillar)
+		if p != "" && !seen[p] {
+			seen[p] = true
+			pillars = append(pillars, lowerFirst(p))
+		}
+	}
+	s := "The indicators count what institutions report and what databases index"
+	if len(pillars) > 0 {
+		s += ", under " + joinAnd(pillars)
+	}
+	return s + ". Teaching quality, the student experience, the wider value of research to society and work outside indexed journals are not measured here, and a position on these indicators is no verdict on them."
+}
+
+// joinAnd lists words as "a, b and c".
+func joinAnd(xs []string) string {
+	switch len(xs) {
+	case 0:
+		return ""
+	case 1:
+		return xs[0]
+	}
+	return strings.Join(xs[:len(xs)-1], ", ") + " and " + xs[len(xs)-1]
 }

@@ -13,51 +13,66 @@ import (
 // brief order), how many institutions that rule leaves out. An
 // institution failing two rules counts under both.
 //
-// The dataset keeps each excluded institution's reasons as text, in rule
-// order; the reasons are matched here to the rule that wrote them. When a
-// reason matches no rule (the dataset's wording changed), ok is false and
-// the annex states only the total, rather than a wrong split.
-func ruleExclusions(b *brief.Brief, pop *dataset.Population) (counts []int, ok bool) {
-	if b.Population == nil || pop == nil {
+// The dataset keeps, per excluded institution, one reason for each rule
+// it fails, in rule order, as text. With a single rule every exclusion is
+// that rule's. With several, each reason is matched to the next rule (in
+// order) whose marks it carries: the rule's indicator (key or label) and
+// its kind's wording, or the register field of a require rule. When a
+// reason matches no rule, ok is false and the annex states only the
+// total, rather than a wrong split.
+func ruleExclusions(b *brief.Brief, pop *dataset.Population, dict *dataset.Dictionary) (counts []int, ok bool) {
+	if b.Population == nil || pop == nil || len(pop.Rules) == 0 {
 		return nil, false
 	}
-	var prefixes [][]string // per rule, the reason prefixes it writes
+	if len(pop.Rules) == 1 {
+		return []int{len(pop.Excluded)}, true
+	}
+	var rules []func(why string) bool
+	names := func(key string) []string {
+		out := []string{strings.ToLower(key)}
+		if ind, ok := dict.Lookup(key); ok {
+			out = append(out, strings.ToLower(ind.Label))
+		}
+		return out
+	}
+	mentions := func(why string, words []string) bool {
+		why = strings.ToLower(why)
+		for _, w := range words {
+			if w != "" && strings.Contains(why, w) {
+				return true
+			}
+		}
+		return false
+	}
 	for _, r := range b.Population.MinTotal {
-		first := b.Year - r.Years + 1
-		prefixes = append(prefixes, []string{
-			fmt.Sprintf("no %s values in %d-%d", r.Indicator, first, b.Year),
-			fmt.Sprintf("%s over %d-%d is ", r.Indicator, first, b.Year),
+		words, first := names(r.Indicator), fmt.Sprint(b.Year-r.Years+1)
+		rules = append(rules, func(why string) bool {
+			return mentions(why, words) && strings.Contains(why, first) && (strings.HasPrefix(why, "no ") || strings.Contains(why, " over "))
 		})
 	}
 	for _, r := range b.Population.MaxValue {
-		prefixes = append(prefixes, []string{fmt.Sprintf("%s in %d is ", r.Indicator, b.Year)})
+		words, in := names(r.Indicator), fmt.Sprintf(" in %d is ", b.Year)
+		rules = append(rules, func(why string) bool { return mentions(why, words) && strings.Contains(why, in) })
 	}
 	for _, a := range b.Population.Require {
-		prefixes = append(prefixes, []string{fmt.Sprintf("register field %s is empty", a)})
+		field := "register field " + a + " "
+		rules = append(rules, func(why string) bool { return strings.Contains(why, field) })
 	}
-	if len(prefixes) != len(pop.Rules) {
+	if len(rules) != len(pop.Rules) {
 		return nil, false
 	}
-	counts = make([]int, len(prefixes))
+	counts = make([]int, len(rules))
 	for _, reasons := range pop.Excluded {
-		hit := make([]bool, len(prefixes))
+		next := 0
 		for _, why := range reasons {
-			found := false
-			for i, ps := range prefixes {
-				for _, p := range ps {
-					if strings.HasPrefix(why, p) {
-						hit[i], found = true, true
-					}
-				}
+			for next < len(rules) && !rules[next](why) {
+				next++
 			}
-			if !found {
+			if next == len(rules) {
 				return nil, false
 			}
-		}
-		for i, h := range hit {
-			if h {
-				counts[i]++
-			}
+			counts[next]++
+			next++
 		}
 	}
 	return counts, true

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"strings"
 
+	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
 	"peerpack/internal/pdf"
 )
@@ -35,9 +36,26 @@ func (w *writer) cautions() {
 			w.y += paraGap - listItemGap
 		}
 	}
-	w.coverage()
-	w.definitions()
+	if w.hasMethodologyAppendix() {
+		// The appendix already gives coverage by group and the
+		// definitions; the closing says where rather than repeating them.
+		w.plain("The methodology appendix gives the coverage of each group, the sources and definitions of every indicator and how each figure is computed.")
+	} else {
+		w.coverage()
+		w.definitions()
+	}
 	w.limits()
+}
+
+// hasMethodologyAppendix reports whether the brief lays out a methodology
+// appendix block.
+func (w *writer) hasMethodologyAppendix() bool {
+	for _, blk := range w.b.Blocks {
+		if a, ok := blk.(*brief.AppendixBlock); ok && a.Type == "methodology" {
+			return true
+		}
+	}
+	return false
 }
 
 func (w *writer) plain(text string) {

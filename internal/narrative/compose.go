@@ -67,7 +67,7 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 			// The brief's first summary block takes the place of the
 			// executive summary (the layout then sets no second one), so
 			// it carries what the executive summary always carries: the
-			// key caveats and the standing cautions, whatever its topics.
+			// short caveats of its own figures, whatever its topics.
 			executivePlaced = true
 			sc.executive = true
 			sc.topics["caveats"] = true
@@ -125,12 +125,18 @@ type composer struct {
 	focus string // the focus institution's name as sentences use it
 	part  string
 	// introduced records, per part, the groups the focus has been said
-	// not to belong to, so the long form is written once.
+	// not to belong to, so the long form is written once; said records
+	// what a part has already stated (the year, a value), so sentences
+	// do not repeat it.
 	introduced map[string]bool
+	said       map[string]bool
+	// turns counts, per part and kind of sentence, the sentences written,
+	// so that consecutive sentences of a kind take different phrasings.
+	turns map[string]int
 }
 
 func newComposer(m *figures.Model, b *brief.Brief, w Wording) *composer {
-	c := &composer{m: m, b: b, w: w, introduced: map[string]bool{}}
+	c := &composer{m: m, b: b, w: w, introduced: map[string]bool{}, said: map[string]bool{}, turns: map[string]int{}}
 	if m.Focus >= 0 && m.Focus < m.Data.Register.Len() {
 		in := m.Data.Register.Institutions[m.Focus]
 		c.focus = in.Name
@@ -139,6 +145,17 @@ func newComposer(m *figures.Model, b *brief.Brief, w Wording) *composer {
 		}
 	}
 	return c
+}
+
+// next returns the seed and turn for the next sentence of a kind in the
+// current part: the seed is the part's, so the phrasings of one part
+// rotate (Wording picks (variant(seed) + turn) mod n), and two sentences
+// of a kind in a row never read alike.
+func (c *composer) next(kind string) (string, int) {
+	k := c.part + "/" + kind
+	t := c.turns[k]
+	c.turns[k] = t + 1
+	return k, t
 }
 
 // phrase is how sentences name a group: the brief's phrase, else the
@@ -193,7 +210,8 @@ func topicSet(style string, topics []string) map[string]bool {
 // executiveScope is the executive summary's scope: the indicators and
 // groups of the brief's first summary-style commentary block when it has
 // one (the author's choice of headline indicators), else every indicator
-// and group; it always ends with the caveats and the standing cautions.
+// and group; it always ends with the short caveats of its own figures
+// (the standing cautions are the closing section's).
 func (c *composer) executiveScope() *scope {
 	sc := &scope{part: "summary", style: "summary", inds: c.m.Data.Dictionary.Indicators, year: c.m.Year,
 		topics: topicSet("summary", nil), executive: true}

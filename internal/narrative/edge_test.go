@@ -49,7 +49,7 @@ institutions:
 ` + home("intl"),
 			// sorted 30, 35, 38, 42, 45.2: median 38, Q3 42; rank 1 of 5,
 			// percentile 100 x 4.5 / 5 = 90.
-			"International staff share: Arlen University ranks 1st of 5 in the Kestria sector (45.2% in 2025), in the top quarter. The median of the Kestria sector is 38.0%, and Arlen University is 7.2 percentage points above it; it is 3.2 percentage points above the upper quartile (42.0%).\n"},
+			"International staff share: Arlen University stands 1st of 5 in the Kestria sector at 45.2% in 2025. That is 7.2 percentage points above the group median of 38.0%, and 3.2 percentage points above the upper quartile (42.0%).\n"},
 		{"lower is better, behind the median", `
 columns: [spa@2025]
 institutions:
@@ -62,7 +62,7 @@ institutions:
 			// sorted 14.2, 15.1, 16.0, 17.6, 19.0: median 16.0, Q1 15.1; three
 			// lower (better) values, so rank 4 of 5; percentile 100 x 1.5 / 5
 			// = 30, third quarter; gaps 1.6 and 2.5.
-			"Students per academic: Arlen University stands 4th of 5 in the Kestria sector at 17.6 in 2025, in the third quarter. That is 1.6 above the group median of 16.0, which is unfavourable as lower is better here; it is 2.5 short of the lower quartile (15.1).\n"},
+			"Students per academic: Arlen University stands 4th of 5 in the Kestria sector at 17.6 in 2025, in the third quarter. That is 1.6 above the group median of 16.0 (unfavourable, as lower is better here), and 2.5 above the lower quartile (15.1).\n"},
 		{"neutral indicator: no judgement words", `
 columns: [size@2025]
 institutions:
@@ -74,7 +74,7 @@ institutions:
 ` + home("size"),
 			// sorted 10,000 .. 30,000: median 15,000; 2nd highest; percentile
 			// 100 x 3.5 / 5 = 70.
-			"Student headcount: Arlen University ranks 2nd highest of 5 in the Kestria sector (21,000 in 2025), in the second-highest quarter of values. That is 6,000 above the group median of 15,000.\n"},
+			"Student headcount: Arlen University stands 2nd highest of 5 in the Kestria sector at 21,000 in 2025, in the second-highest quarter of values. That is 6,000 above the group median of 15,000.\n"},
 		{"tie shares the rank", `
 columns: [intl@2025]
 institutions:
@@ -86,7 +86,7 @@ institutions:
 ` + home("intl"),
 			// sorted 30, 40, 40, 44, 45: median 40, Q3 44; two better values,
 			// rank joint 3rd; percentile 100 x (1 + 1) / 5 = 40.
-			"International staff share: Arlen University ranks joint 3rd of 5 with one other in the Kestria sector (40.0% in 2025), in the third quarter. The median of the Kestria sector is 40.0%, and Arlen University is level with it; it is 4.0 percentage points short of the upper quartile (44.0%).\n"},
+			"International staff share: Arlen University stands joint 3rd of 5 with one other in the Kestria sector at 40.0% in 2025, in the third quarter. That is level with the group median of 40.0%, and 4.0 percentage points short of the upper quartile (44.0%).\n"},
 		{"a value that rounds equal to the median is level with it", `
 columns: [intl@2025]
 institutions:
@@ -98,7 +98,7 @@ institutions:
 			// sorted 30, 38, 38.04, 45: median 38.02 prints 38.0 like the
 			// value; Q3 = 38.04 + 0.25 x 6.96 = 39.78; the gap 1.74 prints
 			// 1.7 but 39.8 - 38.0 reads 1.8, so it is left out.
-			"International staff share: Arlen University ranks 2nd of 4 in the Kestria sector (38.0% in 2025), in the second quarter. The median of the Kestria sector is 38.0%, and Arlen University is level with it; it is short of the upper quartile (39.8%).\n"},
+			"International staff share: Arlen University stands 2nd of 4 in the Kestria sector at 38.0% in 2025, in the second quarter. That is level with the group median of 38.0%, and short of the upper quartile (39.8%).\n"},
 		{"single-member group", `
 columns: [intl@2025]
 institutions:
@@ -145,7 +145,7 @@ block: {style: detail, topics: [position], indicators: [intl]}
 `,
 			// sorted 22, 40, 50; placed as a fourth value: rank 2 of 4,
 			// percentile 100 x 2.5 / 4 = 62.5; median 40, Q3 45.
-			"International staff share: Arlen University is not a member of the Veldra peers; placed among the 3 members that report international staff share, its 45.2% in 2025 would rank 2nd of 4, in the second quarter. The median of the Veldra peers is 40.0%, and Arlen University is 5.2 percentage points above it; it is 0.2 percentage points above the upper quartile (45.0%).\n"},
+			"International staff share: Arlen University is not a member of the Veldra peers; placed among the 3 members that report international staff share, its 45.2% in 2025 would rank 2nd of 4, in the second quarter. That is 5.2 percentage points above the group median of 40.0%, and 0.2 percentage points above the upper quartile (45.0%).\n"},
 		{"a chosen peer group of one country", `
 columns: [intl@2025]
 institutions:
@@ -157,7 +157,7 @@ groups:
   - {name: Chosen peers, members: [F, A, B]}
 block: {style: detail, topics: [caveats], indicators: [intl]}
 `,
-			"Reading these figures: The comparison among the chosen peers rests on 3 members, fewer than the 10 that common practice asks for before quartiles are read as stable, so those ranks are indicative only. Every member of the chosen peers is in Kestria, so this comparison sets Arlen University against one national system only.\n"},
+			"Caveats: The comparison among the chosen peers rests on 3 members, fewer than the 10 that common practice asks for before quartiles are read as stable, so those ranks are indicative only. Every member of the chosen peers is in Kestria, so this comparison sets Arlen University against one national system only.\n"},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {

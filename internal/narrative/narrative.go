@@ -18,8 +18,9 @@ type Sentence struct {
 	Cites []figures.Key
 	// Thresholds lists the method constants the sentence prints (the
 	// small-group minimum, the coverage floor), which are rules of the
-	// method rather than figures of the model. Verify accepts exactly
-	// these besides the cited figures.
+	// method rather than figures of the model, and the counts of
+	// indicators a cut list leaves out ("and 12 other indicators").
+	// Verify accepts exactly these besides the cited figures.
 	Thresholds []float64
 	// About is the indicator the sentence is about ("" for general
 	// sentences); Part names where it appears ("summary", "block-02").

@@ -84,8 +84,8 @@ block: {style: detail, topics: [position, competition], indicators: [intl]}
 	// Veldra: 36, 44, 50 with 40 placed among them: 3rd of 4, percentile
 	// 100 x 1.5 / 4 = 37.5, third quarter, so neither quarter is named;
 	// its median 44 is ahead of 40.
-	want := "International staff share: At 40.0% in 2025, Arlen University ranks joint 2nd of 5 with two others among our partner universities, in the third quarter. " +
-		"The median of our partner universities is 40.0%, and Arlen University is level with it; it has reached the upper quartile (40.0%).\n" +
+	want := "International staff share: Arlen University stands joint 2nd of 5 with two others among our partner universities at 40.0% in 2025, in the third quarter. " +
+		"That is level with both the group median and the upper quartile (40.0%).\n" +
 		"Competitor systems: Set among the institutions of the Veldra system, Arlen University would sit in the middle half on every indicator here. " +
 		"The median of the Veldra system is ahead on international staff share (44.0% against 40.0%).\n"
 	if got != want {

@@ -52,8 +52,8 @@ func (c *composer) oneCountry(g *figures.Group) (string, bool) {
 func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence {
 	var out []Sentence
 	label := c.w.Indicator(ind)
-	if c.pppConverted(ind) {
-		out = append(out, c.say(ind.Key, c.w.PPP(CaveatFact{Seed: ind.Key, Indicators: []string{label}})))
+	if f, ok := c.pppFact(ind.Key, []dataset.Indicator{ind}); ok {
+		out = append(out, c.say(ind.Key, c.w.PPP(f)))
 	}
 	if judged(ind) && strings.TrimSpace(ind.Judgement) != "" {
 		out = append(out, c.say(ind.Key, c.w.Judgement(CaveatFact{Seed: ind.Key, Indicator: label, Better: ind.Better, Judgement: ind.Judgement})))
@@ -84,9 +84,16 @@ func (c *composer) anyGroup(sc *scope) string {
 	return ""
 }
 
-// pppConverted reports whether a currency indicator was converted with
-// purchasing-power parities.
+// pppConverted reports whether an indicator's amounts are international
+// dollars: a currency indicator converted with purchasing-power parities,
+// or a currency indicator derived from converted amounts (research income
+// per academic from research income). Both carry the same caveat: what
+// they compare is what the money buys (format.InDollars prints them as
+// PPP$ for the same reason).
 func (c *composer) pppConverted(ind dataset.Indicator) bool {
+	if ind.Unit == dataset.UnitCurrency && ind.InternationalDollars {
+		return true
+	}
 	ppp := c.m.Data.PPP
 	if !ind.Currency || ppp == nil {
 		return false
@@ -100,6 +107,29 @@ func (c *composer) pppConverted(ind dataset.Indicator) bool {
 		}
 	}
 	return false
+}
+
+// pppDerived reports whether an indicator in international dollars was
+// computed from converted amounts rather than converted itself (the loader
+// never converts a derived indicator again), so the caveat can say which
+// amounts were converted.
+func (c *composer) pppDerived(ind dataset.Indicator) bool {
+	return c.pppConverted(ind) && ind.Derive != ""
+}
+
+// pppFact sorts the scope's money indicators into those converted and
+// those derived from converted amounts.
+func (c *composer) pppFact(seed string, inds []dataset.Indicator) (CaveatFact, bool) {
+	f := CaveatFact{Seed: seed}
+	for _, ind := range inds {
+		switch {
+		case c.pppDerived(ind):
+			f.Derived = append(f.Derived, c.w.Indicator(ind))
+		case c.pppConverted(ind):
+			f.Indicators = append(f.Indicators, c.w.Indicator(ind))
+		}
+	}
+	return f, len(f.Indicators)+len(f.Derived) > 0
 }
 
 // imputedWords mark a values-file note as saying the value was estimated
@@ -131,14 +161,8 @@ func (c *composer) imputed(ind dataset.Indicator, year int) (string, bool) {
 // all.
 func (c *composer) condensedCaveats(sc *scope) []Sentence {
 	out := c.groupCaveats(sc)
-	var ppp []string
-	for _, ind := range sc.inds {
-		if c.pppConverted(ind) {
-			ppp = append(ppp, c.w.Indicator(ind))
-		}
-	}
-	if len(ppp) > 0 {
-		out = append(out, c.say("", c.w.PPP(CaveatFact{Seed: "ppp", Indicators: ppp})))
+	if f, ok := c.pppFact("ppp", sc.inds); ok {
+		out = append(out, c.say("", c.w.PPP(f)))
 	}
 	for _, ind := range sc.inds {
 		if judged(ind) && strings.TrimSpace(ind.Judgement) != "" {
@@ -168,6 +192,72 @@ func (c *composer) condensedCaveats(sc *scope) []Sentence {
 				f.Indicators = append(f.Indicators, c.w.Indicator(ind))
 				cites = append(cites, distKey(g.Name, ind.Key, sc.year, mN), distKey(g.Name, ind.Key, sc.year, mMissing))
 			}
+			s := c.say("", c.w.LowCoverageList(f), cites...)
+			s.Thresholds = []float64{MinCoverage}
+			out = append(out, s)
+		}
+	}
+	return out
+}
+
+// briefCaveats are the executive summary's caveats: only those particular
+// to its own figures, each in a short sentence: the groups too small for
+// stable quartiles or lying in one country, the money indicators in
+// international dollars, the indicators where lower counts as better (and
+// whether that direction is a value judgement), estimated values and
+// coverage under the floor. The reasons behind each value judgement and
+// the standing cautions are the closing section's, stated there once.
+func (c *composer) briefCaveats(sc *scope) []Sentence {
+	var out []Sentence
+	for _, g := range sc.distinctGroups() {
+		if n := len(g.Members); n > 0 && n < SmallGroup {
+			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
+			s := c.say("", c.w.SmallGroupBrief(f), groupKey(g.Name, mMembers))
+			s.Thresholds = []float64{SmallGroup}
+			out = append(out, s)
+		}
+		if country, ok := c.oneCountry(g); ok {
+			f := CaveatFact{Seed: g.Name, Focus: c.focus, Group: c.phrase(g), Country: country}
+			out = append(out, c.say("", c.w.OneCountry(f), groupKey(g.Name, mMembers)))
+		}
+	}
+	if f, ok := c.pppFact("ppp", sc.inds); ok {
+		f.Indicators = append(f.Indicators, f.Derived...)
+		f.Derived = nil
+		out = append(out, c.say("", c.w.PPPBrief(f)))
+	}
+	var dir DirectionFact
+	for _, ind := range sc.inds {
+		hasReason := judged(ind) && strings.TrimSpace(ind.Judgement) != ""
+		switch {
+		case ind.Better == dataset.LowerIsBetter:
+			dir.Lower = append(dir.Lower, c.w.Indicator(ind))
+			if hasReason {
+				dir.LowerJudged = append(dir.LowerJudged, c.w.Indicator(ind))
+			}
+		case hasReason:
+			dir.HigherJudged = append(dir.HigherJudged, c.w.Indicator(ind))
+		}
+	}
+	if len(dir.Lower)+len(dir.HigherJudged) > 0 {
+		out = append(out, c.say("", c.w.Direction(dir)))
+	}
+	for _, ind := range sc.inds {
+		if note, ok := c.imputed(ind, sc.year); ok {
+			f := CaveatFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind), Year: printYear(sc.year), Note: note}
+			out = append(out, c.say(ind.Key, c.w.Imputed(f), posKey(c.anyGroup(sc), ind.Key, c.m.FocusID, sc.year, mValue)))
+		}
+	}
+	for _, g := range sc.distinctGroups() {
+		f := CaveatFact{Seed: g.Name, Group: c.phrase(g), Year: printYear(sc.year), Threshold: printCount(int(MinCoverage))}
+		var cites []figures.Key
+		for _, ind := range sc.inds {
+			if d, ok := c.m.Distribution(g.Name, ind.Key, sc.year); ok && d.N > 0 && 100*float64(d.N) < MinCoverage*float64(d.N+d.Missing) {
+				f.Indicators = append(f.Indicators, c.w.Indicator(ind))
+				cites = append(cites, distKey(g.Name, ind.Key, sc.year, mN), distKey(g.Name, ind.Key, sc.year, mMissing))
+			}
+		}
+		if len(f.Indicators) > 0 {
 			s := c.say("", c.w.LowCoverageList(f), cites...)
 			s.Thresholds = []float64{MinCoverage}
 			out = append(out, s)

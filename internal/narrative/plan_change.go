@@ -137,11 +137,13 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 	if f.NoiseIQR != "" {
 		cites = append(cites, distKey(g.Name, ind.Key, cd.d1.Year, mIQR))
 	}
+	f.Seed, f.Turn = c.next("change")
 	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...)}
 	if !cd.hasMed || cd.d1.N < 2 {
 		return out
 	}
 	mf := f
+	mf.Seed, mf.Turn = c.next("change-median")
 	if !cd.hasPct {
 		mf.PctFrom, mf.PctTo = "", ""
 	}

@@ -14,6 +14,7 @@ func (c *composer) gap(g *figures.Group, ind dataset.Indicator, year int) []Sent
 	if !ok {
 		return nil
 	}
+	f.Seed, f.Turn = c.next("gap")
 	return []Sentence{c.say(ind.Key, c.w.Gap(f), cites...)}
 }
 
@@ -35,12 +36,11 @@ func (c *composer) gapFact(g *figures.Group, ind dataset.Indicator, year int) (G
 	id := c.m.FocusID
 	f := GapFact{Seed: posKey(g.Name, ind.Key, id, year, mGapBetter).String(), Focus: c.focus, Indicator: c.w.Indicator(ind),
 		Group: c.phrase(g), Better: ind.Better, Target: printValue(ind, t), Value: printValue(ind, p.Value)}
-	cites := []figures.Key{distKey(g.Name, ind.Key, year, targetMeasure(ind))}
+	// The value is cited whether or not a phrasing prints it.
+	cites := []figures.Key{distKey(g.Name, ind.Key, year, targetMeasure(ind)), posKey(g.Name, ind.Key, id, year, mValue)}
 	if p.GapQ3 > 0 && gapAgrees(ind, t, p.Value, p.GapQ3) {
 		f.Amount = printAmount(ind, p.GapQ3)
 		cites = append(cites, posKey(g.Name, ind.Key, id, year, mGapBetter))
-	} else {
-		cites = append(cites, posKey(g.Name, ind.Key, id, year, mValue))
 	}
 	return f, cites, true
 }

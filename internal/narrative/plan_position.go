@@ -61,6 +61,11 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	f.Seed = seed
 	intro := c.part + "\x00" + g.Name
 	f.Introduced = c.introduced[intro]
+	// The brief's year is said once a part, and the value once an
+	// indicator: the next group's sentence places the same value.
+	f.YearSaid = c.said[c.part+"\x00year"+f.Year]
+	f.ValueSaid = c.said[c.part+"\x00value\x00"+ind.Key+"\x00"+f.Year]
+	f.Seed, f.Turn = c.next("position")
 	if p.InGroup && d.N == 1 {
 		return []Sentence{c.say(ind.Key, c.w.Alone(f), posKey(g.Name, ind.Key, id, year, mValue), distKey(g.Name, ind.Key, year, mN))}
 	}
@@ -74,6 +79,8 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 		c.introduced[intro] = true
 	}
 	out := []Sentence{c.say(ind.Key, c.w.Position(f), cites...)}
+	c.said[c.part+"\x00year"+f.Year] = true
+	c.said[c.part+"\x00value\x00"+ind.Key+"\x00"+f.Year] = true
 	dc := []figures.Key{distKey(g.Name, ind.Key, year, mMedian)}
 	if f.MedianDiff != "" {
 		dc = append(dc, posKey(g.Name, ind.Key, id, year, mVsMedian))
@@ -87,6 +94,7 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 			dc = append(dc, posKey(g.Name, ind.Key, id, year, mVsBetter))
 		}
 	}
+	f.Seed, f.Turn = c.next("distance")
 	return append(out, c.say(ind.Key, c.w.Distance(f), dc...))
 }
 
@@ -121,6 +129,7 @@ func (c *composer) positionFact(g *figures.Group, ind dataset.Indicator, p *figu
 		f.Others = p.Ties - 1
 	}
 	f.Last = !f.Banded && !f.Joint && p.Of > 2 && p.Rank == p.Of
+	f.First = !f.Banded && !f.Joint && p.Of > 2 && p.Rank == 1
 	f.MedianDiff = printedDistance(ind, p.Value, d.Median, p.VsMedian)
 	if !judged(ind) {
 		return f
@@ -134,6 +143,7 @@ func (c *composer) positionFact(g *figures.Group, ind dataset.Indicator, p *figu
 		}
 		if f.Reached {
 			f.TargetDiff = printedDistance(ind, p.Value, t, p.VsBetterQuartile)
+			f.TargetLevel = printedCompare(ind, p.Value, t) == Level
 		}
 	}
 	return f

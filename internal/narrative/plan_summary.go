@@ -33,10 +33,12 @@ func (c *composer) placements(sc *scope, g *figures.Group) []placed {
 	return out
 }
 
-// quarters lists the indicators in the best and the worst quarter, the
-// most extreme first, at most OverviewItems of each; more reports a list
-// that was cut.
-func (c *composer) quarters(g *figures.Group, ps []placed) (top, bottom []string, moreTop, moreBottom bool, cites []figures.Key) {
+// quarters lists the indicators in the best and the worst quarter with
+// their percentiles, the most extreme first, at most OverviewItems of
+// each; MoreTop and MoreBottom count those left out of the lists. named
+// records every indicator of both quarters, listed or counted, so the
+// strengths and risks that follow do not repeat them.
+func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, named map[string]bool, cites []figures.Key) {
 	var hi, lo []placed
 	for _, x := range ps {
 		switch x.p.Quartile {
@@ -48,37 +50,51 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (top, bottom []string
 	}
 	sort.SliceStable(hi, func(i, j int) bool { return hi[i].p.Percentile > hi[j].p.Percentile })
 	sort.SliceStable(lo, func(i, j int) bool { return lo[i].p.Percentile < lo[j].p.Percentile })
+	named = map[string]bool{}
+	for _, x := range append(append([]placed(nil), hi...), lo...) {
+		// Counted in "and two other indicators" too: never named again.
+		named[x.ind.Key] = true
+	}
 	if len(hi) > OverviewItems {
-		hi, moreTop = hi[:OverviewItems], true
+		f.MoreTop = len(hi) - OverviewItems
+		hi = hi[:OverviewItems]
 	}
 	if len(lo) > OverviewItems {
-		lo, moreBottom = lo[:OverviewItems], true
+		f.MoreBottom = len(lo) - OverviewItems
+		lo = lo[:OverviewItems]
+	}
+	item := func(x placed) RankedItem {
+		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile),
+			posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mPercentile))
+		return RankedItem{Indicator: c.w.Indicator(x.ind), Percentile: printOrdinalPct(x.p.Percentile), Value: printValue(x.ind, x.p.Value)}
 	}
 	for _, x := range hi {
-		top = append(top, c.w.Indicator(x.ind))
-		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile))
+		f.Top = append(f.Top, item(x))
 	}
 	for _, x := range lo {
-		bottom = append(bottom, c.w.Indicator(x.ind))
-		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile))
+		f.Bottom = append(f.Bottom, item(x))
 	}
-	return top, bottom, moreTop, moreBottom, cites
+	return f, named, cites
 }
 
 // overview says, within the reference group, which indicators are in the
-// top and bottom quarters.
-func (c *composer) overview(sc *scope) []Sentence {
+// top and bottom quarters, with their percentiles. The fact comes back too
+// (nil without a sentence), so the strengths and risks that follow know
+// what it named.
+func (c *composer) overview(sc *scope) ([]Sentence, *OverviewFact) {
 	g := sc.ref
 	if g == nil {
-		return nil
+		return nil, nil
 	}
 	ps := c.placements(sc, g)
 	if len(ps) == 0 {
-		return nil
+		return nil, nil
 	}
-	top, bottom, moreTop, moreBottom, cites := c.quarters(g, ps)
-	f := OverviewFact{Seed: g.Name, Focus: c.focus, Group: c.phrase(g), Top: top, Bottom: bottom, MoreTop: moreTop, MoreBottom: moreBottom}
-	return []Sentence{c.say("", c.w.Overview(f), cites...)}
+	f, named, cites := c.quarters(g, ps)
+	f.Seed, f.Focus, f.Group, f.named = g.Name, c.focus, c.phrase(g), named
+	s := c.say("", c.w.Overview(f), cites...)
+	s.Thresholds = listCounts(f.MoreTop, f.MoreBottom)
+	return []Sentence{s}, &f
 }
 
 // strengthsAndRisks names the indicators furthest above and below the
@@ -86,23 +102,67 @@ func (c *composer) overview(sc *scope) []Sentence {
 // minus 50: how far the focus is from the group's middle in the better
 // direction). An indicator whose percentile prints as 50 is neither.
 //
-// afterOverview says the overview sentence, which names the group, comes
-// just before: the strengths then do not name it again.
-func (c *composer) strengthsAndRisks(sc *scope, afterOverview bool) []Sentence {
+// ov is the overview sentence just before (nil when there is none): the
+// indicators it named are not named again, and the rest above and below
+// the middle go into one sentence that adds to it (Wording.AboveBelow).
+func (c *composer) strengthsAndRisks(sc *scope, ov *OverviewFact) []Sentence {
 	g := sc.ref
 	if g == nil {
 		return nil
 	}
 	up, down := c.rankedLists(sc, g)
+	if ov != nil {
+		up, down = without(up, ov.named), without(down, ov.named)
+		if len(up)+len(down) == 0 {
+			return nil
+		}
+		var fu, fd RankedFact
+		var cites []figures.Key
+		if len(up) > 0 {
+			var k []figures.Key
+			fu, k = c.ranked(g, up)
+			fu.Also = len(ov.Top) > 0
+			cites = append(cites, k...)
+		}
+		if len(down) > 0 {
+			var k []figures.Key
+			fd, k = c.ranked(g, down)
+			fd.Also = len(ov.Bottom) > 0
+			cites = append(cites, k...)
+		}
+		return []Sentence{c.say("", c.w.AboveBelow(fu, fd), cites...)}
+	}
 	var out []Sentence
 	if len(up) > 0 {
 		f, cites := c.ranked(g, up)
-		f.GroupNamed = afterOverview
 		out = append(out, c.say("", c.w.Strengths(f), cites...))
 	}
 	if len(down) > 0 {
 		f, cites := c.ranked(g, down)
 		out = append(out, c.say("", c.w.Risks(f), cites...))
+	}
+	return out
+}
+
+// listCounts declares the counts of indicators a cut list leaves out
+// ("and 12 other indicators") for Verify: they count the sentence's own
+// list, not a figure of the model. Counts under ten are written in words.
+func listCounts(ns ...int) []float64 {
+	var out []float64
+	for _, n := range ns {
+		if n >= 10 {
+			out = append(out, float64(n))
+		}
+	}
+	return out
+}
+
+func without(xs []placed, named map[string]bool) []placed {
+	var out []placed
+	for _, x := range xs {
+		if !named[x.ind.Key] {
+			out = append(out, x)
+		}
 	}
 	return out
 }
@@ -127,7 +187,10 @@ func (c *composer) rankedLists(sc *scope, g *figures.Group) (up, down []placed) 
 
 // riskGaps says what it would take to reach the top quarter on the
 // summary's risks.
-func (c *composer) riskGaps(sc *scope) []Sentence {
+//
+// groupNamed says an earlier sentence of the paragraph has named the
+// group, so the gaps need not.
+func (c *composer) riskGaps(sc *scope, groupNamed bool) []Sentence {
 	if sc.ref == nil {
 		return nil
 	}
@@ -151,6 +214,7 @@ func (c *composer) riskGaps(sc *scope) []Sentence {
 	case 1:
 		return []Sentence{c.say(about[0], c.w.Gap(facts[0]), cites...)}
 	}
+	facts[0].GroupNamed = groupNamed
 	return []Sentence{c.say("", c.w.GapList(facts), cites...)}
 }
 
@@ -170,7 +234,9 @@ func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.
 
 // headline names the judged indicator whose percentile in the reference
 // group moved most over the span.
-func (c *composer) headline(sc *scope) []Sentence {
+//
+// groupNamed says an earlier sentence of the paragraph has named the group.
+func (c *composer) headline(sc *scope, groupNamed bool) []Sentence {
 	g := sc.ref
 	if g == nil {
 		return nil
@@ -194,6 +260,7 @@ func (c *composer) headline(sc *scope) []Sentence {
 		return nil
 	}
 	id := c.m.FocusID
+	best.f.GroupNamed = groupNamed
 	return []Sentence{c.say(bestInd.Key, c.w.Headline(best.f),
 		posKey(g.Name, bestInd.Key, id, best.p0.Year, mPercentile), posKey(g.Name, bestInd.Key, id, best.p1.Year, mPercentile))}
 }

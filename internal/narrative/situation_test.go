@@ -42,10 +42,15 @@ type situation struct {
 		Step    float64 `yaml:"step"`
 	} `yaml:"generated"`
 	// Notes: "id indicator@year" -> note.
-	Notes  map[string]string `yaml:"notes"`
-	PPP    bool              `yaml:"ppp"`
-	Groups yaml.Node         `yaml:"groups"`
-	Block  yaml.Node         `yaml:"block"`
+	Notes map[string]string `yaml:"notes"`
+	PPP   bool              `yaml:"ppp"`
+	// International lists indicators the loader would mark as
+	// international dollars without converting them: currency amounts
+	// derived from converted ones (dataset.Indicator.InternationalDollars
+	// is never read from a dictionary).
+	International []string  `yaml:"international"`
+	Groups        yaml.Node `yaml:"groups"`
+	Block         yaml.Node `yaml:"block"`
 	// Expect is the block's text as render prints it; Summary the
 	// executive summary's.
 	Expect  *string `yaml:"expect"`
@@ -150,6 +155,13 @@ func (s *situation) build(t *testing.T) (*figures.Model, *brief.Brief) {
 				d.PPP.Converted = append(d.PPP.Converted, ind.Key)
 			}
 		}
+	}
+	for _, key := range s.International {
+		k := dict.Index(key)
+		if k < 0 {
+			t.Fatalf("international: %q is not an indicator of the situation", key)
+		}
+		dict.Indicators[k].InternationalDollars = true
 	}
 	var fm strings.Builder
 	fmt.Fprintf(&fm, "---\ntitle: Situation\nfocus: %s\nyear: %d\nyears: [%d, %d]\n", s.Focus, s.Year, years[0], years[len(years)-1])

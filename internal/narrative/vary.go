@@ -27,3 +27,12 @@ func fmix32(h uint32) uint32 {
 	h ^= h >> 16
 	return h
 }
+
+// rotate picks phrasing turn of a series: consecutive turns take
+// consecutive phrasings, from a start the seed chooses.
+func rotate(seed string, turn, n int) int {
+	if n <= 1 {
+		return 0
+	}
+	return (variant(seed, n) + turn) % n
+}

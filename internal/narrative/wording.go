@@ -43,6 +43,9 @@ type Wording interface {
 	Overview(f OverviewFact) string
 	Strengths(f RankedFact) string
 	Risks(f RankedFact) string
+	// AboveBelow follows the overview: the indicators above and below the
+	// group's middle that it has not named (either list may be empty).
+	AboveBelow(up, down RankedFact) string
 	Headline(f ChangeFact) string
 
 	CompetitionPlace(f CompetitionFact) string
@@ -59,15 +62,19 @@ type Wording interface {
 	PPP(f CaveatFact) string
 	Judgement(f CaveatFact) string
 	OneCountry(f CaveatFact) string
+	// SmallGroupBrief, PPPBrief and Direction are the executive
+	// summary's short caveats: a group too small for stable quartiles,
+	// the indicators in international dollars, and which indicators
+	// count lower as better (and whether a direction is a value
+	// judgement).
+	SmallGroupBrief(f CaveatFact) string
+	PPPBrief(f CaveatFact) string
+	Direction(f DirectionFact) string
 	// Association says how two indicators move together across a group;
 	// AssociationTooFew names the pairs with too few members reporting
 	// both to say.
 	Association(f AssociationFact) string
 	AssociationTooFew(f AssociationFact) string
-	// LowerPercentiles explains that percentiles run in the better
-	// direction for the lower-is-better indicators listed.
-	LowerPercentiles(inds []string) string
-	Cautions() string
 }
 
 // WordingFor returns the wording for a brief's language (en-GB, the
@@ -104,9 +111,11 @@ type PositionFact struct {
 	Rank   string
 	Banded bool
 	Joint  bool
-	// Last marks the last place of several (not shared).
-	Last bool
-	Of   string
+	// Last marks the last place of several (not shared), First the first;
+	// the quarter goes without saying then.
+	Last  bool
+	First bool
+	Of    string
 	// Quartile is 1 (best quarter) to 4.
 	Quartile int
 	InGroup  bool
@@ -129,6 +138,13 @@ type PositionFact struct {
 	GapTarget  string
 	TargetDiff string
 	Reached    bool
+	// TargetLevel: reached, and the value prints equal to the threshold.
+	TargetLevel bool
+	// YearSaid: the part has already given the year; ValueSaid: the
+	// sentence before placed the same value in another group.
+	YearSaid, ValueSaid bool
+	// Turn is the sentence's place in its part's series (see rotate).
+	Turn int
 	// Introduced is set once the sentences of a part have said that the
 	// focus is not a member of this group.
 	Introduced bool
@@ -174,6 +190,11 @@ type ChangeFact struct {
 	SizeFrom, SizeTo string
 	// PctDirection is Above when the percentile rose, Below when it fell.
 	PctDirection int
+	// GroupNamed is set when an earlier sentence of the paragraph has
+	// named the group.
+	GroupNamed bool
+	// Turn is the sentence's place in its part's series (see rotate).
+	Turn int
 }
 
 // OverviewFact lists the indicators in the best and worst quarter of the
@@ -182,10 +203,13 @@ type OverviewFact struct {
 	Seed   string
 	Focus  string
 	Group  string
-	Top    []string
-	Bottom []string
-	// MoreTop and MoreBottom mark lists cut to OverviewItems.
-	MoreTop, MoreBottom bool
+	Top    []RankedItem
+	Bottom []RankedItem
+	// MoreTop and MoreBottom count the indicators of each quarter left
+	// out of lists cut to OverviewItems.
+	MoreTop, MoreBottom int
+	// named holds the keys of the indicators the lists name.
+	named map[string]bool
 }
 
 // RankedItem is one strength or risk: an indicator and its percentile.
@@ -202,8 +226,10 @@ type RankedFact struct {
 	Group string
 	Items []RankedItem
 	// GroupNamed is set when the sentence before has just named the
-	// group, so this one need not.
+	// group, so this one need not; Also when it has named other
+	// indicators in the same direction, so this list adds to it.
 	GroupNamed bool
+	Also       bool
 }
 
 // CompetitionFact describes the focus placed inside a competitor system.
@@ -215,6 +241,8 @@ type CompetitionFact struct {
 	InSystem bool
 	Top      []string
 	Bottom   []string
+	// MoreTop and MoreBottom count indicators left out of Top and Bottom.
+	MoreTop, MoreBottom int
 	// Ahead lists the indicators where the system's median is better
 	// than the focus, with both printed values.
 	Ahead []AheadItem
@@ -239,6 +267,11 @@ type GapFact struct {
 	// printed values; Value is the focus's printed value.
 	Amount string
 	Value  string
+	// GroupNamed (on the first fact of a list) is set when an earlier
+	// sentence of the paragraph has named the group.
+	GroupNamed bool
+	// Turn is the sentence's place in its part's series (see rotate).
+	Turn int
 }
 
 // CaveatFact carries what a caveat names.
@@ -255,8 +288,20 @@ type CaveatFact struct {
 	Note      string
 	Judgement string
 	Country   string
-	// Indicators lists indicators a caveat covers together.
+	// Indicators lists indicators a caveat covers together; for PPP, the
+	// converted ones, and Derived those computed from converted amounts.
 	Indicators []string
+	Derived    []string
+}
+
+// DirectionFact lists, for the executive summary, the indicators on which
+// lower counts as better (LowerJudged: those of them whose direction the
+// dictionary calls a value judgement) and the higher-is-better indicators
+// whose direction is one.
+type DirectionFact struct {
+	Lower        []string
+	LowerJudged  []string
+	HigherJudged []string
 }
 
 // AssociationFact is how two indicators move together across a group's

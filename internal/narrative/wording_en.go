@@ -101,7 +101,7 @@ var englishHeadings = map[string]string{
 	"strengths":   "Strengths and risks",
 	"competition": "Competitor systems",
 	"gaps":        "Gaps",
-	"caveats":     "Reading these figures",
+	"caveats":     "Caveats",
 	"association": "How indicators move together",
 }
 
@@ -176,28 +176,50 @@ func (english) quarter(better dataset.Polarity, q int) string {
 
 // Position: value, rank of n and quartile in a group. The sentence always
 // follows the indicator's run-in heading, so it does not name the indicator
-// again.
+// again; it gives the year only the first time in a part, the value only
+// the first time for an indicator, and no quarter for a first or last
+// place, which says it already.
 func (e english) Position(f PositionFact) string {
-	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "in", e.in(f.Group),
-		"value", f.Value, "year", f.Year, "rank", e.rank(f), "quarter", e.quarter(f.Better, f.Quartile), "members", f.Members}
-	if !f.InGroup && !f.Introduced {
-		if f.Members == "1" {
-			return e.fill("{focus} is not a member of {group}; placed beside its one member that reports {ind}, its {value} in {year} would rank {rank}, {quarter}.", kv...)
+	q := ""
+	if !f.Last && !f.First {
+		if w := e.quarter(f.Better, f.Quartile); w != "" {
+			q = ", " + w
 		}
-		return e.fill("{focus} is not a member of {group}; placed among the {members} members that report {ind}, its {value} in {year} would rank {rank}, {quarter}.", kv...)
 	}
-	if !f.InGroup {
-		return e.fill("Set against {group}, {focus} would rank {rank} at {value} in {year}, {quarter}.", kv...)
+	inYear := " in " + f.Year
+	if f.YearSaid {
+		inYear = ""
+	}
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "in", e.in(f.Group),
+		"value", f.Value, "inYear", inYear, "rank", e.rank(f), "q", q, "members", f.Members}
+	switch {
+	case !f.InGroup && !f.Introduced:
+		its := "its {value}{inYear}"
+		if f.ValueSaid {
+			its = "it"
+		}
+		if f.Members == "1" {
+			return e.fill("{focus} is not a member of {group}; placed beside its one member that reports {ind}, "+its+" would rank {rank}{q}.", kv...)
+		}
+		return e.fill("{focus} is not a member of {group}; placed among the {members} members that report {ind}, "+its+" would rank {rank}{q}.", kv...)
+	case !f.InGroup && f.ValueSaid:
+		return e.fill("Set against {group}, it would rank {rank}{q}.", kv...)
+	case !f.InGroup:
+		return e.fill("Set against {group}, {focus} would rank {rank} at {value}{inYear}{q}.", kv...)
+	case f.ValueSaid:
+		return e.fill("{in} it ranks {rank}{q}.", kv...)
 	}
 	tmpl := [...]string{
-		"At {value} in {year}, {focus} ranks {rank} {in}, {quarter}.",
-		"{focus} ranks {rank} {in} ({value} in {year}), {quarter}.",
-		"{focus} stands {rank} {in} at {value} in {year}, {quarter}.",
+		"At {value}{inYear}, {focus} ranks {rank} {in}{q}.",
+		"{focus} ranks {rank} {in} ({value}{inYear}){q}.",
+		"{focus} stands {rank} {in} at {value}{inYear}{q}.",
 	}
-	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }
 
-// Distance: how far from the median and the top-quarter threshold.
+// Distance: how far from the median and from the top-quarter threshold
+// (the upper quartile, or the lower one when lower is better), joined by
+// "but" when the two point different ways.
 func (e english) Distance(f PositionFact) string {
 	rel := "level with"
 	switch {
@@ -210,41 +232,57 @@ func (e english) Distance(f PositionFact) string {
 	case f.VsMedian == Below:
 		rel = "below"
 	}
+	lower := f.Better == dataset.LowerIsBetter
+	favourable := (f.VsMedian == Above && !lower) || (f.VsMedian == Below && lower)
 	tail := ""
-	if f.Better == dataset.LowerIsBetter && f.VsMedian != Level {
-		if f.VsMedian == Below {
-			tail = ", which is favourable as lower is better here"
+	if lower && f.VsMedian != Level {
+		if favourable {
+			tail = " (favourable, as lower is better here)"
 		} else {
-			tail = ", which is unfavourable as lower is better here"
+			tail = " (unfavourable, as lower is better here)"
 		}
 	}
 	target := ""
 	if f.Better != dataset.Neutral && f.Target != "" {
-		q := "upper quartile"
-		if f.Better == dataset.LowerIsBetter {
-			q = "lower quartile"
-		}
-		beyond := "above"
-		if f.Better == dataset.LowerIsBetter {
-			beyond = "below"
+		q, beyond := "upper quartile", "above"
+		if lower {
+			q, beyond = "lower quartile", "below"
 		}
 		switch {
+		case f.Reached && f.TargetLevel:
+			target = "level with the " + q + " ({target})"
 		case f.Reached && f.TargetDiff != "":
-			target = "; it is " + f.TargetDiff + " " + beyond + " the " + q + " ({target})"
+			target = f.TargetDiff + " " + beyond + " the " + q + " ({target})"
 		case f.Reached:
-			target = "; it has reached the " + q + " ({target})"
+			target = beyond + " the " + q + " ({target})"
+		case lower && f.GapTarget != "":
+			target = f.GapTarget + " above the " + q + " ({target})"
+		case lower:
+			target = "above the " + q + " ({target})"
 		case f.GapTarget != "":
-			target = "; it is " + f.GapTarget + " short of the " + q + " ({target})"
+			target = f.GapTarget + " short of the " + q + " ({target})"
 		default:
-			target = "; it is short of the " + q + " ({target})"
+			target = "short of the " + q + " ({target})"
 		}
+		conj := ", and "
+		if f.VsMedian != Level && favourable != f.Reached {
+			conj = ", but "
+		}
+		target = conj + target
 	}
 	kv := []string{"focus", f.Focus, "group", f.Group, "median", f.Median, "target", f.Target, "rel", rel}
+	if f.VsMedian == Level && f.TargetLevel && f.Median == f.Target {
+		q := "upper quartile"
+		if lower {
+			q = "lower quartile"
+		}
+		return e.fill("That is level with both the group median and the "+q+" ({median}).", kv...)
+	}
 	tmpl := [...]string{
 		"That is {rel} the group median of {median}" + tail + target + ".",
-		"The median of {group} is {median}, and {focus} is {rel} it" + tail + target + ".",
+		"The median of {group} is {median}; {focus} is {rel} it" + tail + target + ".",
 	}
-	return e.fill(tmpl[variant(f.Seed+"/distance", len(tmpl))], kv...)
+	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }
 
 // FocusMissing: the focus reports no value.
@@ -297,14 +335,25 @@ func (e english) Change(f ChangeFact) string {
 	if f.Direction == Below {
 		verb, verbed, noun = "fallen", "fell", "a fall"
 	}
+	// Where lower is better, a reader should not have to work out that a
+	// fall is good news.
+	judge := ""
+	if f.Better == dataset.LowerIsBetter {
+		if f.Direction == Below {
+			judge = " (favourable, as lower is better here)"
+		} else {
+			judge = " (unfavourable, as lower is better here)"
+		}
+	}
 	if f.Diff == "" {
-		return e.fill("Since {fromYear}, {focus's} figure has "+verb+" from {from} to {to}.", kv...)
+		return e.fill("Since {fromYear}, {focus's} figure has "+verb+" from {from} to {to}"+judge+".", kv...)
 	}
 	tmpl := [...]string{
-		"Since {fromYear}, {focus's} figure has " + verb + " from {from} to {to}, " + noun + " of {diff}.",
-		"{focus's} figure " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}.",
+		"Since {fromYear}, {focus's} figure has " + verb + " from {from} to {to}, " + noun + " of {diff}" + judge + ".",
+		"{focus's} figure " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}" + judge + ".",
+		"Between {fromYear} and {toYear}, {focus} went from {from} to {to}, " + noun + " of {diff}" + judge + ".",
 	}
-	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }
 
 // ChangeMedian: the group median's movement and what it meant for the
@@ -333,9 +382,11 @@ func (e english) ChangeMedian(f ChangeFact) string {
 	case f.Better == dataset.Neutral:
 		tail = ", leaving {focus} at the {pt} percentile"
 	case f.PctDirection == Above:
-		tail = ", so {focus} gained ground, from the {pf} to the {pt} percentile"
+		verbs := [...]string{"gained ground, from", "moved up from", "climbed from"}
+		tail = ", and {focus} " + verbs[rotate(f.Seed+"/tail", f.Turn, len(verbs))] + " the {pf} to the {pt} percentile"
 	case f.PctDirection == Below:
-		tail = ", so {focus} lost ground, from the {pf} to the {pt} percentile"
+		verbs := [...]string{"lost ground, from", "slipped from", "dropped from"}
+		tail = ", and {focus} " + verbs[rotate(f.Seed+"/tail", f.Turn, len(verbs))] + " the {pf} to the {pt} percentile"
 	case f.PctFrom == f.PctTo:
 		tail = ", and {focus} held its place at the {pt} percentile"
 	default:
@@ -346,7 +397,7 @@ func (e english) ChangeMedian(f ChangeFact) string {
 		"Over the same years the median of {group} " + moved + tail + ".",
 		"{group's} median " + moved + " over the period" + tail + ".",
 	}
-	return e.fill(tmpl[variant(f.Seed+"/median", len(tmpl))], kv...)
+	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }
 
 // ChangeMissing: no value at the start, so no change.
@@ -369,38 +420,47 @@ func (e english) ChangePercentile(f ChangeFact) string {
 		"focus", f.Focus, "group", f.Group, "sf", f.SizeFrom, "st", f.SizeTo, "pf", f.PctFrom, "pt", f.PctTo)
 }
 
-// Overview: which indicators are in the best and worst quarter.
+// Overview: which indicators are in the best and worst quarter, with
+// their percentiles; a list cut short ends "and two other indicators".
 func (e english) Overview(f OverviewFact) string {
-	top, bottom := e.List(f.Top), e.List(f.Bottom)
-	if f.MoreTop {
-		top = strings.Join(f.Top, ", ") + ", among others"
-	}
-	if f.MoreBottom {
-		bottom = strings.Join(f.Bottom, ", ") + ", among others"
-	}
+	top := e.rankedMore(f.Top, f.MoreTop, true)
+	bottom := e.rankedMore(f.Bottom, f.MoreBottom, len(f.Top) == 0)
 	kv := []string{"focus", f.Focus, "group", f.Group, "top", top, "bottom", bottom}
 	switch {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
 		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
 	case len(f.Top) > 0:
-		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on none.", kv...)
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, with no indicator in the bottom quarter.", kv...)
 	case len(f.Bottom) > 0:
-		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, and in the top quarter on none.", kv...)
+		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, with no indicator in the top quarter.", kv...)
 	}
 	return e.fill("Within {group}, {focus} sits in the middle half on every indicator, in neither the top nor the bottom quarter.", kv...)
 }
 
-func (e english) ranked(items []RankedItem) string {
+// listMore lists items and, when a list was cut, how many it left out:
+// "a, b, c and two other indicators".
+func (e english) listMore(items []string, more int) string {
+	if more > 0 {
+		items = append(append([]string(nil), items...), countWords(more, "other indicator", "other indicators"))
+	}
+	return e.List(items)
+}
+
+// ranked lists indicators with their percentiles, the first with the word
+// "percentile" when word is set: "a (88th percentile), b (80th) and c (76th)".
+func (e english) rankedMore(items []RankedItem, more int, word bool) string {
 	parts := make([]string, len(items))
 	for i, it := range items {
-		if i == 0 {
+		if i == 0 && word {
 			parts[i] = it.Indicator + " (" + it.Percentile + " percentile)"
 		} else {
 			parts[i] = it.Indicator + " (" + it.Percentile + ")"
 		}
 	}
-	return e.List(parts)
+	return e.listMore(parts, more)
 }
+
+func (e english) ranked(items []RankedItem) string { return e.rankedMore(items, 0, true) }
 
 // Strengths: the indicators furthest above the group.
 func (e english) Strengths(f RankedFact) string {
@@ -434,22 +494,45 @@ func (e english) Risks(f RankedFact) string {
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], "items", e.ranked(f.Items))
 }
 
+// AboveBelow: after the overview, the rest of the indicators above and
+// below the middle of the group, in one sentence.
+func (e english) AboveBelow(up, down RankedFact) string {
+	also := func(f RankedFact) string {
+		if f.Also {
+			return "also "
+		}
+		return ""
+	}
+	kv := []string{"up", e.ranked(up.Items), "down", e.rankedMore(down.Items, 0, len(up.Items) == 0)}
+	switch {
+	case len(up.Items) > 0 && len(down.Items) > 0:
+		return e.fill("It is "+also(up)+"above the middle of the group on {up}, and below it on {down}.", kv...)
+	case len(up.Items) > 0:
+		return e.fill("It is "+also(up)+"above the middle of the group on {up}.", kv...)
+	}
+	return e.fill("It is "+also(down)+"below the middle of the group on {down}.", kv...)
+}
+
 // Headline: the largest movement of the span.
 func (e english) Headline(f ChangeFact) string {
 	verb := "moved"
 	if f.Better != dataset.Neutral {
-		verb = "improved"
+		verb = "rose"
 		if f.PctDirection == Below {
-			verb = "slipped"
+			verb = "fell"
 		}
 	}
-	return e.fill("The largest movement between {fromYear} and {toYear} is in {ind}, where {focus} "+verb+" from the {pf} to the {pt} percentile of {group}.",
+	of := " of {group}"
+	if f.GroupNamed {
+		of = ""
+	}
+	return e.fill("The largest movement between {fromYear} and {toYear} was in {ind}, where {focus} "+verb+" from the {pf} to the {pt} percentile"+of+".",
 		"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "fromYear", f.FromYear, "toYear", f.ToYear, "pf", f.PctFrom, "pt", f.PctTo)
 }
 
 // CompetitionPlace: where the focus would sit inside a competitor system.
 func (e english) CompetitionPlace(f CompetitionFact) string {
-	kv := []string{"focus", f.Focus, "system", f.System, "top", e.List(f.Top), "bottom", e.List(f.Bottom)}
+	kv := []string{"focus", f.Focus, "system", f.System, "top", e.listMore(f.Top, f.MoreTop), "bottom", e.listMore(f.Bottom, f.MoreBottom)}
 	// Several systems follow one another in a pack: the opening varies
 	// with the system so five paragraphs do not start alike.
 	leads := [...]string{"Placed among the institutions of {system}, {focus} would", "Were it one of the institutions of {system}, {focus} would", "Set among the institutions of {system}, {focus} would"}
@@ -461,9 +544,9 @@ func (e english) CompetitionPlace(f CompetitionFact) string {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
 		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
 	case len(f.Top) > 0:
-		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on none.", kv...)
+		return e.fill(lead+be+" in the top quarter on {top}, with none of these indicators in the bottom quarter.", kv...)
 	case len(f.Bottom) > 0:
-		return e.fill(lead+be+" in the bottom quarter on {bottom}, and in the top quarter on none.", kv...)
+		return e.fill(lead+be+" in the bottom quarter on {bottom}, with none of these indicators in the top quarter.", kv...)
 	}
 	return e.fill(lead+sit+" in the middle half on every indicator here.", kv...)
 }
@@ -495,19 +578,19 @@ func (e english) Gap(f GapFact) string {
 	if f.Better == dataset.LowerIsBetter {
 		q, change = "lower quartile", "a reduction"
 	}
-	kv := []string{"focus", f.Focus, "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value}
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value}
 	if f.Amount == "" {
-		return e.fill("Reaching the "+q+" of {group} would take {focus's} figure from {value} to {target}.", append(kv, "focus's", possessive(f.Focus))...)
+		return e.fill("Reaching the "+q+" of {group} would take {focus's} figure from {value} to {target}.", kv...)
 	}
 	tmpl := [...]string{
 		"Reaching the " + q + " of {group} ({target}) would take " + change + " of {amount}.",
-		"To reach the top quarter of {group}, {focus} would need " + change + " of {amount}, to {target}.",
 		"{focus} would need " + change + " of {amount} to reach the " + q + " of {group} ({target}).",
+		"The top quarter of {group} starts at {target}, " + change + " of {amount} from {focus's} {value}.",
 	}
-	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }
 
-// GapList: the gaps of several indicators in one sentence.
+// GapList: the gaps of the summary's weakest indicators in one sentence.
 func (e english) GapList(fs []GapFact) string {
 	parts := make([]string, len(fs))
 	for i, f := range fs {
@@ -521,7 +604,11 @@ func (e english) GapList(fs []GapFact) string {
 			parts[i] = change + " of " + f.Amount + " in " + f.Indicator + " (to " + f.Target + ")"
 		}
 	}
-	return e.fill("Reaching the top quarter of {group} would take {items}.", "group", fs[0].Group, "items", e.List(parts))
+	tmpl := "Reaching the top quarter of {group} on {focus's} {n} weakest indicators would take {items}."
+	if fs[0].GroupNamed {
+		tmpl = "Reaching the top quarter on its {n} weakest indicators would take {items}."
+	}
+	return e.fill(tmpl, "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
 }
 
 // SmallGroup: fewer members than quartiles can bear.
@@ -549,10 +636,18 @@ func (e english) Imputed(f CaveatFact) string {
 		"focus's", possessive(f.Focus), "ind", f.Indicator, "year", f.Year, "note", strings.TrimRight(f.Note, ". "))
 }
 
-// PPP: currency converted with purchasing-power parities.
+// PPP: currency converted with purchasing-power parities, and amounts
+// computed from converted ones.
 func (e english) PPP(f CaveatFact) string {
-	return e.fill("Figures for {list} are converted from each country's currency with purchasing-power parity factors for each year, so they compare what the money buys rather than exchange-rate amounts.",
-		"list", e.List(f.Indicators))
+	const why = "so they compare what the money buys rather than exchange-rate amounts."
+	conv, der := e.List(f.Indicators), e.List(f.Derived)
+	switch {
+	case len(f.Derived) == 0:
+		return e.fill("Figures for {conv} are converted from each country's currency with purchasing-power parity factors for each year, "+why, "conv", conv)
+	case len(f.Indicators) == 0:
+		return e.fill("Figures for {der} are computed from amounts converted from each country's currency with purchasing-power parity factors for each year, "+why, "der", der)
+	}
+	return e.fill("Figures for {conv} are converted from each country's currency with purchasing-power parity factors for each year, and those for {der} are computed from the converted amounts, "+why, "conv", conv, "der", der)
 }
 
 // LowCoverageList: several indicators of one group under the coverage
@@ -603,15 +698,58 @@ func (e english) OneCountry(f CaveatFact) string {
 		"group", f.Group, "country", f.Country, "focus", f.Focus)
 }
 
-// LowerPercentiles: percentiles run in the better direction.
-func (e english) LowerPercentiles(inds []string) string {
-	return e.fill("Percentiles run in the better direction: on {list}, where lower is better, a high percentile means a lower figure than most of the group.",
-		"list", e.List(inds))
+// SmallGroupBrief: the summary's short small-group caveat.
+func (e english) SmallGroupBrief(f CaveatFact) string {
+	return e.fill("Quartiles {in} rest on only {n} {members}, too few to be stable (common practice asks for at least {threshold}).",
+		"in", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
 }
 
-// Cautions: what every pack says about its figures.
-func (e english) Cautions() string {
-	return e.fill("Ranks and percentiles depend on which institutions report and on how each indicator is defined; which indicators are shown and which direction counts as better are choices, not facts; small differences are within the uncertainty of the data; and the figures do not measure everything a university does.")
+// PPPBrief: the summary's short PPP caveat.
+func (e english) PPPBrief(f CaveatFact) string {
+	verb := "are"
+	if len(f.Indicators) == 1 {
+		verb = "is"
+	}
+	if len(f.Indicators) > 3 {
+		return e.fill("The {n} money indicators ({list}) are in international dollars at purchasing-power parity.",
+			"n", smallNumberWord(len(f.Indicators)), "list", e.List(f.Indicators))
+	}
+	return e.fill("{list} "+verb+" in international dollars at purchasing-power parity.", "list", e.List(f.Indicators))
+}
+
+// Direction: where lower counts as better, and which directions are value
+// judgements, in one sentence.
+func (e english) Direction(f DirectionFact) string {
+	var parts []string
+	judgementSaid := false
+	if len(f.Lower) > 0 {
+		s := "on {lower}, lower counts as better"
+		if len(f.LowerJudged) == len(f.Lower) {
+			s += " (itself a value judgement)"
+			judgementSaid = true
+		}
+		parts = append(parts, s+", so a high percentile there means a low figure")
+		if n := len(f.LowerJudged); n > 0 && n < len(f.Lower) {
+			parts = append(parts, "for {lowerJudged} that direction is a value judgement")
+			judgementSaid = true
+		}
+	}
+	if len(f.HigherJudged) > 0 {
+		if judgementSaid {
+			parts = append(parts, "counting higher values of {higher} as better is one too")
+		} else {
+			parts = append(parts, "counting higher values of {higher} as better is a value judgement")
+		}
+	}
+	return e.fill(strings.Join(parts, "; ")+".", "lower", e.List(f.Lower), "lowerJudged", e.List(f.LowerJudged), "higher", e.List(f.HigherJudged))
+}
+
+// smallNumberWord writes one to nine in words, larger counts in digits.
+func smallNumberWord(n int) string {
+	if n > 0 && n < len(smallNumbers) {
+		return smallNumbers[n]
+	}
+	return printCount(n)
 }
 
 // Association: two indicators across a group's members, never as cause.

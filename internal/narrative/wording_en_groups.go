@@ -38,6 +38,7 @@ var commonGroupWords = map[string]bool{
 	"benchmark": true, "mission": true, "university": true, "universities": true, "institutions": true,
 	"comparator": true, "comparators": true, "founding": true, "partner": true, "partners": true,
 	"strategic": true, "key": true, "target": true, "leading": true, "reference": true, "new": true,
+	"agreed": true, "aspirant": true, "closest": true, "direct": true, "agreed-upon": true, "named": true,
 }
 
 // groupDeterminers open a name that needs no article of its own.

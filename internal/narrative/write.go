@@ -14,22 +14,28 @@ func (c *composer) write(sc *scope) []Paragraph {
 	return c.writeDetail(sc)
 }
 
-// writeSummary: the overall position, strengths and risks, the headline
-// movement, then the caveats that matter most. The executive summary adds
-// the pack's standing cautions.
+// writeSummary: the overall position, strengths and risks, the gaps that
+// would close the risks, the headline movement, then the caveats that
+// matter most. The executive summary keeps to the short caveats of its own
+// figures; the standing cautions are the closing section's.
 func (c *composer) writeSummary(sc *scope) []Paragraph {
 	var main []Sentence
+	var ov *OverviewFact
 	if sc.has("position") {
-		main = append(main, c.overview(sc)...)
+		var s []Sentence
+		s, ov = c.overview(sc)
+		main = append(main, s...)
 	}
 	if sc.has("strengths") {
-		main = append(main, c.strengthsAndRisks(sc, sc.has("position"))...)
+		main = append(main, c.strengthsAndRisks(sc, ov)...)
+	}
+	// The gaps follow the risks they close; the group is named by then
+	// whenever a sentence came before.
+	if sc.has("gaps") {
+		main = append(main, c.riskGaps(sc, len(main) > 0)...)
 	}
 	if sc.has("change") {
-		main = append(main, c.headline(sc)...)
-	}
-	if sc.has("gaps") {
-		main = append(main, c.riskGaps(sc)...)
+		main = append(main, c.headline(sc, len(main) > 0)...)
 	}
 	var out []Paragraph
 	if len(main) > 0 {
@@ -39,7 +45,8 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 	if sc.has("competition") {
 		var comp []Sentence
 		for _, g := range sc.systems {
-			comp = append(comp, c.competition(sc, g)...)
+			// The overview has just placed the focus in its own system.
+			comp = append(comp, c.competition(sc, g, sc.has("position") && g == sc.ref)...)
 		}
 		if len(comp) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("competition"), Sentences: comp})
@@ -48,16 +55,11 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 	if sc.has("caveats") {
 		cav := c.condensedCaveats(sc)
 		if sc.executive {
-			var lower []string
-			for _, ind := range sc.inds {
-				if ind.Better == dataset.LowerIsBetter {
-					lower = append(lower, c.w.Indicator(ind))
-				}
-			}
-			if len(lower) > 0 {
-				cav = append(cav, c.say("", c.w.LowerPercentiles(lower)))
-			}
-			cav = append(cav, c.say("", c.w.Cautions()))
+			// The standing cautions (coverage, value judgements,
+			// uncertainty, what is not measured) are the closing
+			// section's, set once; the summary keeps only what is
+			// particular to its own figures, briefly.
+			cav = c.briefCaveats(sc)
 		}
 		if len(cav) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("caveats"), Sentences: cav})
@@ -66,14 +68,20 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 	return out
 }
 
+// overviewAndStrengths: the quarters overview, then the strengths and
+// risks it has not named.
+func (c *composer) overviewAndStrengths(sc *scope) []Sentence {
+	s, ov := c.overview(sc)
+	return append(s, c.strengthsAndRisks(sc, ov)...)
+}
+
 // writeDetail: one paragraph per indicator (positions in every group, the
 // change, the gap, the indicator's caveats), then the competitor systems
 // and the group caveats.
 func (c *composer) writeDetail(sc *scope) []Paragraph {
 	var out []Paragraph
 	if sc.has("strengths") {
-		s := append(c.overview(sc), c.strengthsAndRisks(sc, true)...)
-		if len(s) > 0 {
+		if s := c.overviewAndStrengths(sc); len(s) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("strengths"), Sentences: s})
 		}
 	}
@@ -90,7 +98,7 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 	if sc.has("competition") && len(sc.systems) > 0 {
 		var comp []Sentence
 		for _, g := range sc.systems {
-			comp = append(comp, c.competition(sc, g)...)
+			comp = append(comp, c.competition(sc, g, false)...)
 		}
 		if len(comp) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("competition"), Sentences: comp})
@@ -137,7 +145,7 @@ func (c *composer) indicatorSentences(sc *scope, ind dataset.Indicator) []Senten
 func (c *composer) writeBullets(sc *scope) []Paragraph {
 	var out []Paragraph
 	if sc.has("strengths") {
-		for _, s := range append(c.overview(sc), c.strengthsAndRisks(sc, true)...) {
+		for _, s := range c.overviewAndStrengths(sc) {
 			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})
 		}
 	}
@@ -174,7 +182,7 @@ func (c *composer) writeBullets(sc *scope) []Paragraph {
 	}
 	if sc.has("competition") {
 		for _, g := range sc.systems {
-			if s := c.competition(sc, g); len(s) > 0 {
+			if s := c.competition(sc, g, false); len(s) > 0 {
 				out = append(out, Paragraph{Bullet: true, Sentences: s})
 			}
 		}

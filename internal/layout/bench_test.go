@@ -12,7 +12,11 @@ import (
 
 // benchBrief is the fixture brief's front matter with a body of 25 charts
 // in 5 sections, tables and text: a pack of about 30 pages.
-func benchBrief(t testing.TB) []byte {
+func benchBrief(t testing.TB) []byte { return benchBriefSections(t, 5) }
+
+// benchBriefSections is benchBrief with the given number of sections of
+// five charts each (about six pages a section).
+func benchBriefSections(t testing.TB, sections int) []byte {
 	src, err := os.ReadFile(filepath.Join(fixtureDir, "brief.md"))
 	if err != nil {
 		t.Fatal(err)
@@ -24,7 +28,7 @@ func benchBrief(t testing.TB) []byte {
 		"impact stands at {=value fwci}, {=rank fwci} in Valmoria, against a median of {=median fwci in Valmoria}. "
 	inds := []string{"fwci", "intl_staff", "students_per_academic", "income"}
 	n := 0
-	for s := 1; s <= 5; s++ {
+	for s := 1; s <= sections; s++ {
 		fmt.Fprintf(&b, "\n# Section %d\n\n%s%s\n\n%s%s%s\n\n", s, text, text, text, text, text)
 		for c := 0; c < 5; c++ {
 			n++
@@ -77,5 +81,30 @@ func BenchmarkRender30Pages(b *testing.B) {
 	b.ReportMetric(float64(bytes.Count(out, []byte("/Type /Page\n"))), "pages")
 	if dir := os.Getenv("PEERPACK_SAMPLE_DIR"); dir != "" {
 		_ = os.WriteFile(filepath.Join(dir, "bench.pdf"), out, 0o644)
+	}
+}
+
+// BenchmarkRenderScaling lays out packs of 2, 5 and 10 sections (about 12,
+// 30 and 60 pages): the time per page should stay flat, cost linear in
+// pages.
+//
+//	go test ./internal/layout -run '^$' -bench RenderScaling -benchtime 3x
+func BenchmarkRenderScaling(b *testing.B) {
+	for _, sections := range []int{2, 5, 10} {
+		b.Run(fmt.Sprintf("sections=%d", sections), func(b *testing.B) {
+			in := fixtureInputFrom(b, 1000, benchBriefSections(b, sections))
+			var out []byte
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				var err error
+				if out, err = Render(in); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.StopTimer()
+			pages := float64(bytes.Count(out, []byte("/Type /Page\n")))
+			b.ReportMetric(pages, "pages")
+			b.ReportMetric(float64(b.Elapsed().Milliseconds())/float64(b.N)/pages, "ms/page")
+		})
 	}
 }

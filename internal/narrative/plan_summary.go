@@ -55,11 +55,13 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 		// Counted in "and two other indicators" too: never named again.
 		named[x.ind.Key] = true
 	}
-	if len(hi) > OverviewItems {
+	// A list one longer than the cap is given whole: "and one other
+	// indicator" would take as many words as naming it.
+	if len(hi) > OverviewItems+1 {
 		f.MoreTop = len(hi) - OverviewItems
 		hi = hi[:OverviewItems]
 	}
-	if len(lo) > OverviewItems {
+	if len(lo) > OverviewItems+1 {
 		f.MoreBottom = len(lo) - OverviewItems
 		lo = lo[:OverviewItems]
 	}
@@ -199,23 +201,25 @@ func (c *composer) riskGaps(sc *scope, groupNamed bool) []Sentence {
 		down = down[:SummaryItems]
 	}
 	var facts []GapFact
-	var about []string
 	var cites []figures.Key
+	about := ""
 	for _, x := range down {
 		if f, k, ok := c.gapFact(sc.ref, x.ind, sc.year); ok {
 			facts = append(facts, f)
-			about = append(about, x.ind.Key)
+			about = x.ind.Key
 			cites = append(cites, k...)
 		}
 	}
-	switch len(facts) {
-	case 0:
+	if len(facts) == 0 {
 		return nil
-	case 1:
-		return []Sentence{c.say(about[0], c.w.Gap(facts[0]), cites...)}
 	}
+	if len(facts) > 1 {
+		about = ""
+	}
+	// Even one gap goes through GapList: in a summary there is no run-in
+	// heading to name the indicator, so the sentence must.
 	facts[0].GroupNamed = groupNamed
-	return []Sentence{c.say("", c.w.GapList(facts), cites...)}
+	return []Sentence{c.say(about, c.w.GapList(facts), cites...)}
 }
 
 func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.Key) {

@@ -590,7 +590,8 @@ func (e english) Gap(f GapFact) string {
 	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }
 
-// GapList: the gaps of the summary's weakest indicators in one sentence.
+// GapList: the gaps of the summary's weakest indicators (one or more) in
+// one sentence that names each indicator.
 func (e english) GapList(fs []GapFact) string {
 	parts := make([]string, len(fs))
 	for i, f := range fs {
@@ -607,6 +608,12 @@ func (e english) GapList(fs []GapFact) string {
 	tmpl := "Reaching the top quarter of {group} on {focus's} {n} weakest indicators would take {items}."
 	if fs[0].GroupNamed {
 		tmpl = "Reaching the top quarter on its {n} weakest indicators would take {items}."
+	}
+	if len(fs) == 1 {
+		tmpl = "Reaching the top quarter of {group} on {focus's} weakest indicator would take {items}."
+		if fs[0].GroupNamed {
+			tmpl = "Reaching the top quarter on its weakest indicator would take {items}."
+		}
 	}
 	return e.fill(tmpl, "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
 }

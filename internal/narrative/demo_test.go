@@ -99,3 +99,50 @@ func BenchmarkComposeDemo(b *testing.B) {
 		}
 	}
 }
+
+// The demo's executive summary (its first summary block) names the
+// per-academic incomes, which are derived from converted money, so it
+// must say they are in international dollars; it keeps to caveats of its
+// own figures and leaves the standing cautions to the closing section.
+func TestDemoSummaryCaveats(t *testing.T) {
+	m, b := demoModel(t)
+	c, err := narrative.Compose(m, b)
+	if err != nil {
+		t.Fatalf("Compose: %v", err)
+	}
+	var first *brief.CommentaryBlock
+	for _, blk := range b.Blocks {
+		if cb, ok := blk.(*brief.CommentaryBlock); ok && cb.Style == "summary" {
+			first = cb
+			break
+		}
+	}
+	if first == nil {
+		t.Fatal("the demo brief has no summary block")
+	}
+	var caveats string
+	for _, p := range c.Blocks[first] {
+		if p.Heading == "Caveats" {
+			caveats = p.Text()
+		}
+		if p.Heading == "Reading these figures" {
+			t.Errorf("the summary's caveats take the title of the brief's own section: %q", p.Text())
+		}
+	}
+	for _, want := range []string{
+		"Research income per academic and industry income per academic are in international dollars at purchasing-power parity.",
+		"On students per academic, lower counts as better (itself a value judgement)",
+	} {
+		if !strings.Contains(caveats, want) {
+			t.Errorf("summary caveats lack %q:\n%s", want, caveats)
+		}
+	}
+	for _, standing := range []string{"do not measure everything", "within the uncertainty", "choices, not facts"} {
+		if strings.Contains(caveats, standing) {
+			t.Errorf("summary caveats repeat the standing caution %q:\n%s", standing, caveats)
+		}
+	}
+	if n := strings.Count(caveats, ". "); n > 1 {
+		t.Errorf("summary caveats run to %d sentences, want one or two:\n%s", n+1, caveats)
+	}
+}

@@ -118,21 +118,25 @@ func (c *composer) strengthsAndRisks(sc *scope, ov *OverviewFact) []Sentence {
 		if len(up)+len(down) == 0 {
 			return nil
 		}
+		// These lists read as complete, so what SummaryItems leaves out
+		// is counted ("and two other indicators").
 		var fu, fd RankedFact
 		var cites []figures.Key
 		if len(up) > 0 {
 			var k []figures.Key
 			fu, k = c.ranked(g, up)
-			fu.Also = len(ov.Top) > 0
+			fu.Also, fu.More = len(ov.Top) > 0, len(up)-len(fu.Items)
 			cites = append(cites, k...)
 		}
 		if len(down) > 0 {
 			var k []figures.Key
 			fd, k = c.ranked(g, down)
-			fd.Also = len(ov.Bottom) > 0
+			fd.Also, fd.More = len(ov.Bottom) > 0, len(down)-len(fd.Items)
 			cites = append(cites, k...)
 		}
-		return []Sentence{c.say("", c.w.AboveBelow(fu, fd), cites...)}
+		s := c.say("", c.w.AboveBelow(fu, fd), cites...)
+		s.Thresholds = listCounts(fu.More, fd.More)
+		return []Sentence{s}
 	}
 	var out []Sentence
 	if len(up) > 0 {

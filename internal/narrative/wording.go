@@ -51,6 +51,9 @@ type Wording interface {
 	CompetitionPlace(f CompetitionFact) string
 	CompetitionAhead(f CompetitionFact) string
 	CompetitionBehind(f CompetitionFact) string
+	// CompetitionShared: the indicators on which every system's median
+	// leads, said once before the systems.
+	CompetitionShared(f CompetitionFact) string
 
 	Gap(f GapFact) string
 	GapList(fs []GapFact) string
@@ -230,6 +233,9 @@ type RankedFact struct {
 	// indicators in the same direction, so this list adds to it.
 	GroupNamed bool
 	Also       bool
+	// More counts the indicators left out of Items (AboveBelow says
+	// "and two other indicators").
+	More int
 }
 
 // CompetitionFact describes the focus placed inside a competitor system.
@@ -243,6 +249,14 @@ type CompetitionFact struct {
 	Bottom   []string
 	// MoreTop and MoreBottom count indicators left out of Top and Bottom.
 	MoreTop, MoreBottom int
+	// Systems and Shared, for CompetitionShared: how many systems, and
+	// the indicators on which every one of their medians leads.
+	Systems int
+	Shared  []string
+	// Others: for CompetitionBehind, the shared leads were said before,
+	// so "not ahead" is of the other indicators; for CompetitionShared,
+	// no system's median leads on any other indicator.
+	Others bool
 	// Ahead lists the indicators where the system's median is better
 	// than the focus, with both printed values.
 	Ahead []AheadItem

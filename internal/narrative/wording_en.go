@@ -503,7 +503,7 @@ func (e english) AboveBelow(up, down RankedFact) string {
 		}
 		return ""
 	}
-	kv := []string{"up", e.ranked(up.Items), "down", e.rankedMore(down.Items, 0, len(up.Items) == 0)}
+	kv := []string{"up", e.rankedMore(up.Items, up.More, true), "down", e.rankedMore(down.Items, down.More, len(up.Items) == 0)}
 	switch {
 	case len(up.Items) > 0 && len(down.Items) > 0:
 		return e.fill("It is "+also(up)+"above the middle of the group on {up}, and below it on {down}.", kv...)
@@ -566,8 +566,22 @@ func (e english) CompetitionAhead(f CompetitionFact) string {
 		"system", f.System, "system's", possessive(f.System), "focus", f.Focus, "items", e.List(parts))
 }
 
+// CompetitionShared: a lead every system shares, said once.
+func (e english) CompetitionShared(f CompetitionFact) string {
+	tail := "."
+	if f.Others {
+		tail = ", and none is ahead on any other indicator here."
+	}
+	return e.fill("The median of every one of these {n} systems is ahead of {focus} on {list}"+tail,
+		"n", smallNumberWord(f.Systems), "focus", f.Focus, "list", e.List(f.Shared))
+}
+
 // CompetitionBehind: the competitor's median leads nowhere.
 func (e english) CompetitionBehind(f CompetitionFact) string {
+	if f.Others {
+		return e.fill("{system's} median is not ahead of {focus} on any other indicator here.",
+			"system's", possessive(f.System), "focus", f.Focus)
+	}
 	return e.fill("{system's} median is not ahead of {focus} on any of these indicators.",
 		"system's", possessive(f.System), "focus", f.Focus)
 }
@@ -653,6 +667,11 @@ func (e english) PPP(f CaveatFact) string {
 		return e.fill("Figures for {conv} are converted from each country's currency with purchasing-power parity factors for each year, "+why, "conv", conv)
 	case len(f.Indicators) == 0:
 		return e.fill("Figures for {der} are computed from amounts converted from each country's currency with purchasing-power parity factors for each year, "+why, "der", der)
+	}
+	if len(f.Derived) > 2 {
+		// A long list of derived amounts would bury the point.
+		return e.fill("Figures for {conv} are converted from each country's currency with purchasing-power parity factors for each year, and the {n} indicators computed from them inherit the conversion, so all compare what the money buys rather than exchange-rate amounts.",
+			"conv", conv, "n", smallNumberWord(len(f.Derived)))
 	}
 	return e.fill("Figures for {conv} are converted from each country's currency with purchasing-power parity factors for each year, and those for {der} are computed from the converted amounts, "+why, "conv", conv, "der", der)
 }

@@ -43,10 +43,10 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 		out = append(out, Paragraph{Sentences: main})
 	}
 	if sc.has("competition") {
-		var comp []Sentence
+		comp, sh := c.sharedLeads(sc)
 		for _, g := range sc.systems {
 			// The overview has just placed the focus in its own system.
-			comp = append(comp, c.competition(sc, g, sc.has("position") && g == sc.ref)...)
+			comp = append(comp, c.competition(sc, g, sc.has("position") && g == sc.ref, sh)...)
 		}
 		if len(comp) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("competition"), Sentences: comp})
@@ -96,9 +96,9 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 		}
 	}
 	if sc.has("competition") && len(sc.systems) > 0 {
-		var comp []Sentence
+		comp, sh := c.sharedLeads(sc)
 		for _, g := range sc.systems {
-			comp = append(comp, c.competition(sc, g, false)...)
+			comp = append(comp, c.competition(sc, g, false, sh)...)
 		}
 		if len(comp) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("competition"), Sentences: comp})
@@ -181,8 +181,12 @@ func (c *composer) writeBullets(sc *scope) []Paragraph {
 		}
 	}
 	if sc.has("competition") {
+		lead, sh := c.sharedLeads(sc)
+		for _, s := range lead {
+			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})
+		}
 		for _, g := range sc.systems {
-			if s := c.competition(sc, g, false); len(s) > 0 {
+			if s := c.competition(sc, g, false, sh); len(s) > 0 {
 				out = append(out, Paragraph{Bullet: true, Sentences: s})
 			}
 		}

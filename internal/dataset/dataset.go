@@ -302,6 +302,9 @@ type Population struct {
 	// order.
 	Excluded map[int][]string
 	Rules    []string // one plain description per rule, for the pack
+	// RuleExcluded counts, aligned with Rules, how many institutions each
+	// rule left out; an institution failing two rules counts under both.
+	RuleExcluded []int
 }
 
 // PPPTable holds purchasing-power-parity conversion factors, local currency

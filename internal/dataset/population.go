@@ -28,9 +28,15 @@ func (l *loader) population(d *Dataset) {
 		p.Included[i] = true
 	}
 	out := &PopulationOutcome{}
+	// exclude charges the exclusion to the rule being applied, the last
+	// one described in p.Rules.
 	exclude := func(inst int, why string) {
 		p.Included[inst] = false
 		p.Excluded[inst] = append(p.Excluded[inst], why)
+		for len(p.RuleExcluded) < len(p.Rules) {
+			p.RuleExcluded = append(p.RuleExcluded, 0)
+		}
+		p.RuleExcluded[len(p.Rules)-1]++
 	}
 	indicator := func(key string, line, col int) int {
 		i := dict.Index(key)
@@ -123,6 +129,9 @@ func (l *loader) population(d *Dataset) {
 				exclude(inst, fmt.Sprintf("register field %s is empty", attr))
 			}
 		}
+	}
+	for len(p.RuleExcluded) < len(p.Rules) {
+		p.RuleExcluded = append(p.RuleExcluded, 0)
 	}
 	d.Population = p
 	out.Rules = p.Rules

@@ -1,7 +1,6 @@
 package layout
 
 import (
-
 	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
 )

@@ -172,10 +172,19 @@ func BoxOfSorted(s []float64, missing int, m QuantileMethod) Box {
 	b.Q1 = Quantile(s, 0.25, m)
 	b.Median = Quantile(s, 0.5, m)
 	b.Q3 = Quantile(s, 0.75, m)
+	b.setWhiskers(s)
+	return b
+}
+
+// setWhiskers sets IQR, Tukey's (1977) whiskers (the most extreme values
+// within 1.5 x IQR of the box) and the outliers beyond them, ascending,
+// once the quartiles, Min and Max are known; values may be in any order.
+func (b *Box) setWhiskers(values []float64) {
 	b.IQR = b.Q3 - b.Q1
 	lo, hi := b.Q1-1.5*b.IQR, b.Q3+1.5*b.IQR
 	b.WhiskerLow, b.WhiskerHigh = b.Max, b.Min
-	for _, v := range s {
+	b.OutlierValues = nil
+	for _, v := range values {
 		if v >= lo && v < b.WhiskerLow {
 			b.WhiskerLow = v
 		}
@@ -186,5 +195,5 @@ func BoxOfSorted(s []float64, missing int, m QuantileMethod) Box {
 			b.OutlierValues = append(b.OutlierValues, v)
 		}
 	}
-	return b
+	sort.Float64s(b.OutlierValues)
 }

@@ -37,21 +37,7 @@ func BoxOfUnsorted(values []float64, missing int, m QuantileMethod) Box {
 	b.Q1 = plans[0].value(values[plans[0].lo], values[plans[0].hi])
 	b.Median = plans[1].value(values[plans[1].lo], values[plans[1].hi])
 	b.Q3 = plans[2].value(values[plans[2].lo], values[plans[2].hi])
-	b.IQR = b.Q3 - b.Q1
-	lo, hi := b.Q1-1.5*b.IQR, b.Q3+1.5*b.IQR
-	b.WhiskerLow, b.WhiskerHigh = b.Max, b.Min
-	for _, v := range values {
-		if v >= lo && v < b.WhiskerLow {
-			b.WhiskerLow = v
-		}
-		if v <= hi && v > b.WhiskerHigh {
-			b.WhiskerHigh = v
-		}
-		if v < lo || v > hi {
-			b.OutlierValues = append(b.OutlierValues, v)
-		}
-	}
-	sort.Float64s(b.OutlierValues)
+	b.setWhiskers(values)
 	return b
 }
 

@@ -13,6 +13,9 @@ package dataset
 import (
 	"math"
 	"sort"
+	"strings"
+	"unicode"
+	"unicode/utf8"
 
 	"peerpack/internal/tabular"
 )
@@ -83,6 +86,32 @@ type Indicator struct {
 	// messages.
 	Line   int `yaml:"-"`
 	Column int `yaml:"-"`
+}
+
+// RunningLabel is the indicator's label as running text reads it: the
+// first letter lowered unless the first word is an abbreviation ("FWCI",
+// "PhD share") or the capital is joined to what follows ("A-level"); the
+// key when there is no label.
+func (ind Indicator) RunningLabel() string {
+	s := ind.Label
+	if s == "" {
+		return ind.Key
+	}
+	r, n := utf8.DecodeRuneInString(s)
+	if !unicode.IsUpper(r) {
+		return s
+	}
+	word := s[n:]
+	if r2, _ := utf8.DecodeRuneInString(word); word != "" && !unicode.IsLower(r2) {
+		return s
+	}
+	if i := strings.IndexFunc(word, unicode.IsSpace); i >= 0 {
+		word = word[:i]
+	}
+	if strings.IndexFunc(word, unicode.IsUpper) >= 0 {
+		return s
+	}
+	return string(unicode.ToLower(r)) + s[n:]
 }
 
 // Dictionary is the ordered list of indicators with a key index.

@@ -5,8 +5,6 @@ import (
 	"math"
 	"strconv"
 	"strings"
-	"unicode"
-	"unicode/utf8"
 
 	"peerpack/internal/yamlx"
 )
@@ -182,28 +180,6 @@ func yearRange(first, last int) string {
 	return strconv.Itoa(first) + "\u2013" + strconv.Itoa(last)
 }
 
-// runningText is an indicator's label as running text reads it: the
-// first letter lowered unless the first word is an abbreviation ("FWCI",
-// "PhD share") or the capital is joined to what follows ("A-level"); the
-// key when there is no label.
-func runningText(ind Indicator) string {
-	s := ind.Label
-	if s == "" {
-		return ind.Key
-	}
-	r, n := utf8.DecodeRuneInString(s)
-	if !unicode.IsUpper(r) {
-		return s
-	}
-	word := s[n:]
-	if r2, _ := utf8.DecodeRuneInString(word); word != "" && !unicode.IsLower(r2) {
-		return s
-	}
-	if i := strings.IndexFunc(word, unicode.IsSpace); i >= 0 {
-		word = word[:i]
-	}
-	if strings.IndexFunc(word, unicode.IsUpper) >= 0 {
-		return s
-	}
-	return string(unicode.ToLower(r)) + s[n:]
-}
+// runningText is an indicator's label as running text reads it; see
+// Indicator.RunningLabel.
+func runningText(ind Indicator) string { return ind.RunningLabel() }

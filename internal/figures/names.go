@@ -3,8 +3,6 @@ package figures
 import (
 	"strconv"
 	"strings"
-	"unicode"
-	"unicode/utf8"
 
 	"peerpack/internal/dataset"
 
@@ -21,32 +19,9 @@ func quoted(list []string) string {
 	return strings.Join(q, ", ")
 }
 
-// runningLabel is an indicator's label as running text of a group's
-// definition reads it: the first letter lowered unless the first word is an
-// abbreviation ("FWCI", "PhD share") or the capital is joined to what
-// follows ("A-level"), the key when there is no label. The pack prints
-// definitions to readers, who know labels, not keys.
-func runningLabel(ind dataset.Indicator) string {
-	s := ind.Label
-	if s == "" {
-		return ind.Key
-	}
-	r, n := utf8.DecodeRuneInString(s)
-	if !unicode.IsUpper(r) {
-		return s
-	}
-	word := s[n:]
-	if r2, _ := utf8.DecodeRuneInString(word); word != "" && !unicode.IsLower(r2) {
-		return s
-	}
-	if i := strings.IndexFunc(word, unicode.IsSpace); i >= 0 {
-		word = word[:i]
-	}
-	if strings.IndexFunc(word, unicode.IsUpper) >= 0 {
-		return s
-	}
-	return string(unicode.ToLower(r)) + s[n:]
-}
+// runningLabel is an indicator's label as a definition reads it (the
+// pack prints definitions to readers, who know labels, not keys).
+func runningLabel(ind dataset.Indicator) string { return ind.RunningLabel() }
 
 // listText joins items as running text: "a, b and c".
 func listText(items []string) string {

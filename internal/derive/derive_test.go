@@ -176,12 +176,13 @@ func FuzzDerive(f *testing.F) {
 			}
 			return
 		}
-		v, out := e.Eval(func(n string) float64 {
+		lookup := func(n string) float64 {
 			if len(n)%3 == 0 {
 				return 0
 			}
 			return float64(len(n))
-		})
+		}
+		v, out := e.Eval(lookup)
 		if math.IsInf(v, 0) {
 			t.Fatalf("%q gave an infinity", s)
 		}
@@ -193,6 +194,8 @@ func FuzzDerive(f *testing.F) {
 		if err != nil {
 			t.Fatalf("%q printed as %q does not parse: %v", s, e.Root.String(), err)
 		}
-		_ = e2
+		if v2, _ := e2.Eval(lookup); !(v2 == v || math.IsNaN(v) && math.IsNaN(v2)) {
+			t.Fatalf("%q printed as %q evaluates to %v, not %v", s, e.Root.String(), v2, v)
+		}
 	})
 }

@@ -63,9 +63,35 @@ func (n *Binary) Col() int { return n.At }
 
 func (n *Num) String() string { return strconv.FormatFloat(n.Value, 'g', -1, 64) }
 func (n *Ref) String() string { return n.Name }
-func (n *Neg) String() string { return "-" + n.X.String() }
+func (n *Neg) String() string {
+	if _, ok := n.X.(*Binary); ok {
+		return "-(" + n.X.String() + ")"
+	}
+	return "-" + n.X.String()
+}
+
+// String prints the expression with only the parentheses its tree needs:
+// a left operand of lower precedence, a right operand of lower or equal
+// precedence (so a - (b - c) and a * (b * c) keep their grouping, which
+// floating point can tell apart). A long chain such as a * b * c * ... is
+// printed flat, so printing never nests deeper than the source did.
 func (n *Binary) String() string {
-	return "(" + n.X.String() + " " + string(n.Op) + " " + n.Y.String() + ")"
+	x, y := n.X.String(), n.Y.String()
+	if b, ok := n.X.(*Binary); ok && precedence(b.Op) < precedence(n.Op) {
+		x = "(" + x + ")"
+	}
+	if b, ok := n.Y.(*Binary); ok && precedence(b.Op) <= precedence(n.Op) {
+		y = "(" + y + ")"
+	}
+	return x + " " + string(n.Op) + " " + y
+}
+
+func precedence(op Op) int {
+	switch string(op) {
+	case "*", "/":
+		return 2
+	}
+	return 1
 }
 
 // Expr is a parsed derive expression.

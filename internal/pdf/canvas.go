@@ -343,7 +343,7 @@ func (c *Canvas) FillString(f font.Face, pt vg.Point, text string) {
 	// equal in fpdf's record, so it emits no colour of its own and the
 	// canvas's rg applies.
 	k := PointsPerMM
-	d.f.Text(float64(pt.X)/k, d.opt.Paper.Height-float64(pt.Y)/k, text)
+	d.f.Text(float64(pt.X)/k, d.opt.Paper.Height-float64(pt.Y)/k, Printable(text))
 }
 
 // DrawImage implements vg.Canvas: the image is embedded as a PNG, the one

@@ -83,16 +83,16 @@ func New(opt Options) *Doc {
 	f.SetCreationDate(created)
 	f.SetModificationDate(created)
 	if opt.Title != "" {
-		f.SetTitle(opt.Title, true)
+		f.SetTitle(Printable(opt.Title), true)
 	}
 	if opt.Author != "" {
-		f.SetAuthor(opt.Author, true)
+		f.SetAuthor(Printable(opt.Author), true)
 	}
 	if opt.Subject != "" {
-		f.SetSubject(opt.Subject, true)
+		f.SetSubject(Printable(opt.Subject), true)
 	}
 	if len(opt.Keywords) > 0 {
-		f.SetKeywords(strings.Join(opt.Keywords, ", "), true)
+		f.SetKeywords(Printable(strings.Join(opt.Keywords, ", ")), true)
 	}
 	if opt.Creator != "" {
 		f.SetCreator(opt.Creator, true)

@@ -6,7 +6,7 @@ func (d *Doc) Bookmark(title string, level int, y float64) {
 	if level < 0 {
 		level = 0
 	}
-	d.f.Bookmark(title, level, y)
+	d.f.Bookmark(Printable(title), level, y)
 }
 
 // NewLink reserves an internal link target; place it with SetLink.

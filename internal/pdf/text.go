@@ -25,13 +25,13 @@ func (d *Doc) SetFont(f Font) {
 func (d *Doc) CurrentFont() Font { return d.cur }
 
 // StringWidth is the advance width of s in the current font, in mm.
-func (d *Doc) StringWidth(s string) float64 { return d.f.GetStringWidth(s) }
+func (d *Doc) StringWidth(s string) float64 { return d.f.GetStringWidth(Printable(s)) }
 
 // WidthIn is the width of s in font f, leaving the current font selected.
 func (d *Doc) WidthIn(f Font, s string) float64 {
 	cur := d.cur
 	d.SetFont(f)
-	w := d.f.GetStringWidth(s)
+	w := d.f.GetStringWidth(Printable(s))
 	d.SetFont(cur)
 	return w
 }
@@ -47,7 +47,7 @@ func (d *Doc) Text(x, y float64, s string) {
 	if s == "" {
 		return
 	}
-	d.f.Text(x, y, s)
+	d.f.Text(x, y, Printable(s))
 }
 
 // TextRight draws s ending at x.

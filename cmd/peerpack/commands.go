@@ -6,6 +6,7 @@ import (
 	iofs "io/fs"
 	"path/filepath"
 	"strings"
+	"time"
 
 	"peerpack/internal/build"
 	"peerpack/internal/demo"
@@ -33,7 +34,8 @@ Examples:
   peerpack check BRIEF.md [--root DIR]
 
 Checks the brief (front matter and every block) and loads everything it
-names, then prints institutions, years, indicators, coverage per indicator,
+names, lays the pack out in memory (writing nothing), then prints
+institutions, years, indicators, coverage per indicator,
 year and group, and anything suspicious. Lists every problem, not just the
 first. Exit 0 when the brief would build, 1 when it would not.
 
@@ -154,6 +156,11 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 			in.Report.Write(e.stderr)
 		}
 		return code
+	}
+	// "Would build" is proved by building: commentary and layout run in
+	// memory, nothing is written.
+	if _, err := build.Pack(in, time.Unix(0, 0).UTC(), version); err != nil {
+		return reportError(e, err)
 	}
 	build.WriteCheckReport(e.stdout, in)
 	if raw, err := iofs.ReadFile(src.FS, src.Brief); err == nil {

@@ -1,11 +1,14 @@
 package atomicfile
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"io"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
@@ -63,21 +66,45 @@ func TestCancelledKeepsPrevious(t *testing.T) {
 	assertNoTemporaries(t, dir)
 }
 
+// An unwritable output folder fails the write and leaves the previous
+// pack byte-identical. Root ignores permission bits, so there the folder
+// is made immutable with chattr +i (ext4 and most Linux file systems);
+// where that is not possible the folder is made read-only for other users.
 func TestUnwritableFolder(t *testing.T) {
-	if os.Geteuid() == 0 {
-		// root ignores permission bits; use a folder that does not exist
-		// instead, which fails the same way for every user.
-		err := WriteFile(context.Background(), filepath.Join(t.TempDir(), "missing", "pack.pdf"), []byte("x"), 0o644)
-		if err == nil {
-			t.Fatal("expected an error for a missing folder")
-		}
-		return
-	}
 	dir := t.TempDir()
-	os.Chmod(dir, 0o555)
-	defer os.Chmod(dir, 0o755)
-	if err := WriteFile(context.Background(), filepath.Join(dir, "pack.pdf"), []byte("x"), 0o644); err == nil {
+	target := filepath.Join(dir, "pack.pdf")
+	previous := []byte("%PDF-1.4 the previous good pack")
+	if err := os.WriteFile(target, previous, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if os.Geteuid() == 0 {
+		chattr, err := exec.LookPath("chattr")
+		if err != nil || exec.Command(chattr, "+i", dir).Run() != nil {
+			t.Skip("running as root without chattr +i: cannot make a folder unwritable")
+		}
+		t.Cleanup(func() { exec.Command(chattr, "-i", dir).Run() })
+	} else {
+		os.Chmod(dir, 0o555)
+		t.Cleanup(func() { os.Chmod(dir, 0o755) })
+	}
+	err := WriteFile(context.Background(), target, []byte("new pack"), 0o644)
+	if err == nil {
 		t.Fatal("expected an error for an unwritable folder")
+	}
+	if !strings.Contains(err.Error(), "writable") {
+		t.Errorf("the message should say what to check: %v", err)
+	}
+	got, _ := os.ReadFile(target)
+	if !bytes.Equal(got, previous) {
+		t.Errorf("the previous pack changed to %q", got)
+	}
+}
+
+// A folder that does not exist fails with a message naming it.
+func TestMissingFolder(t *testing.T) {
+	err := WriteFile(context.Background(), filepath.Join(t.TempDir(), "missing", "pack.pdf"), []byte("x"), 0o644)
+	if err == nil || !strings.Contains(err.Error(), "missing") {
+		t.Fatalf("want an error naming the missing folder, got %v", err)
 	}
 }
 

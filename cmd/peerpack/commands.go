@@ -10,6 +10,7 @@ import (
 
 	"peerpack/internal/build"
 	"peerpack/internal/demo"
+	"peerpack/internal/format"
 	"peerpack/internal/limits"
 	"peerpack/templates"
 )
@@ -122,7 +123,7 @@ func doBuild(ctx context.Context, e *env, src build.Source, out, figs, wb string
 	if err != nil {
 		return reportError(e, err)
 	}
-	e.infof("wrote %s (%s)\n", res.Output, humanBytes(res.Bytes))
+	e.infof("wrote %s (%s)\n", res.Output, format.Bytes(res.Bytes))
 	for _, f := range []string{figs, wb} {
 		if f != "" {
 			e.infof("wrote %s\n", f)
@@ -269,14 +270,4 @@ func reportError(e *env, err error) int {
 		fmt.Fprintf(e.stderr, "%d problems found.\n", len(lines))
 	}
 	return exitInput
-}
-
-func humanBytes(n int) string {
-	switch {
-	case n >= 1<<20:
-		return fmt.Sprintf("%.1f MiB", float64(n)/(1<<20))
-	case n >= 1<<10:
-		return fmt.Sprintf("%.0f KiB", float64(n)/(1<<10))
-	}
-	return fmt.Sprintf("%d bytes", n)
 }

@@ -21,6 +21,7 @@ import (
 	"peerpack/internal/brief"
 	"peerpack/internal/build"
 	"peerpack/internal/diag"
+	"peerpack/internal/format"
 	"peerpack/internal/tabular"
 )
 
@@ -278,5 +279,5 @@ func sizeText(n int) string {
 	if n == 0 {
 		return "-"
 	}
-	return fmt.Sprintf("%.0f KiB", float64(n)/1024)
+	return format.Bytes(n)
 }

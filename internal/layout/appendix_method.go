@@ -81,7 +81,7 @@ func indicatorNote(ind dataset.Indicator, dict *dataset.Dictionary) string {
 	} else if ind.Derive == "" {
 		parts = append(parts, "Source: not stated in the dictionary.")
 	}
-	unit := fmt.Sprintf("%s, %d %s, %s", upperFirst(string(ind.Unit)), ind.Decimals, format.Plural(ind.Decimals, "decimal", "decimals"), polarityNote(ind.Better))
+	unit := fmt.Sprintf("%s, %d %s, %s", format.Capitalise(string(ind.Unit)), ind.Decimals, format.Plural(ind.Decimals, "decimal", "decimals"), polarityNote(ind.Better))
 	switch {
 	case ind.Currency:
 		unit += "; converted from local currency to international dollars (PPP$) before any figure is computed"
@@ -117,14 +117,6 @@ func sentence(s string) string {
 	return s + "."
 }
 
-// upperFirst capitalises a definition's first letter to open a sentence.
-func upperFirst(s string) string {
-	if s == "" || s[0] < 'a' || s[0] > 'z' {
-		return s
-	}
-	return string(s[0]-'a'+'A') + s[1:]
-}
-
 // annexGroups states how each group in scope was formed, its size and
 // whether the focus belongs to it; chosen and nearest-peer groups list
 // their members.
@@ -137,7 +129,7 @@ func (w *writer) annexGroups(sc appendixScope) {
 	nearest := false
 	for _, g := range sc.groups {
 		var b strings.Builder
-		b.WriteString(sentence(upperFirst(g.Defined)))
+		b.WriteString(sentence(format.Capitalise(g.Defined)))
 		over := "of the ranked population"
 		if g.Over == "all" {
 			over = "drawn from all institutions"
@@ -189,7 +181,7 @@ func (w *writer) annexPopulation() {
 		d.Register.File, format.Int(n), format.Int(excluded), format.Int(n-excluded)))
 	counts, ok := ruleExclusions(w.b, pop, d.Dictionary)
 	for i, r := range pop.Rules {
-		text := sentence(upperFirst(r))
+		text := sentence(format.Capitalise(r))
 		if ok {
 			text = strings.TrimSuffix(text, ".") + fmt.Sprintf(": leaves out %s %s.", format.Int(counts[i]), format.Plural(counts[i], "institution", "institutions"))
 		}
@@ -238,7 +230,7 @@ func (w *writer) annexMoney(sc appendixScope) {
 			s += "the brief names no PPP file."
 		}
 		if len(local) > 0 {
-			s += " " + upperFirst(joinAnd(local)) + format.Plural(len(local), " is", " are") + " shown in the currency units of the data as given, comparable only within one currency."
+			s += " " + format.Capitalise(joinAnd(local)) + format.Plural(len(local), " is", " are") + " shown in the currency units of the data as given, comparable only within one currency."
 		}
 		w.plain(s)
 		return
@@ -247,7 +239,7 @@ func (w *writer) annexMoney(sc appendixScope) {
 	s := fmt.Sprintf("Money amounts (%s) are converted from local currency to international dollars (PPP$) before any figure is computed: each value is divided by the purchasing-power-parity factor of its country and year, a factor being local currency units per international dollar. The factors are read from %s (%s %s, %d–%d).",
 		joinAnd(converted), w.b.Data.PPP, format.Int(countries), format.Plural(countries, "country", "countries"), first, last)
 	if len(derived) > 0 {
-		s += " " + upperFirst(joinAnd(derived)) + format.Plural(len(derived), " is", " are") + " computed from the converted amounts and so in international dollars too."
+		s += " " + format.Capitalise(joinAnd(derived)) + format.Plural(len(derived), " is", " are") + " computed from the converted amounts and so in international dollars too."
 	}
 	s += " PPP factors are estimates and are revised from time to time, so small differences in money indicators between countries deserve less weight than those within one country."
 	w.plain(s)

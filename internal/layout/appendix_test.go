@@ -18,6 +18,7 @@ import (
 	"peerpack/internal/dataset"
 	"peerpack/internal/demo"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
 	"peerpack/internal/narrative"
 	"peerpack/templates"
 )
@@ -137,14 +138,14 @@ func TestMethodologyAppendixFromTheBrief(t *testing.T) {
 		}
 	}
 	for _, g := range m.Groups {
-		if !strings.Contains(annex, g.Name+". "+sentence(upperFirst(g.Defined))) {
+		if !strings.Contains(annex, g.Name+". "+sentence(format.Capitalise(g.Defined))) {
 			t.Errorf("group %q: definition %q not in the annex", g.Name, g.Defined)
 		}
 	}
 	// R 4.2.2 (appendix_reference.R): 431 institutions fail the rule of
 	// at least 1,000 papers over 2021-2025.
 	excluded := int(refValue(t, ref, "population/excluded"))
-	rule := strings.TrimSuffix(sentence(upperFirst(m.Data.Population.Rules[0])), ".")
+	rule := strings.TrimSuffix(sentence(format.Capitalise(m.Data.Population.Rules[0])), ".")
 	if s := fmt.Sprintf("%s: leaves out %d institutions.", rule, excluded); !strings.Contains(annex, s) {
 		t.Errorf("the annex lacks %q", s)
 	}

@@ -435,7 +435,7 @@ func (w *writer) populationTable(tb *brief.TableBlock) {
 	}
 	if d.Population != nil {
 		for _, r := range d.Population.Rules {
-			g.notes = append(g.notes, "Rule: "+upperFirst(r)+".")
+			g.notes = append(g.notes, "Rule: "+format.Capitalise(r)+".")
 		}
 	} else {
 		g.notes = append(g.notes, "The brief sets no population rules: every institution in the register is ranked.")

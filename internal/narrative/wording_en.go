@@ -6,6 +6,7 @@ import (
 	"unicode/utf8"
 
 	"peerpack/internal/dataset"
+	"peerpack/internal/format"
 )
 
 // english is the commentary's English wording; us selects American
@@ -59,13 +60,8 @@ func spellOutsideSlots(tmpl string) string {
 	return b.String()
 }
 
-func capitalise(s string) string {
-	r, n := utf8.DecodeRuneInString(s)
-	if r == utf8.RuneError || unicode.IsUpper(r) {
-		return s
-	}
-	return string(unicode.ToUpper(r)) + s[n:]
-}
+// capitalise upper-cases a sentence's first letter; see format.Capitalise.
+func capitalise(s string) string { return format.Capitalise(s) }
 
 // Indicator lowers the first letter of a label for use inside a sentence,
 // unless the label starts with an abbreviation ("FWCI", "PhD share").

@@ -105,23 +105,30 @@ func runBuild(ctx context.Context, e *env, args []string) int {
 	if err != nil {
 		return reportError(e, err)
 	}
-	code = doBuild(ctx, e, src, *out, *figs, *wb)
+	code, res := buildOnce(ctx, e, src, *out, *figs, *wb)
 	if *watchFlag {
-		return watch(ctx, e, src, *out, *figs, *wb)
+		return watch(ctx, e, src, res, *out, *figs, *wb)
 	}
 	return code
 }
 
 func doBuild(ctx context.Context, e *env, src build.Source, out, figs, wb string) int {
+	code, _ := buildOnce(ctx, e, src, out, figs, wb)
+	return code
+}
+
+// buildOnce builds and reports; the result (nil on failure) tells --watch
+// which files the brief now names.
+func buildOnce(ctx context.Context, e *env, src build.Source, out, figs, wb string) (int, *build.Result) {
 	created, err := build.CreatedTime()
 	if err != nil {
 		e.errorf("%v\n", err)
-		return exitUsage
+		return exitUsage, nil
 	}
 	e.debugf("reading %s\n", src.Display)
 	res, err := build.Build(ctx, src, build.Options{Output: out, Figures: figs, Workbook: wb, Created: created, Version: version, Limits: e.limits})
 	if err != nil {
-		return reportError(e, err)
+		return reportError(e, err), nil
 	}
 	e.infof("wrote %s (%s)\n", res.Output, format.Bytes(res.Bytes))
 	for _, f := range []string{figs, wb} {
@@ -129,7 +136,7 @@ func doBuild(ctx context.Context, e *env, src build.Source, out, figs, wb string
 			e.infof("wrote %s\n", f)
 		}
 	}
-	return exitOK
+	return exitOK, res
 }
 
 func runCheck(ctx context.Context, e *env, args []string) int {

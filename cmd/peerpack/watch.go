@@ -50,14 +50,10 @@ func fingerprint(fsys fs.FS, files []string) string {
 
 // watch rebuilds whenever the brief or one of its data files changes,
 // until interrupted. A failed rebuild prints why and keeps the last good
-// pack, then waits for the next change.
-func watch(ctx context.Context, e *env, src build.Source, out, figs, wb string) int {
-	var files []string
-	if in, err := build.Load(src, nil); err == nil {
-		files = watchFiles(src, in.Brief)
-	} else {
-		files = watchFiles(src, nil)
-	}
+// pack, then waits for the next change. The files watched are those the
+// last successful build read (res), so nothing is loaded twice.
+func watch(ctx context.Context, e *env, src build.Source, res *build.Result, out, figs, wb string) int {
+	files := watchedBy(src, res, nil)
 	last := fingerprint(src.FS, files)
 	e.infof("watching %d files; press Ctrl-C to stop\n", len(files))
 	tick := time.NewTicker(watchInterval)
@@ -73,12 +69,21 @@ func watch(ctx context.Context, e *env, src build.Source, out, figs, wb string) 
 		if now == last {
 			continue
 		}
-		last = now
 		e.infof("%s changed; rebuilding\n", time.Now().Format("15:04:05"))
-		doBuild(ctx, e, src, out, figs, wb)
-		if in, err := build.Load(src, nil); err == nil {
-			files = watchFiles(src, in.Brief)
-			last = fingerprint(src.FS, files)
-		}
+		_, res := buildOnce(ctx, e, src, out, figs, wb)
+		files = watchedBy(src, res, files)
+		last = fingerprint(src.FS, files)
 	}
+}
+
+// watchedBy is the file list of a build's brief, or keep when the build
+// failed (its brief may not even parse).
+func watchedBy(src build.Source, res *build.Result, keep []string) []string {
+	if res == nil || res.Inputs == nil {
+		if keep != nil {
+			return keep
+		}
+		return watchFiles(src, nil)
+	}
+	return watchFiles(src, res.Inputs.Brief)
 }

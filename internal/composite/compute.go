@@ -1,9 +1,9 @@
 package composite
 
 import (
-	"cmp"
 	"fmt"
 	"math"
+	"math/bits"
 	"slices"
 
 	"peerpack/internal/stats"
@@ -279,8 +279,28 @@ func fill(cs [][]float64, pr *prepared, im Impute) ([]float64, []int) {
 // section 1.7).
 func aggregate(mat []float64, k int, pillar []int, indW, pilW []float64, geometric bool, overall []float64, pillars [][]float64, ps, pw []float64) {
 	m := len(overall)
+	// A row with every value present and arithmetic pillars reduces to
+	// one dot product with the effective weights (pillar weight times
+	// weight within the pillar); the general path below handles the rest.
+	var eff []float64
+	if !geometric && pillars == nil {
+		eff = make([]float64, k)
+		for j := range eff {
+			eff[j] = pilW[pillar[j]] * indW[j]
+		}
+	}
 	for a := 0; a < m; a++ {
 		row := mat[a*k : (a+1)*k]
+		if eff != nil {
+			s := 0.0
+			for j, v := range row {
+				s += eff[j] * v
+			}
+			if s == s {
+				overall[a] = s
+				continue
+			}
+		}
 		for q := range ps {
 			ps[q], pw[q] = 0, 0
 		}
@@ -322,38 +342,55 @@ func aggregate(mat []float64, k int, pillar []int, indW, pilW []float64, geometr
 }
 
 // Ranks ranks scores highest first, ties sharing the best rank (1 + the
-// number of strictly higher scores, "1, 2, 2, 4"); NaN gets 0. order is
-// scratch space of len(scores), or nil.
-func Ranks(scores []float64, out []int, order []int32) {
-	if len(order) != len(scores) {
-		order = make([]int32, len(scores))
+// number of strictly higher scores, "1, 2, 2, 4"; standard competition
+// ranking); NaN gets 0. Scores that agree to about twelve significant
+// digits (all but the last bits.Len(n) bits of the 52-bit mantissa) count
+// as tied, so rounding noise in the last place never splits a tie and the
+// sort runs on plain integers: each key is the score's order-preserving
+// bit pattern, inverted so the highest comes first, with the institution's
+// position in its low bits. keys is scratch space of len(scores), or nil.
+func Ranks(scores []float64, out []int, keys []uint64) {
+	n := len(scores)
+	if len(keys) != n {
+		keys = make([]uint64, n)
 	}
-	for i := range order {
-		order[i] = int32(i)
-	}
-	slices.SortFunc(order, func(a, b int32) int {
-		x, y := scores[a], scores[b]
-		xn, yn := x != x, y != y
-		if xn || yn {
-			return cmp.Compare(b2i(xn), b2i(yn))
-		}
-		return cmp.Compare(y, x)
-	})
-	for i := 0; i < len(order); {
-		s := scores[order[i]]
-		j := i + 1
-		for j < len(order) && scores[order[j]] == s {
-			j++
-		}
-		r := i + 1
+	shift := uint(bits.Len(uint(n)))
+	mask := uint64(1)<<shift - 1
+	valid := 0
+	for i, s := range scores {
 		if s != s {
-			r = 0
+			out[i] = 0
+			continue
 		}
-		for t := i; t < j; t++ {
-			out[order[t]] = r
-		}
-		i = j
+		keys[valid] = ^orderedBits(s)&^mask | uint64(i)
+		valid++
 	}
+	ks := keys[:valid]
+	slices.Sort(ks)
+	for a := 0; a < valid; {
+		b := a + 1
+		for b < valid && ks[b]&^mask == ks[a]&^mask {
+			b++
+		}
+		for t := a; t < b; t++ {
+			out[ks[t]&mask] = a + 1
+		}
+		a = b
+	}
+}
+
+// orderedBits maps a float64 to a uint64 with the same order (negative
+// values with every bit flipped, positive ones with the sign bit set);
+// -0 and +0 map alike.
+func orderedBits(f float64) uint64 {
+	if f == 0 {
+		f = 0
+	}
+	u := math.Float64bits(f)
+	if u>>63 == 1 {
+		return ^u
+	}
+	return u | 1<<63
 }
 
 func b2i(b bool) int {

@@ -64,7 +64,7 @@ func (r *Result) monteCarlo() error {
 			sums := make([]float64, p)
 			overall := make([]float64, m)
 			ranks := make([]int, m)
-			order := make([]int32, m)
+			order := make([]uint64, m)
 			ps, pw := make([]float64, p), make([]float64, p)
 			nMethods := len(pr.options)
 			for run := w; run < runs; run += workers {

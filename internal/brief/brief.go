@@ -53,6 +53,8 @@ type Brief struct {
 	// Quantiles selects the quantile definition: type7 (default), type6 or
 	// hinges.
 	Quantiles string `yaml:"quantiles"`
+	// Composite, when given, builds a composite score (see composite.go).
+	Composite *CompositeSpec `yaml:"composite"`
 
 	// Body is the Markdown after the front matter; BodyLine is the line
 	// of the brief on which it starts (1-based).

@@ -89,6 +89,7 @@ func ParseWith(file string, src []byte, lim yamlx.Limits) (*Brief, error) {
 	recordLines(node, "", b.Lines)
 	probs.Add(b.setGroupPositions(node))
 	probs.Add(b.validateFrontMatter())
+	probs.Add(b.decodeComposite())
 	blocks, err := parseBlocks(file, body, bodyLine, lim)
 	probs.Add(err)
 	b.Blocks = blocks

@@ -31,6 +31,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 	r := &resolver{d: d, b: b, focus: focus, probs: probs}
 	groups := r.resolveGroups()
 	checkBlocks(d, b, groups, probs)
+	checkComposite(d, b, groups, probs)
 	if err := probs.Err(); err != nil {
 		return nil, err
 	}
@@ -61,6 +62,10 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		}
 	}
 	if err := m.compute(); err != nil {
+		probs.Add(err)
+		return nil, probs
+	}
+	if err := m.computeComposite(b); err != nil {
 		probs.Add(err)
 		return nil, probs
 	}

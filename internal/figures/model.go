@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
 	"peerpack/internal/stats"
 )
@@ -94,6 +95,10 @@ type Model struct {
 	// commentary), appended through Add.
 	extra []Row
 	index map[Key]Row
+	// composites holds the brief's composite, one per span year with data;
+	// CompositeSpec is the brief's composite: section (nil without one).
+	composites    []*CompositeYear
+	CompositeSpec *brief.CompositeSpec
 }
 
 // Group is a resolved comparison group.

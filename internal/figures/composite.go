@@ -217,6 +217,7 @@ func (m *Model) computeComposite(b *brief.Brief) error {
 		}
 		m.composites = append(m.composites, cy)
 	}
+	m.addCompositeRows()
 	return nil
 }
 

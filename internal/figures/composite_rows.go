@@ -17,10 +17,18 @@ const (
 // pillar's score and rank; per year the weights (as normalised), the skew
 // diagnosis and treatment of each indicator, the method; for the focus the
 // sensitivity of its rank, its headroom and its movement over the span.
-func (m *Model) compositeRows(num func(Key, float64), text func(Key, string)) {
+//
+// They are added once, as rows of a later stage (m.Add), so the streaming
+// writers and Lookup find them with the rest.
+func (m *Model) addCompositeRows() {
 	if len(m.composites) == 0 {
 		return
 	}
+	var rows []Row
+	sink := func(r Row) bool { rows = append(rows, r); return true }
+	num := func(k Key, v float64) { emitNum(sink, k, v) }
+	text := func(k Key, s string) { emitText(sink, k, s) }
+	defer func() { m.Add(rows...) }()
 	k := func(ind, inst string, year int, measure string) Key {
 		return Key{Section: SectionComposite, Indicator: ind, Institution: inst, Year: year, Measure: measure}
 	}
@@ -60,7 +68,7 @@ func (m *Model) compositeRows(num func(Key, float64), text func(Key, string)) {
 			sk := r.Skew[j]
 			num(k(ind.Key, "", y, "skewness"), sk.Skewness)
 			num(k(ind.Key, "", y, "kurtosis"), sk.Kurtosis)
-			num(k(ind.Key, "", y, "skewed"), b2f(sk.Skewed))
+			num(k(ind.Key, "", y, "skewed"), oneIf(sk.Skewed))
 			text(k(ind.Key, "", y, "skew_treatment"), SkewTreatmentText(sk.Treated, sk.Winsorised))
 		}
 		if cy.Of(m.Focus) >= 0 && r.Scored[cy.Of(m.Focus)] {
@@ -85,7 +93,7 @@ func (m *Model) compositeRows(num func(Key, float64), text func(Key, string)) {
 				}
 				key := cy.Indicators[j].Key
 				num(k(key, fid, y, "headroom_from"), h.From)
-				num(k(key, fid, y, "headroom_reachable"), b2f(h.Reachable))
+				num(k(key, fid, y, "headroom_reachable"), oneIf(h.Reachable))
 				if h.Reachable {
 					num(k(key, fid, y, "headroom_to"), h.To)
 					num(k(key, fid, y, "headroom_change"), h.Change)
@@ -100,7 +108,7 @@ func (m *Model) compositeRows(num func(Key, float64), text func(Key, string)) {
 		num(k(CompositeOverall, fid, 0, "movement_start_year"), float64(mv.StartYear))
 		num(k(CompositeOverall, fid, 0, "movement_end_year"), float64(mv.EndYear))
 		num(k(CompositeOverall, fid, 0, "movement_rank_change"), float64(mv.StartRank-mv.EndRank))
-		num(k(CompositeOverall, fid, 0, "movement_distinguishable"), b2f(mv.Distinguishable))
+		num(k(CompositeOverall, fid, 0, "movement_distinguishable"), oneIf(mv.Distinguishable))
 	}
 }
 
@@ -124,11 +132,4 @@ func SkewTreatmentText(treated string, winsorised int) string {
 		return "winsorised " + strconv.Itoa(winsorised) + " " + format.Plural(winsorised, "value", "values")
 	}
 	return "none"
-}
-
-func b2f(b bool) float64 {
-	if b {
-		return 1
-	}
-	return 0
 }

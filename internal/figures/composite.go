@@ -72,6 +72,51 @@ func (c *CompositeYear) Scored(inst int) bool {
 	return a >= 0 && c.Result.Scored[a]
 }
 
+// Overlapping counts the other scored institutions whose Monte Carlo rank
+// intervals overlap inst's: those the composite cannot tell apart from it.
+func (c *CompositeYear) Overlapping(inst int) int {
+	r := c.Result
+	a := c.Of(inst)
+	if a < 0 || !r.Scored[a] || r.RankLow == nil {
+		return 0
+	}
+	n := 0
+	for b := range c.Population {
+		if b != a && r.Scored[b] && r.RankLow[b] <= r.RankHigh[a] && r.RankLow[a] <= r.RankHigh[b] {
+			n++
+		}
+	}
+	return n
+}
+
+// Neighbours returns inst and the scored institutions nearest it in base
+// rank, up to n on each side, best first (for the rank-interval chart).
+func (c *CompositeYear) Neighbours(inst, n int) []int {
+	r := c.Result
+	var scored []int
+	for a := range c.Population {
+		if r.Scored[a] {
+			scored = append(scored, a)
+		}
+	}
+	sort.SliceStable(scored, func(i, j int) bool { return r.Rank[scored[i]] < r.Rank[scored[j]] })
+	at := -1
+	for i, a := range scored {
+		if c.Population[a] == inst {
+			at = i
+		}
+	}
+	if at < 0 {
+		return nil
+	}
+	lo, hi := max(0, at-n), min(len(scored), at+n+1)
+	out := make([]int, 0, hi-lo)
+	for _, a := range scored[lo:hi] {
+		out = append(out, c.Population[a])
+	}
+	return out
+}
+
 // CompositeMovement returns the focus's movement over the span, if it was
 // scored in two different years.
 func (m *Model) CompositeMovement() (CompositeMovement, bool) {

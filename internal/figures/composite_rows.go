@@ -37,6 +37,10 @@ func (m *Model) addCompositeRows() {
 		y := cy.Year
 		num(k(CompositeOverall, "", y, "n_scored"), float64(r.NScored()))
 		num(k(CompositeOverall, "", y, "n_excluded"), float64(r.Excluded))
+		if r.RankLow != nil {
+			num(k(CompositeOverall, "", y, "runs"), float64(m.CompositeSpec.Runs))
+			num(k(CompositeOverall, "", y, "weight_spread"), m.CompositeSpec.WeightSpread)
+		}
 		imputed := 0
 		for a, i := range cy.Population {
 			if !r.Scored[a] {
@@ -75,6 +79,7 @@ func (m *Model) addCompositeRows() {
 			fid := m.FocusID
 			if r.RankLow != nil {
 				num(k(CompositeOverall, fid, y, "rank_variance"), r.FocusRankVariance)
+				num(k(CompositeOverall, fid, y, "n_overlapping"), float64(cy.Overlapping(m.Focus)))
 			}
 			for _, f := range r.Sensitivity {
 				switch f.Kind {

@@ -23,6 +23,9 @@ type Commentary struct {
 	// Sentences lists every sentence in pack order (the summary, then the
 	// blocks in brief order), for the sources appendix.
 	Sentences []Sentence
+	// Composite is the text of the composite section (composite.go), when
+	// the brief builds a composite.
+	Composite []Paragraph
 
 	// rankBands is the brief's rank_bands, needed to re-read banded ranks;
 	// wording is the language the sentences were written in, needed to
@@ -82,6 +85,10 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 		if cb, ok := blk.(*brief.CommentaryBlock); ok {
 			out.Sentences = append(out.Sentences, collect(out.Blocks[cb])...)
 		}
+	}
+	if m.HasComposite() {
+		out.Composite = c.composite()
+		out.Sentences = append(out.Sentences, collect(out.Composite)...)
 	}
 	if err := checkCites(m, out.Sentences); err != nil {
 		return nil, err

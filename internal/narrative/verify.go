@@ -129,6 +129,9 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	if r.Year != 0 {
 		out = append(out, strconv.Itoa(r.Year))
 	}
+	if r.Section == figures.SectionComposite {
+		return append(out, compositeRenderings(m, r, bands)...)
+	}
 	v := r.Value
 	ind, hasInd := m.Indicator(r.Indicator)
 	whole := int(math.Round(v))

@@ -361,3 +361,51 @@ func validKey(s string) bool {
 	}
 	return true
 }
+
+// CompositeBlock sets the composite section in the body: the commentary
+// on the focus's composite (rank with interval, sensitivity, headroom,
+// movement), the weights stated as value judgements, the charts and the
+// composite's cautions. It needs a composite: section in the front matter.
+type CompositeBlock struct {
+	BlockBase `yaml:",inline"`
+	// Neighbours is how many institutions either side of the focus the
+	// rank-interval chart shows (default 6).
+	Neighbours int `yaml:"neighbours"`
+	// Show lists the parts to set, in the order given; default all.
+	Show []string `yaml:"show"`
+}
+
+// Kind implements Block.
+func (*CompositeBlock) Kind() string { return "composite" }
+
+// CompositeParts are the parts a composite block can show, in the default
+// order.
+var CompositeParts = []string{"text", "intervals", "weights", "flow", "contributions", "headroom", "cautions"}
+
+// DefaultNeighbours is the rank-interval chart's default reach either side
+// of the focus.
+const DefaultNeighbours = 6
+
+func (b *Brief) validateCompositeBlock(v *CompositeBlock, l *diag.List) {
+	p := v.Position()
+	if b.Composite == nil {
+		l.Addf(b.File, p.Line, p.Column, "a composite block needs a composite: section in the front matter (pillars of weighted indicators); see \"Composite scores\" in the README")
+	}
+	if v.Neighbours == 0 {
+		v.Neighbours = DefaultNeighbours
+	} else if v.Neighbours < 1 || v.Neighbours > 30 {
+		l.Addf(b.File, p.Line, p.Column, "composite block: neighbours must lie between 1 and 30")
+	}
+	if len(v.Show) == 0 {
+		v.Show = append([]string(nil), CompositeParts...)
+	}
+	for _, s := range v.Show {
+		if !oneOf(s, CompositeParts) {
+			msg := fmt.Sprintf("composite block: %q is not a part it can show; parts are %s", s, quoteList(CompositeParts))
+			if n := yamlx.Nearest(s, CompositeParts); n != "" {
+				msg = fmt.Sprintf("composite block: %q is not a part it can show; did you mean %q?", s, n)
+			}
+			l.Addf(b.File, p.Line, p.Column, "%s", msg)
+		}
+	}
+}

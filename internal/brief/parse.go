@@ -425,6 +425,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 		blk = &PageBreakBlock{}
 	case "columns":
 		blk = &ColumnsBlock{}
+	case "composite":
+		blk = &CompositeBlock{}
 	default:
 		if s := yamlx.Nearest(info, BlockKinds); s != "" && info != "" {
 			return nil, diag.At(file, fenceLine, 1, "unknown block %q; did you mean %q? (blocks are %s)", info, s, quoteList(BlockKinds))
@@ -452,6 +454,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 		v.At = pos
 	case *ColumnsBlock:
 		v.At = pos
+	case *CompositeBlock:
+		v.At = pos
 	}
 	return blk, nil
 }
@@ -464,6 +468,8 @@ func (b *Brief) validateBlocks() error {
 	}
 	for _, blk := range b.Blocks {
 		switch v := blk.(type) {
+		case *CompositeBlock:
+			b.validateCompositeBlock(v, &l)
 		case *ChartBlock:
 			if v.Type == "" {
 				bad(v, "chart block needs a kind: one of %s", quoteList(ChartKinds))

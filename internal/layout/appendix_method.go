@@ -329,6 +329,15 @@ func (w *writer) annexWeights() {
 // (figures.SectionComposite), its weights and normalisation are to be
 // listed here, each weight stated as the value judgement it is.
 func compositeStatement(m *figures.Model) string {
+	if spec := m.CompositeSpec; spec != nil {
+		if cy, ok := m.Composite(m.Year); ok {
+			var parts []string
+			for q, p := range spec.Pillars {
+				parts = append(parts, fmt.Sprintf("%s %s %%", p.Label, format.Number(100*cy.Result.PillarWeight[q], 0)))
+			}
+			return fmt.Sprintf("The composite score weighs %d indicators in %d pillars (%s); the composite section lists each indicator's weight. These weights are value judgements stated in the brief, not findings, and its ranks move with them, as the intervals show. ", countIndicators(spec), len(spec.Pillars), strings.Join(parts, ", ")) + compositeMethodNote(m, cy)
+		}
+	}
 	return "No composite score is computed in this pack: each indicator is shown on its own, and none is weighted against another. Any composite built from these figures would rest on weights that are value judgements, and its ranks would move with them."
 }
 

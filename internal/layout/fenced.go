@@ -58,6 +58,8 @@ func (w *writer) fencedBlock(n ast.Node, entering bool) ast.WalkStatus {
 		w.commentary(v)
 	case *brief.AppendixBlock:
 		w.appendix(v)
+	case *brief.CompositeBlock:
+		w.compositeBlock(v)
 	case *brief.PageBreakBlock:
 		if !w.atFrameTop() || w.cols > 1 && w.col > 0 {
 			w.cols = 1

@@ -504,3 +504,50 @@ func TestMissingRule(t *testing.T) {
 		t.Errorf("imputed %v excluded %d", res.Imputed, res.Excluded)
 	}
 }
+
+// The radix sort agrees with the standard library's sort on random keys,
+// keys sharing high bytes and duplicates (common practice, no source).
+func TestRadixSort(t *testing.T) {
+	rng := rand.New(rand.NewPCG(1, 2))
+	for _, n := range []int{1, 2, 300, 5000} {
+		for _, mask := range []uint64{^uint64(0), 0xffff, 0x0f0f00} {
+			a := make([]uint64, n)
+			for i := range a {
+				a[i] = 0xabcd000000000000 | rng.Uint64()&mask
+			}
+			want := slices.Clone(a)
+			slices.Sort(want)
+			radixSort(a, make([]uint64, n))
+			if !slices.Equal(a, want) {
+				t.Fatalf("n %d mask %x: radix sort differs", n, mask)
+			}
+		}
+	}
+}
+
+// Ranks agree between the comparison and the radix paths: 300 scores with
+// ties ranked by Ranks and by counting strictly higher scores.
+func TestRanksLarge(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	scores := make([]float64, 300)
+	for i := range scores {
+		scores[i] = math.Round(rng.NormFloat64()*20) / 4
+	}
+	scores[7] = math.NaN()
+	got := make([]int, len(scores))
+	Ranks(scores, got, nil)
+	for i, s := range scores {
+		want := 0
+		if !math.IsNaN(s) {
+			want = 1
+			for _, o := range scores {
+				if o > s {
+					want++
+				}
+			}
+		}
+		if got[i] != want {
+			t.Fatalf("score %g: rank %d, want %d", s, got[i], want)
+		}
+	}
+}

@@ -348,11 +348,12 @@ func aggregate(mat []float64, k int, pillar []int, indW, pilW []float64, geometr
 // as tied, so rounding noise in the last place never splits a tie and the
 // sort runs on plain integers: each key is the score's order-preserving
 // bit pattern, inverted so the highest comes first, with the institution's
-// position in its low bits. keys is scratch space of len(scores), or nil.
+// position in its low bits. keys is scratch space of 2 len(scores), or
+// nil.
 func Ranks(scores []float64, out []int, keys []uint64) {
 	n := len(scores)
-	if len(keys) != n {
-		keys = make([]uint64, n)
+	if len(keys) != 2*n {
+		keys = make([]uint64, 2*n)
 	}
 	shift := uint(bits.Len(uint(n)))
 	mask := uint64(1)<<shift - 1
@@ -366,7 +367,11 @@ func Ranks(scores []float64, out []int, keys []uint64) {
 		valid++
 	}
 	ks := keys[:valid]
-	slices.Sort(ks)
+	if valid < 256 {
+		slices.Sort(ks)
+	} else {
+		radixSort(ks, keys[n:n+valid])
+	}
 	for a := 0; a < valid; {
 		b := a + 1
 		for b < valid && ks[b]&^mask == ks[a]&^mask {
@@ -376,6 +381,42 @@ func Ranks(scores []float64, out []int, keys []uint64) {
 			out[ks[t]&mask] = a + 1
 		}
 		a = b
+	}
+}
+
+// radixSort sorts a ascending by least-significant-digit radix sort on
+// bytes (Knuth, TAOCP vol. 3, 5.2.5), counting all eight digits in one
+// pass and skipping the digits every key shares (the sign and exponent
+// bytes of scores on one scale); tmp is scratch of len(a). It is several
+// times faster than a comparison sort for the Monte Carlo's thousands of
+// keys per run.
+func radixSort(a, tmp []uint64) {
+	var counts [8][256]int
+	for _, k := range a {
+		for d := 0; d < 8; d++ {
+			counts[d][byte(k>>(8*d))]++
+		}
+	}
+	src, dst := a, tmp
+	for d := 0; d < 8; d++ {
+		c := &counts[d]
+		if c[byte(src[0]>>(8*d))] == len(src) {
+			continue // every key has this digit
+		}
+		sum := 0
+		for i := range c {
+			c[i], sum = sum, sum+c[i]
+		}
+		shift := uint(8 * d)
+		for _, k := range src {
+			b := byte(k >> shift)
+			dst[c[b]] = k
+			c[b]++
+		}
+		src, dst = dst, src
+	}
+	if &src[0] != &a[0] {
+		copy(a, src)
 	}
 }
 

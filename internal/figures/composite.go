@@ -122,14 +122,14 @@ func (c *CompositeYear) Neighbours(inst, n int) []int {
 func (m *Model) CompositeMovement() (CompositeMovement, bool) {
 	var first, last *CompositeYear
 	for _, c := range m.composites {
-		if c.Scored(m.Focus) {
+		if c.Scored(m.Focus) && c.Result.RankLow != nil {
 			if first == nil {
 				first = c
 			}
 			last = c
 		}
 	}
-	if first == nil || first == last || last.Result.RankLow == nil {
+	if first == nil || first == last || last.Year != m.Year {
 		return CompositeMovement{}, false
 	}
 	a, b := first.Of(m.Focus), last.Of(m.Focus)
@@ -224,6 +224,7 @@ func (m *Model) computeComposite(b *brief.Brief) error {
 			pop = append(pop, i)
 		}
 	}
+	started := false
 	for _, year := range m.Years {
 		s := *spec
 		cy := &CompositeYear{Year: year, Population: pop, Indicators: inds, Pillar: pillarOf}
@@ -251,7 +252,18 @@ func (m *Model) computeComposite(b *brief.Brief) error {
 		if !any {
 			continue
 		}
+		// Monte Carlo runs only where a rank is printed with its
+		// interval: the brief year and the first year the focus is
+		// scored in (the start of its movement); other years get the
+		// base composite.
+		runs := s.Runs
+		s.Runs = 0
 		res, err := composite.Compute(&s, cy.cols)
+		if err == nil && runs > 0 && (year == m.Year || !started && s.Focus >= 0 && res.Scored[s.Focus]) {
+			started = started || year != m.Year
+			s.Runs = runs
+			res, err = composite.Compute(&s, cy.cols)
+		}
 		if err != nil {
 			p := c.Pos
 			return diag.At(b.File, p.Line, p.Column, "composite, %d: %v", year, err)

@@ -25,7 +25,6 @@ type writer struct {
 	doc  *pdf.Doc
 	st   style
 	src  []byte
-	pass int
 	// measuring is true in the first pass, which only finds where
 	// headings fall: charts are measured, not drawn.
 	measuring bool

@@ -52,7 +52,6 @@ type Doc struct {
 	header    Furniture
 	footer    Furniture
 	plain     map[int]bool
-	nextPlain bool
 	images    int
 	canvasOn  bool
 }

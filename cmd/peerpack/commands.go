@@ -5,6 +5,7 @@ import (
 	"fmt"
 	iofs "io/fs"
 	"path/filepath"
+	"runtime/debug"
 	"strings"
 	"time"
 
@@ -234,7 +235,7 @@ func runNew(ctx context.Context, e *env, args []string) int {
 }
 
 func runVersion(ctx context.Context, e *env, args []string) int {
-	fmt.Fprintf(e.stdout, "peerpack %s\n", version)
+	fmt.Fprint(e.stdout, versionReport(debug.ReadBuildInfo()))
 	return exitOK
 }
 

@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 	"testing/fstest"
-	"unicode/utf8"
 	"time"
+	"unicode/utf8"
 
 	"peerpack/internal/build"
 	"peerpack/internal/demo"

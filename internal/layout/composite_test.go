@@ -26,10 +26,7 @@ func compositePack(t *testing.T) ([]byte, *figures.Model) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	impact, collab := "fwci", "intl_coauthored"
-	if strings.Contains(string(files[demo.DictionaryName]), "key: citation_impact") {
-		impact, collab = "citation_impact", "intl_coauthorship"
-	}
+	impact, collab := "citation_impact", "intl_coauthorship"
 	section := "composite:\n" +
 		"  pillars:\n" +
 		"    - {key: research, label: Research, weight: 2, indicators: {" + impact + ": 2, papers_per_academic: 1}}\n" +

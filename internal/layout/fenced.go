@@ -61,7 +61,7 @@ func (w *writer) fencedBlock(n ast.Node, entering bool) ast.WalkStatus {
 	case *brief.CompositeBlock:
 		w.compositeBlock(v)
 	case *brief.PageBreakBlock:
-		if !w.atFrameTop() || w.cols > 1 && w.col > 0 {
+		if (!w.atFrameTop() || w.cols > 1 && w.col > 0) && !(w.plan.joins(w.section+1) && w.cols <= 1) {
 			w.cols = 1
 			w.newPage()
 		}

@@ -21,11 +21,7 @@ func demoComposite(t *testing.T, uncertainty string) (*figures.Model, *brief.Bri
 	if err != nil {
 		t.Fatal(err)
 	}
-	dict, _ := fs.ReadFile(fsys, demo.DictionaryName)
-	impact, collab := "fwci", "intl_coauthored"
-	if strings.Contains(string(dict), "key: citation_impact") {
-		impact, collab = "citation_impact", "intl_coauthorship"
-	}
+	impact, collab := "citation_impact", "intl_coauthorship"
 	section := "composite:\n" +
 		"  pillars:\n" +
 		"    - {key: research, label: Research, weight: 2, indicators: {" + impact + ": 2, papers_per_academic: 1}}\n" +

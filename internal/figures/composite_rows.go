@@ -12,9 +12,10 @@ const (
 )
 
 // compositeRows writes the composite: per year and scored institution the
-// overall score, rank and Monte Carlo rank_median, rank_low, rank_high
-// (5th and 95th percentiles), imputed and missing counts, and each
-// pillar's score and rank; per year the weights (as normalised), the skew
+// overall score, rank and, where runs were made, the Monte Carlo
+// rank_median, rank_low, rank_high (5th and 95th percentiles); in the
+// brief year also the imputed and missing counts and each pillar's score
+// and rank; per year the weights (as normalised), the skew
 // diagnosis and treatment of each indicator, the method; for the focus the
 // sensitivity of its rank, its headroom and its movement over the span.
 //
@@ -54,6 +55,9 @@ func (m *Model) addCompositeRows() {
 				num(k(CompositeOverall, id, y, "rank_median"), float64(r.RankMedian[a]))
 				num(k(CompositeOverall, id, y, "rank_low"), float64(r.RankLow[a]))
 				num(k(CompositeOverall, id, y, "rank_high"), float64(r.RankHigh[a]))
+			}
+			if y != m.Year {
+				continue // other span years: the overall score and rank, for movement
 			}
 			num(k(CompositeOverall, id, y, "imputed"), float64(r.Imputed[a]))
 			num(k(CompositeOverall, id, y, "missing"), float64(r.Missing(a)))

@@ -127,7 +127,9 @@ func TestMethodologyAppendixFromTheBrief(t *testing.T) {
 		"How the figures are computed", "Coverage by group", "Weights", "Limits of these figures",
 		// The PPP file the brief names and what its factors are.
 		"The factors are read from ppp.csv", "local currency units per international dollar",
-		"No composite score is computed in this pack",
+		// The demo builds a composite: its weights are stated as judgements.
+		"The composite score weighs 14 indicators in 5 pillars (Research 30 %, Collaboration 10 %, People 20 %, Student outcomes 30 %, Knowledge exchange 10 %)",
+		"These weights are value judgements stated in the brief",
 		// The dictionary's judgement note, with the indicator.
 		"Students per academic. Students divided by academic staff, both full-time equivalent.",
 		"Value judgement: Fewer students per academic is read as more staff time per student",

@@ -33,8 +33,11 @@ func compositePack(t *testing.T) ([]byte, *figures.Model) {
 		"    - {key: reach, label: Reach, weight: 1, indicators: {" + collab + ": 1}}\n" +
 		"    - {key: teaching, label: Teaching, weight: 1, indicators: {students_per_academic: 1}}\n" +
 		"  uncertainty: {runs: 300, weights: 0.25, normalise: [zscore, percentile], seed: 5}\n"
-	src := strings.Replace(string(files[demo.BriefName]), "\ngroups:", "\n"+section+"groups:", 1)
-	src += "\n# Composite score\n\n```composite\nneighbours: 4\n```\n\n```appendix\nkind: methodology\n```\n"
+	src := strings.Replace(withoutComposite(string(files[demo.BriefName])), "\ngroups:", "\n"+section+"groups:", 1)
+	if !strings.Contains(src, "```composite") {
+		src += "\n# Composite score\n\n```composite\nneighbours: 4\n```\n"
+	}
+	src += "\n```appendix\nkind: methodology\n```\n"
 	fsys := fstest.MapFS{}
 	for k, v := range files {
 		fsys[k] = &fstest.MapFile{Data: v}
@@ -107,4 +110,22 @@ func TestCompositeSection(t *testing.T) {
 			t.Errorf("word %q at x %.1f–%.1f lies outside the type area", w[3], x0, x1)
 		}
 	}
+}
+
+// withoutComposite drops a composite: section from a brief's front matter.
+func withoutComposite(src string) string {
+	var out []string
+	skip := false
+	for _, l := range strings.Split(src, "\n") {
+		if strings.HasPrefix(l, "composite:") {
+			skip = true
+			continue
+		}
+		if skip && (strings.HasPrefix(l, " ") || l == "") {
+			continue
+		}
+		skip = false
+		out = append(out, l)
+	}
+	return strings.Join(out, "\n")
 }

@@ -28,7 +28,7 @@ func demoComposite(t *testing.T, uncertainty string) (*figures.Model, *brief.Bri
 		"    - {key: reach, label: Reach, weight: 1, indicators: {" + collab + ": 1}}\n" +
 		"    - {key: teaching, label: Teaching, weight: 1, indicators: {students_per_academic: 1}}\n" +
 		"  uncertainty: " + uncertainty + "\n"
-	src := strings.Replace(string(raw), "\ngroups:", "\n"+section+"groups:", 1)
+	src := strings.Replace(withoutComposite(string(raw)), "\ngroups:", "\n"+section+"groups:", 1)
 	b, err := brief.Parse("brief.md", []byte(src))
 	if err != nil {
 		t.Fatalf("brief: %v", err)
@@ -76,4 +76,22 @@ func TestCompositeTextTraceable(t *testing.T) {
 		}
 		t.Logf("%s:\n%s", c.uncertainty, strings.Join(all, "\n"))
 	}
+}
+
+// withoutComposite drops a composite: section from a brief's front matter.
+func withoutComposite(src string) string {
+	var out []string
+	skip := false
+	for _, l := range strings.Split(src, "\n") {
+		if strings.HasPrefix(l, "composite:") {
+			skip = true
+			continue
+		}
+		if skip && (strings.HasPrefix(l, " ") || l == "") {
+			continue
+		}
+		skip = false
+		out = append(out, l)
+	}
+	return strings.Join(out, "\n")
 }

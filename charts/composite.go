@@ -294,7 +294,7 @@ func (ch *FlowChart) Draw(c draw.Canvas) error {
 	labW := W * 0.36
 	nodeW := vg.Points(7)
 	xInd := c.Min.X + labW
-	xPil := c.Min.X + W*0.62
+	xPil := c.Min.X + W*0.55
 	xAll := c.Max.X - min(bold.Width(ch.Overall)+vg.Points(8), W*0.2) - nodeW
 	gap := vg.Points(5)
 	// stacked node positions, heights proportional to weight

@@ -133,6 +133,7 @@ func FuzzFrontMatter(f *testing.F) {
 	f.Add([]byte("---\n---\n"))
 	f.Add([]byte("---\ngroups: [{name: a, where: {x: {not: [1, 2]}}}]\n---\n"))
 	f.Add([]byte("---\nyears: [1]\n---\n"))
+	f.Add([]byte(compositeFront))
 	f.Fuzz(func(t *testing.T, src []byte) {
 		Parse("brief.md", src)
 	})
@@ -144,6 +145,7 @@ func FuzzBlockYAML(f *testing.F) {
 	f.Add("table", []byte("kind: peers\nlimit: 10\n"))
 	f.Add("commentary", []byte("style: bullets\nyears: [2020, 2024]\n"))
 	f.Add("columns", []byte("count: 2\n"))
+	f.Add("composite", []byte("neighbours: 4\nshow: [text, flow]\n"))
 	f.Fuzz(func(t *testing.T, kind string, src []byte) {
 		DecodeBlock("brief.md", kind, src, 10)
 	})

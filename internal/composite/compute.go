@@ -434,13 +434,6 @@ func orderedBits(f float64) uint64 {
 	return u | 1<<63
 }
 
-func b2i(b bool) int {
-	if b {
-		return 1
-	}
-	return 0
-}
-
 // base fills the base scores and ranks.
 func (r *Result) base() {
 	pr := r.prep

@@ -124,9 +124,16 @@ func (r *Result) monteCarlo() error {
 				counts[rk-1]++
 			}
 		}
-		r.RankLow[i] = histQuantile(counts, runs, 0.05)
-		r.RankMedian[i] = histQuantile(counts, runs, 0.5)
-		r.RankHigh[i] = histQuantile(counts, runs, 0.95)
+		// Runs in which the institution had no score (values that no
+		// scale could place, such as overflowing extremes) are not
+		// counted.
+		valid := 0
+		for _, c := range counts {
+			valid += int(c)
+		}
+		r.RankLow[i] = histQuantile(counts, valid, 0.05)
+		r.RankMedian[i] = histQuantile(counts, valid, 0.5)
+		r.RankHigh[i] = histQuantile(counts, valid, 0.95)
 	}
 	if focus < 0 {
 		return nil
@@ -178,6 +185,9 @@ func (pr *prepared) imputeIndex(opt int) int {
 // quantile(type = 1)): the smallest rank whose cumulative count reaches
 // ceil(p n), so every bound is a rank that occurred.
 func histQuantile(counts []int32, n int, p float64) int {
+	if n == 0 {
+		return 0
+	}
 	need := int64(math.Ceil(p*float64(n) - 1e-9))
 	if need < 1 {
 		need = 1

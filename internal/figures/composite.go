@@ -69,7 +69,7 @@ func (c *CompositeYear) Of(inst int) int {
 // Scored reports whether inst has a composite score in the year.
 func (c *CompositeYear) Scored(inst int) bool {
 	a := c.Of(inst)
-	return a >= 0 && c.Result.Scored[a]
+	return a >= 0 && c.Result.Scored[a] && c.Result.Rank[a] > 0
 }
 
 // Overlapping counts the other scored institutions whose Monte Carlo rank
@@ -269,7 +269,7 @@ func (m *Model) computeComposite(b *brief.Brief) error {
 			return diag.At(b.File, p.Line, p.Column, "composite, %d: %v", year, err)
 		}
 		cy.Result = res
-		if year == m.Year && s.Focus >= 0 && res.Scored[s.Focus] {
+		if year == m.Year && s.Focus >= 0 && res.Scored[s.Focus] && res.Rank[s.Focus] > 0 {
 			cy.headroom(s.Focus, b)
 		}
 		m.composites = append(m.composites, cy)

@@ -44,8 +44,8 @@ func (m *Model) addCompositeRows() {
 		}
 		imputed := 0
 		for a, i := range cy.Population {
-			if !r.Scored[a] {
-				continue
+			if !r.Scored[a] || r.Rank[a] == 0 {
+				continue // no score (values no scale could place)
 			}
 			id := m.InstitutionID(i)
 			imputed += r.Imputed[a]
@@ -79,7 +79,7 @@ func (m *Model) addCompositeRows() {
 			num(k(ind.Key, "", y, "skewed"), oneIf(sk.Skewed))
 			text(k(ind.Key, "", y, "skew_treatment"), SkewTreatmentText(sk.Treated, sk.Winsorised))
 		}
-		if cy.Of(m.Focus) >= 0 && r.Scored[cy.Of(m.Focus)] {
+		if cy.Scored(m.Focus) {
 			fid := m.FocusID
 			if r.RankLow != nil {
 				num(k(CompositeOverall, fid, y, "rank_variance"), r.FocusRankVariance)

@@ -34,6 +34,8 @@ func compositePack(t *testing.T) ([]byte, *figures.Model) {
 		"    - {key: teaching, label: Teaching, weight: 1, indicators: {students_per_academic: 1}}\n" +
 		"  uncertainty: {runs: 300, weights: 0.25, normalise: [zscore, percentile], seed: 5}\n"
 	src := strings.Replace(withoutComposite(string(files[demo.BriefName])), "\ngroups:", "\n"+section+"groups:", 1)
+	// every part, whatever the template chooses to show
+	src = regexp.MustCompile("(```composite\n)show: [^\n]*\n").ReplaceAllString(src, "$1")
 	if !strings.Contains(src, "```composite") {
 		src += "\n# Composite score\n\n```composite\nneighbours: 4\n```\n"
 	}

@@ -25,7 +25,7 @@ groups:
   - name: Chosen peers
     members: [KE007, AL022]
   - name: Profile peers
-    nearest: {count: 15, indicators: [fwci, papers_per_academic]}
+    nearest: {count: 15, indicators: [fnci, papers_per_academic]}
 population:
   min_total:
     - {indicator: papers, years: 5, at_least: 1000}
@@ -39,7 +39,7 @@ Some text.
 
 ` + "```chart" + `
 kind: box
-indicators: [intl_staff_share, fwci]
+indicators: [intl_staff_share, fnci]
 groups: [Home sector]
 caption: International staff
 ` + "```" + `

@@ -322,7 +322,7 @@ func (b *Brief) validateFrontMatter() error {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest or each (each may carry a where)", g.Name)
 		}
 		if g.Nearest != nil && (g.Nearest.Count < 1 || len(g.Nearest.Indicators) == 0) {
-			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: nearest needs a count of at least 1 and a list of indicators, e.g. nearest: {count: 15, indicators: [fwci, papers_per_academic]}", g.Name)
+			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: nearest needs a count of at least 1 and a list of indicators, e.g. nearest: {count: 15, indicators: [fnci, papers_per_academic]}", g.Name)
 		}
 		switch g.Over {
 		case "", "ranked", "all":

@@ -30,10 +30,10 @@ func TestPopulationTextNumbers(t *testing.T) {
 	}
 	for label, want := range map[string]string{
 		"Papers":                         "papers",
-		"FWCI":                           "FWCI",
+		"FNCI":                           "FNCI",
 		"PhD completions":                "PhD completions",
 		"A-level entrants":               "A-level entrants",
-		"Field-weighted citation impact": "field-weighted citation impact",
+		"Field-normalised citation impact": "field-normalised citation impact",
 	} {
 		if got := runningText(Indicator{Key: "k", Label: label}); got != want {
 			t.Errorf("runningText(%q) = %q, want %q", label, got, want)

@@ -15,7 +15,7 @@ import (
 // margin (20 mm): the panel starts at 210 - 20 - 46 = 144 mm = 408.2 pt.
 func TestCoverOrganisationClearsLogo(t *testing.T) {
 	org := "Université de Saint-Éluard, Office of Strategic Planning, Institutional Research and International Benchmarking"
-	src := bytes.Replace(fixtureBody(t, "# Results\n\nImpact is {=value fwci}.\n"),
+	src := bytes.Replace(fixtureBody(t, "# Results\n\nImpact is {=value fnci}.\n"),
 		[]byte("organisation: Université de Saint-Éluard"), []byte("organisation: "+org+"\n  logo: logo.png"), 1)
 	in := fixtureInputFrom(t, 30, src)
 	in.FS = fstest.MapFS{"logo.png": {Data: testPNG(t, 300, 150)}}

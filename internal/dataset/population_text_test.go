@@ -29,10 +29,10 @@ func TestPopulationTextNumbers(t *testing.T) {
 		t.Errorf("yearRange = %q", got)
 	}
 	for label, want := range map[string]string{
-		"Papers":                         "papers",
-		"FNCI":                           "FNCI",
-		"PhD completions":                "PhD completions",
-		"A-level entrants":               "A-level entrants",
+		"Papers":                           "papers",
+		"FNCI":                             "FNCI",
+		"PhD completions":                  "PhD completions",
+		"A-level entrants":                 "A-level entrants",
 		"Field-normalised citation impact": "field-normalised citation impact",
 	} {
 		if got := runningText(Indicator{Key: "k", Label: label}); got != want {

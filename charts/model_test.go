@@ -180,7 +180,7 @@ func TestBlockErrors(t *testing.T) {
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fnci"}, Groups: []string{"Kestria nationl"}}, `group "Kestria nationl" is not defined in the brief (did you mean "Kestria national"?)`},
 		{brief.ChartBlock{Type: "scatter", Indicators: []string{"fnci"}}, "a scatter takes exactly two indicators, x then y; found 1"},
 		{brief.ChartBlock{Type: "radar", Indicators: []string{"fnci", "ssr"}}, "a radar needs at least three indicators; found 2"},
-		{brief.ChartBlock{Type: "radar", Indicators: []string{"fnci", "ssr", "income"}, Scale: "log"}, `scale "log": use percentile or range`},
+		{brief.ChartBlock{Type: "radar", Indicators: []string{"fnci", "ssr", "income"}, Scale: "log"}, `scale "log": use percentile, range or common`},
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fnci"}, Label: []string{"XX999"}}, `label "XX999" is neither a register id nor an institution name`},
 	} {
 		spec := c.spec

@@ -221,7 +221,7 @@ func (b *Brief) setGroupPositions(root *yaml.Node) error {
 }
 
 var ruleExample = map[string]string{
-	"min_total": "{indicator: papers, years: 5, at_least: 1000}",
+	"min_total": "{indicator: papers, years: 3, at_least: 600}",
 	"max_value": "{indicator: top_subject_share, at_most: 80}",
 }
 

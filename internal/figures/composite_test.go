@@ -14,7 +14,7 @@ const fixtureComposite = `composite:
   pillars:
     - key: research
       weight: 2
-      indicators: {fwci: 1}
+      indicators: {fnci: 1}
     - key: teaching
       weight: 1
       indicators: {students_per_academic: 1, intl_share: 1}
@@ -56,7 +56,7 @@ func TestCompositeFromZScores(t *testing.T) {
 		}
 		return p.Z
 	}
-	want := 2.0/3*z("fwci") + 1.0/3*(0.5*-z("students_per_academic")+0.5*z("intl_share"))
+	want := 2.0/3*z("fnci") + 1.0/3*(0.5*-z("students_per_academic")+0.5*z("intl_share"))
 	row, ok := m.Lookup(Key{Section: SectionComposite, Indicator: "overall", Institution: m.FocusID, Year: 2025, Measure: "score"})
 	if !ok {
 		t.Fatal("no composite score for the focus")
@@ -75,7 +75,7 @@ func TestCompositeFromZScores(t *testing.T) {
 	}
 	for _, k := range []Key{
 		{Section: SectionComposite, Indicator: "teaching", Institution: m.FocusID, Year: 2025, Measure: "rank"},
-		{Section: SectionComposite, Indicator: "fwci", Year: 2025, Measure: "skew_treatment"},
+		{Section: SectionComposite, Indicator: "fnci", Year: 2025, Measure: "skew_treatment"},
 		{Section: SectionComposite, Indicator: "teaching", Year: 2025, Measure: "weight"},
 		{Section: SectionComposite, Indicator: "overall", Year: 2025, Measure: "n_excluded"},
 	} {
@@ -92,8 +92,8 @@ func TestCompositeFromZScores(t *testing.T) {
 func TestCompositeCheck(t *testing.T) {
 	d, _ := loadFixture(t)
 	for _, c := range []struct{ from, to, want string }{
-		{"fwci: 1", "size: 1", "composite pillar research: size is neutral"},
-		{"fwci: 1", "fcwi: 1", "indicator \"fcwi\" is not in the dictionary indicators.yaml; did you mean \"fwci\"?"},
+		{"fnci: 1", "size: 1", "composite pillar research: size is neutral"},
+		{"fnci: 1", "fcni: 1", "indicator \"fcni\" is not in the dictionary indicators.yaml; did you mean \"fnci\"?"},
 		{"  missing:", "  normalise: {distance: Chosen peer}\n  missing:", "the distance group \"Chosen peer\" is not defined under groups:; did you mean \"Chosen peers\"?"},
 	} {
 		b := withComposite(t, strings.Replace(fixtureComposite, c.from, c.to, 1))

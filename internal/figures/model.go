@@ -214,6 +214,12 @@ type Trend struct {
 	// RankChange is positive when the rank improved (moved towards 1).
 	RankChange       int
 	PercentileChange float64
+	// PercentileMove is |PercentileChange|, so "the largest movement" can
+	// be checked figure against figure; ChangePerIQR is |Change| over the
+	// group's interquartile range in the last year (NaN when that is 0),
+	// so "broadly unchanged" can be checked against the noise share.
+	PercentileMove float64
+	ChangePerIQR   float64
 	// StartOf and EndOf are the group sizes with a value in the first and
 	// last year; when they differ a lot, statements compare percentiles.
 	StartOf, EndOf int

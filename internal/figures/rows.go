@@ -171,6 +171,10 @@ func (m *Model) Rows() []Row {
 		if !math.IsNaN(t.PercentileChange) {
 			num(tk("rank_change"), float64(t.RankChange))
 			num(tk("percentile_change"), t.PercentileChange)
+			num(tk("percentile_move"), t.PercentileMove)
+		}
+		if !math.IsNaN(t.ChangePerIQR) {
+			num(tk("change_per_iqr"), t.ChangePerIQR)
 		}
 		num(tk("median_change"), t.MedianChange)
 		num(tk("prefer_percentiles"), flag(t.PreferPercentiles))

@@ -158,6 +158,9 @@ func (c *composer) next(kind string) (string, int) {
 	return k, t
 }
 
+// noise is the noise rule in percentile points (see PercentileNoise).
+func (c *composer) noise() float64 { return PercentileNoise }
+
 // phrase is how sentences name a group: the brief's phrase, else the
 // wording's default for the group's name.
 func (c *composer) phrase(g *figures.Group) string { return c.w.GroupPhrase(g) }

@@ -38,7 +38,13 @@ func (c *composer) placements(sc *scope, g *figures.Group) []placed {
 // each; MoreTop and MoreBottom count those left out of the lists. named
 // records every indicator of both quarters, listed or counted, so the
 // strengths and risks that follow do not repeat them.
-func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, named map[string]bool, cites []figures.Key) {
+//
+// claims holds one claim per placed indicator: quartile 1 for each in the
+// top quarter, 4 for each in the bottom quarter (listed or counted), and,
+// for the rest, that it is in neither quarter the sentence says is empty
+// ("with no indicator in the bottom quarter", "in the middle half on
+// every indicator").
+func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, named map[string]bool, cites []figures.Key, claims []Claim) {
 	var hi, lo []placed
 	for _, x := range ps {
 		switch x.p.Quartile {
@@ -50,6 +56,17 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 	}
 	sort.SliceStable(hi, func(i, j int) bool { return hi[i].p.Percentile > hi[j].p.Percentile })
 	sort.SliceStable(lo, func(i, j int) bool { return lo[i].p.Percentile < lo[j].p.Percentile })
+	qk := func(x placed) Operand { return Fig(posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile)) }
+	for _, x := range ps {
+		switch x.p.Quartile {
+		case 1:
+			claims = append(claims, Claimed(qk(x), OpEqual, Num(1)))
+		case 4:
+			claims = append(claims, Claimed(qk(x), OpEqual, Num(4)))
+		default:
+			claims = append(claims, Claimed(qk(x), OpNotEqual, Num(1)), Claimed(qk(x), OpNotEqual, Num(4)))
+		}
+	}
 	named = map[string]bool{}
 	for _, x := range append(append([]placed(nil), hi...), lo...) {
 		// Counted in "and two other indicators" too: never named again.
@@ -76,7 +93,7 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 	for _, x := range lo {
 		f.Bottom = append(f.Bottom, item(x))
 	}
-	return f, named, cites
+	return f, named, cites, claims
 }
 
 // overview says, within the reference group, which indicators are in the
@@ -92,9 +109,9 @@ func (c *composer) overview(sc *scope) ([]Sentence, *OverviewFact) {
 	if len(ps) == 0 {
 		return nil, nil
 	}
-	f, named, cites := c.quarters(g, ps)
+	f, named, cites, claims := c.quarters(g, ps)
 	f.Seed, f.Focus, f.Group, f.named = g.Name, c.focus, c.phrase(g), named
-	s := c.say("", c.w.Overview(f), cites...)
+	s := c.say("", c.w.Overview(f), cites...).claim(claims...)
 	s.Thresholds = listCounts(f.MoreTop, f.MoreBottom)
 	return []Sentence{s}, &f
 }
@@ -134,18 +151,18 @@ func (c *composer) strengthsAndRisks(sc *scope, ov *OverviewFact) []Sentence {
 			fd.Also, fd.More = len(ov.Bottom) > 0, len(down)-len(fd.Items)
 			cites = append(cites, k...)
 		}
-		s := c.say("", c.w.AboveBelow(fu, fd), cites...)
+		s := c.say("", c.w.AboveBelow(fu, fd), cites...).claim(append(c.rankedClaims(g, up, true), c.rankedClaims(g, down, false)...)...)
 		s.Thresholds = listCounts(fu.More, fd.More)
 		return []Sentence{s}
 	}
 	var out []Sentence
 	if len(up) > 0 {
 		f, cites := c.ranked(g, up)
-		out = append(out, c.say("", c.w.Strengths(f), cites...))
+		out = append(out, c.say("", c.w.Strengths(f), cites...).claim(c.rankedClaims(g, up[:len(f.Items)], true)...))
 	}
 	if len(down) > 0 {
 		f, cites := c.ranked(g, down)
-		out = append(out, c.say("", c.w.Risks(f), cites...))
+		out = append(out, c.say("", c.w.Risks(f), cites...).claim(c.rankedClaims(g, down[:len(f.Items)], false)...))
 	}
 	return out
 }
@@ -206,12 +223,14 @@ func (c *composer) riskGaps(sc *scope, groupNamed bool) []Sentence {
 	}
 	var facts []GapFact
 	var cites []figures.Key
+	var claims []Claim
 	about := ""
 	for _, x := range down {
 		if f, k, ok := c.gapFact(sc.ref, x.ind, sc.year); ok {
 			facts = append(facts, f)
 			about = x.ind.Key
 			cites = append(cites, k...)
+			claims = append(claims, c.gapClaims(sc.ref, x.ind, sc.year)...)
 		}
 	}
 	if len(facts) == 0 {
@@ -223,7 +242,22 @@ func (c *composer) riskGaps(sc *scope, groupNamed bool) []Sentence {
 	// Even one gap goes through GapList: in a summary there is no run-in
 	// heading to name the indicator, so the sentence must.
 	facts[0].GroupNamed = groupNamed
-	return []Sentence{c.say(about, c.w.GapList(facts), cites...)}
+	return []Sentence{c.say(about, c.w.GapList(facts), cites...).claim(claims...)}
+}
+
+// rankedClaims: every indicator of an above-the-middle list (up) has a
+// percentile over 50, every one of a below list under 50, whether named
+// or counted ("and two other indicators").
+func (c *composer) rankedClaims(g *figures.Group, xs []placed, up bool) []Claim {
+	op := OpLess
+	if up {
+		op = OpGreater
+	}
+	var out []Claim
+	for _, x := range xs {
+		out = append(out, Claimed(Fig(posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mPercentile)), op, Num(50)))
+	}
+	return out
 }
 
 func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.Key) {
@@ -241,7 +275,11 @@ func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.
 }
 
 // headline names the judged indicator whose percentile in the reference
-// group moved most over the span.
+// group moved most over the span, when that movement is at least the
+// noise rule. It records one claim per other indicator compared (its
+// percentile_move at most the headline's), so "the largest movement"
+// holds over every indicator it was weighed against; only trends over
+// their own years, which have a percentile_move figure, are weighed.
 //
 // groupNamed says an earlier sentence of the paragraph has named the group.
 func (c *composer) headline(sc *scope, groupNamed bool) []Sentence {
@@ -249,26 +287,35 @@ func (c *composer) headline(sc *scope, groupNamed bool) []Sentence {
 	if g == nil {
 		return nil
 	}
-	best, bestMove := changeData{}, 0.0
+	best, bestMove := changeData{}, -1.0
 	var bestInd dataset.Indicator
+	var weighed []dataset.Indicator
 	for _, ind := range sc.inds {
 		if !judged(ind) {
 			continue
 		}
 		cd, ok := c.changeData(sc, g, ind)
-		if !ok || !cd.hasPct || cd.f.PctDirection == Level {
+		if !ok || !cd.hasPct || !cd.useTrend || math.IsNaN(cd.t.PercentileMove) {
 			continue
 		}
-		move := math.Abs(math.Round(cd.p1.Percentile) - math.Round(cd.p0.Percentile))
-		if move > bestMove {
-			best, bestMove, bestInd = cd, move, ind
+		weighed = append(weighed, ind)
+		if cd.t.PercentileMove > bestMove {
+			best, bestMove, bestInd = cd, cd.t.PercentileMove, ind
 		}
 	}
-	if bestMove == 0 {
+	if bestMove < c.noise() || best.f.PctDirection == Level {
 		return nil
 	}
 	id := c.m.FocusID
 	best.f.GroupNamed = groupNamed
+	mk := func(ind dataset.Indicator) Operand { return Fig(trendKey(g.Name, ind.Key, id, "percentile_move")) }
+	claims := []Claim{Claimed(mk(bestInd), OpGreaterEq, Num(c.noise()))}
+	for _, ind := range weighed {
+		if ind.Key != bestInd.Key {
+			claims = append(claims, Claimed(mk(bestInd), OpGreaterEq, mk(ind)))
+		}
+	}
+	claims = append(claims, c.percentileChangeClaims(g, bestInd, best)...)
 	return []Sentence{c.say(bestInd.Key, c.w.Headline(best.f),
-		posKey(g.Name, bestInd.Key, id, best.p0.Year, mPercentile), posKey(g.Name, bestInd.Key, id, best.p1.Year, mPercentile))}
+		posKey(g.Name, bestInd.Key, id, best.p0.Year, mPercentile), posKey(g.Name, bestInd.Key, id, best.p1.Year, mPercentile)).claim(claims...)}
 }

@@ -54,7 +54,9 @@ func withinNoise(ind dataset.Indicator, change, iqr float64) bool {
 	if format.Round(change, ind.Decimals) == 0 {
 		return true
 	}
-	return !math.IsNaN(iqr) && iqr > 0 && math.Abs(change) < NoiseIQRShare*iqr
+	// Divided as the figures model's change_per_iqr is, so the claim
+	// recorded compares the very number decided on.
+	return !math.IsNaN(iqr) && iqr > 0 && math.Abs(change)/iqr < NoiseIQRShare
 }
 
 // direction of a change: Above (up), Below (down) or Level (noise).

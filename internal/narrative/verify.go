@@ -20,7 +20,8 @@ import (
 // ordinal or its band, a count, a percentile as an ordinal, a year of a
 // cited figure), or one of the method thresholds the sentence declares.
 // Digits inside names (groups, institutions, countries, indicator labels,
-// judgement notes) are not numbers. It returns every problem found.
+// judgement notes) are not numbers. Every claim a sentence records must
+// hold in the model (claims.go). It returns every problem found.
 func Verify(m *figures.Model, c *Commentary) error {
 	if m == nil || c == nil {
 		return fmt.Errorf("internal error: nothing to verify")
@@ -51,6 +52,9 @@ func Verify(m *figures.Model, c *Commentary) error {
 		sort.SliceStable(forms, func(i, j int) bool { return len(forms[i]) > len(forms[j]) })
 		for _, f := range forms {
 			text = removeNumber(text, f)
+		}
+		for _, err := range verifyClaims(m, s) {
+			probs.Add(err)
 		}
 		if n := firstNumber(text); n != "" {
 			probs.Add(fmt.Errorf("commentary (%s): the sentence %q prints %q, which none of its cited figures (%s) gives", s.Part, s.Text, n, keyList(s.Cites)))

@@ -260,6 +260,9 @@ type CompetitionFact struct {
 	// Ahead lists the indicators where the system's median is better
 	// than the focus, with both printed values.
 	Ahead []AheadItem
+	// Level lists the indicators where the system's median is ahead by
+	// less than the data carries (the noise rule): level, not a lead.
+	Level []AheadItem
 }
 
 // AheadItem is one indicator where a competitor median leads.

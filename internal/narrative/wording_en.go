@@ -558,8 +558,21 @@ func (e english) CompetitionAhead(f CompetitionFact) string {
 		"The median of {system} is ahead on {items}.",
 		"{system's} median leads {focus} on {items}.",
 	}
-	return e.fill(tmpl[variant(f.Seed+"/ahead", len(tmpl))],
+	level := ""
+	if len(f.Level) > 0 {
+		level = ", and level with it, within year-to-year noise, on " + e.aheadItems(f.Level)
+	}
+	return e.fill(strings.TrimSuffix(tmpl[variant(f.Seed+"/ahead", len(tmpl))], ".")+level+".",
 		"system", f.System, "system's", possessive(f.System), "focus", f.Focus, "items", e.List(parts))
+}
+
+// aheadItems lists indicators with the median and the focus's value.
+func (e english) aheadItems(items []AheadItem) string {
+	parts := make([]string, len(items))
+	for i, a := range items {
+		parts[i] = a.Indicator + " (" + a.Median + " against " + a.Value + ")"
+	}
+	return e.List(parts)
 }
 
 // CompetitionShared: a lead every system shares, said once.
@@ -574,6 +587,14 @@ func (e english) CompetitionShared(f CompetitionFact) string {
 
 // CompetitionBehind: the competitor's median leads nowhere.
 func (e english) CompetitionBehind(f CompetitionFact) string {
+	if len(f.Level) > 0 {
+		rest := "any other indicator here"
+		if f.Others {
+			rest = "any of the remaining indicators here"
+		}
+		return e.fill("{system's} median is level with {focus}, within year-to-year noise, on {items}, and not ahead on "+rest+".",
+			"system's", possessive(f.System), "focus", f.Focus, "items", e.aheadItems(f.Level))
+	}
 	if f.Others {
 		return e.fill("{system's} median is not ahead of {focus} on any other indicator here.",
 			"system's", possessive(f.System), "focus", f.Focus)

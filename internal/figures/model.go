@@ -74,6 +74,10 @@ type Model struct {
 	Years       []int
 	// Method is the quantile definition used.
 	Method stats.QuantileMethod
+	// Floor is the brief's small-group floor (brief.SmallGroupFloor):
+	// a distribution with fewer values than this is flagged
+	// (below_floor = 1) and packs print no quarters or percentiles for it.
+	Floor int
 
 	// Groups are the resolved comparison groups in brief order ("each"
 	// groups expanded in place).
@@ -324,6 +328,10 @@ func (m *Model) Indicator(key string) (dataset.Indicator, bool) {
 func (m *Model) InstitutionID(inst int) string {
 	return m.Data.Register.Institutions[inst].ID
 }
+
+// BelowFloor reports whether a distribution has fewer values than the
+// small-group floor (and at least one).
+func (m *Model) BelowFloor(d *Distribution) bool { return d != nil && d.N > 0 && d.N < m.Floor }
 
 // Add appends rows from a later stage (commentary, composite, ...).
 func (m *Model) Add(rows ...Row) {

@@ -110,6 +110,9 @@ func (m *Model) Rows() []Row {
 		num(dk("mean"), d.Mean)
 		num(dk("sd"), d.SD)
 		num(dk("n_outliers"), float64(len(d.Outliers)))
+		if d.N > 0 {
+			num(dk("below_floor"), flag(m.BelowFloor(d)))
+		}
 		col := m.Data.Column(m.Data.Dictionary.Index(d.Indicator), d.Year)
 		for _, i := range d.Outliers {
 			k := dk("outlier")

@@ -225,7 +225,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 				case "percentile":
 					cl.text = "–"
 					if has {
-						cl.text = format.Ordinal(int(format.Round(pos.Percentile, 0)))
+						cl.text = format.Ordinal(format.PercentileRank(pos.Percentile))
 					}
 				case "quarter":
 					cl.text = "–"

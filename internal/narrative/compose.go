@@ -3,6 +3,7 @@ package narrative
 import (
 	"errors"
 	"fmt"
+	"math"
 	"strings"
 
 	"peerpack/internal/brief"
@@ -158,8 +159,80 @@ func (c *composer) next(kind string) (string, int) {
 	return k, t
 }
 
-// noise is the noise rule in percentile points (see PercentileNoise).
-func (c *composer) noise() float64 { return PercentileNoise }
+// noise is the brief's noise rule in percentile points
+// (brief.NoiseRule, default PercentileNoise).
+func (c *composer) noise() float64 { return c.b.NoiseRule() }
+
+// floor is the brief's small-group floor (brief.SmallGroupFloor, default
+// SmallGroup): a distribution with fewer values gets ranks "of n" and no
+// quarters or percentiles.
+func (c *composer) floor() int {
+	if c.m.Floor > 0 {
+		return c.m.Floor
+	}
+	return c.b.SmallGroupFloor()
+}
+
+// small reports whether a distribution is below the small-group floor.
+func (c *composer) small(d *figures.Distribution) bool { return d != nil && d.N > 0 && d.N < c.floor() }
+
+// edge is the quarter boundary a percentile lies within the noise rule
+// of: 1 for the top quarter's (75), 4 for the bottom quarter's (25), 0
+// for neither. Such a position is "at the edge of" that quarter rather
+// than in or out of it.
+func (c *composer) edge(pct float64) int {
+	switch n := c.noise(); {
+	case n <= 0 || math.IsNaN(pct):
+		return 0
+	case math.Abs(pct-75) <= n:
+		return 1
+	case math.Abs(pct-25) <= n:
+		return 4
+	}
+	return 0
+}
+
+// edgeClaims: the percentile lies within the noise rule of the boundary
+// edge names (bounds included).
+func (c *composer) edgeClaims(pct figures.Key, edge int) []Claim {
+	b := 75.0
+	if edge == 4 {
+		b = 25
+	}
+	n := c.noise()
+	return []Claim{Claimed(Fig(pct), OpGreaterEq, Num(b-n)), Claimed(Fig(pct), OpLessEq, Num(b+n))}
+}
+
+// quarterClaims: the quarter a value is said to be in, checked against
+// the group's quartile values (the one boundary rule, stats.QuartileByValue:
+// a value on a quartile is in the better quarter).
+func quarterClaims(ind dataset.Indicator, value Operand, group, key string, year, q int) []Claim {
+	q1, med, q3 := Fig(distKey(group, key, year, mQ1)), Fig(distKey(group, key, year, mMedian)), Fig(distKey(group, key, year, mQ3))
+	if ind.Better == dataset.LowerIsBetter {
+		switch q {
+		case 1:
+			return []Claim{Claimed(value, OpLessEq, q1)}
+		case 2:
+			return []Claim{Claimed(value, OpGreater, q1), Claimed(value, OpLessEq, med)}
+		case 3:
+			return []Claim{Claimed(value, OpGreater, med), Claimed(value, OpLessEq, q3)}
+		case 4:
+			return []Claim{Claimed(value, OpGreater, q3)}
+		}
+		return nil
+	}
+	switch q {
+	case 1:
+		return []Claim{Claimed(value, OpGreaterEq, q3)}
+	case 2:
+		return []Claim{Claimed(value, OpLess, q3), Claimed(value, OpGreaterEq, med)}
+	case 3:
+		return []Claim{Claimed(value, OpLess, med), Claimed(value, OpGreaterEq, q1)}
+	case 4:
+		return []Claim{Claimed(value, OpLess, q1)}
+	}
+	return nil
+}
 
 // phrase is how sentences name a group: the brief's phrase, else the
 // wording's default for the group's name.

@@ -14,9 +14,13 @@ import (
 func (c *composer) groupCaveats(sc *scope) []Sentence {
 	var out []Sentence
 	for _, g := range sc.distinctGroups() {
+		// The caveat keeps common practice's ten (SmallGroup) even when
+		// the brief lowers the floor for printing quarters: a pack that
+		// prints quarters of five values should still say they are
+		// unstable.
 		if n := len(g.Members); n > 0 && n < SmallGroup {
 			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
-			s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers))
+			s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers)).claim(Claimed(Fig(groupKey(g.Name, mMembers)), OpLess, Num(SmallGroup)))
 			s.Thresholds = []float64{SmallGroup}
 			out = append(out, s)
 		}
@@ -210,9 +214,13 @@ func (c *composer) condensedCaveats(sc *scope) []Sentence {
 func (c *composer) briefCaveats(sc *scope) []Sentence {
 	var out []Sentence
 	for _, g := range sc.distinctGroups() {
+		// The caveat keeps common practice's ten (SmallGroup) even when
+		// the brief lowers the floor for printing quarters: a pack that
+		// prints quarters of five values should still say they are
+		// unstable.
 		if n := len(g.Members); n > 0 && n < SmallGroup {
 			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
-			s := c.say("", c.w.SmallGroupBrief(f), groupKey(g.Name, mMembers))
+			s := c.say("", c.w.SmallGroupBrief(f), groupKey(g.Name, mMembers)).claim(Claimed(Fig(groupKey(g.Name, mMembers)), OpLess, Num(SmallGroup)))
 			s.Thresholds = []float64{SmallGroup}
 			out = append(out, s)
 		}

@@ -76,7 +76,8 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		f.MedianFrom, f.MedianTo = printValue(ind, d0.Median), printValue(ind, d1.Median)
 		f.MedianDirection = direction(ind, d1.Median-d0.Median, iqr)
 	}
-	if p0.Rank > 0 && p1.Rank > 0 {
+	// Below the small-group floor at either end no percentile is printed.
+	if p0.Rank > 0 && p1.Rank > 0 && !c.small(d0) && !c.small(d1) {
 		cd.hasPct = true
 		f.PctFrom, f.PctTo = printOrdinalPct(p0.Percentile), printOrdinalPct(p1.Percentile)
 		// The noise rule on the percentiles themselves, not their

@@ -32,8 +32,18 @@ func (c *composer) competition(sc *scope, g *figures.Group, skipPlace bool, sh s
 			f.Bottom = append(f.Bottom, it.Indicator)
 		}
 		f.MoreTop, f.MoreBottom = q.MoreTop, q.MoreBottom
+		for _, it := range q.EdgeTop {
+			f.EdgeTop = append(f.EdgeTop, it.Indicator)
+		}
+		for _, it := range q.EdgeBottom {
+			f.EdgeBottom = append(f.EdgeBottom, it.Indicator)
+		}
+		f.Small, f.First, f.Last, f.Floor = q.Small, q.First, q.Last, q.Floor
 		s := c.say("", c.w.CompetitionPlace(f), cites...).claim(claims...)
 		s.Thresholds = listCounts(f.MoreTop, f.MoreBottom)
+		if q.Small {
+			s.Thresholds = append(s.Thresholds, float64(c.floor()))
+		}
 		out = append(out, s)
 	}
 	var cites, all []figures.Key

@@ -59,6 +59,12 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	}
 	f := c.positionFact(g, ind, p, d)
 	f.Seed = seed
+	if c.small(d) {
+		// Below the floor: the rank "of n" only, no quarter.
+		f.Quartile = 0
+	} else {
+		f.Edge = c.edge(p.Percentile)
+	}
 	intro := c.part + "\x00" + g.Name
 	f.Introduced = c.introduced[intro]
 	// The brief's year is said once a part, and the value once an
@@ -120,8 +126,13 @@ func (c *composer) positionClaims(g *figures.Group, ind dataset.Indicator, p *fi
 		out = append(out, Claimed(Fig(k(mRank)), OpEqual, Num(1)))
 	case f.Last:
 		out = append(out, Claimed(Fig(k(mRank)), OpEqual, Fig(k(mOf))))
-	case f.Quartile >= 1 && f.Quartile <= 4:
+	case f.Quartile == 0:
+		out = append(out, Claimed(Fig(distKey(g.Name, ind.Key, p.Year, mN)), OpLess, Num(float64(c.floor()))))
+	case f.Edge != 0:
+		out = append(out, c.edgeClaims(k(mPercentile), f.Edge)...)
+	default:
 		out = append(out, Claimed(Fig(k(mQuartile)), OpEqual, Num(float64(f.Quartile))))
+		out = append(out, quarterClaims(ind, Fig(k(mValue)), g.Name, ind.Key, p.Year, f.Quartile)...)
 	}
 	if !p.InGroup {
 		out = append(out, Claimed(Fig(k("in_group")), OpEqual, Num(0)))

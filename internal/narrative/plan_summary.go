@@ -6,6 +6,7 @@ import (
 
 	"peerpack/internal/dataset"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
 )
 
 // placed is the focus's position on one indicator in the reference group.
@@ -35,40 +36,76 @@ func (c *composer) placements(sc *scope, g *figures.Group) []placed {
 
 // quarters lists the indicators in the best and the worst quarter with
 // their percentiles, the most extreme first, at most OverviewItems of
-// each; MoreTop and MoreBottom count those left out of the lists. named
-// records every indicator of both quarters, listed or counted, so the
+// each; MoreTop and MoreBottom count those left out of the lists. A
+// position within the noise rule of the top or bottom quarter's boundary
+// goes to EdgeTop or EdgeBottom instead ("at the edge of the top
+// quarter"). When every indicator's group is below the small-group floor
+// the fact is Small: the first and last places "of n" instead of quarters.
+// named records every indicator the fact names or counts, so the
 // strengths and risks that follow do not repeat them.
 //
-// claims holds one claim per placed indicator: quartile 1 for each in the
-// top quarter, 4 for each in the bottom quarter (listed or counted), and,
-// for the rest, that it is in neither quarter the sentence says is empty
-// ("with no indicator in the bottom quarter", "in the middle half on
-// every indicator").
+// claims holds the claims that make the sentence true: each listed or
+// counted top (bottom) item is in quartile 1 (4), its value at or beyond
+// the quartile that bounds it; each edge item's percentile within the
+// noise of its boundary; each other item in neither quarter (what "with no
+// indicator in the bottom quarter" and "in the middle half" say); first
+// and last places rank 1 and rank = of.
 func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, named map[string]bool, cites []figures.Key, claims []Claim) {
-	var hi, lo []placed
+	named = map[string]bool{}
+	k := func(x placed, m string) figures.Key { return posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, m) }
+	small := len(ps) > 0
 	for _, x := range ps {
-		switch x.p.Quartile {
-		case 1:
+		small = small && c.small(x.d)
+	}
+	if small {
+		f.Small, f.Floor = true, printCount(c.floor())
+		for _, x := range ps {
+			named[x.ind.Key] = true
+			it := RankedItem{Indicator: c.w.Indicator(x.ind), Rank: format.Ordinal(x.p.Rank) + " of " + printCount(x.p.Of)}
+			switch {
+			case x.p.Rank == 1:
+				f.First = append(f.First, it)
+				claims = append(claims, Claimed(Fig(k(x, mRank)), OpEqual, Num(1)))
+			case x.p.Rank == x.p.Of:
+				f.Last = append(f.Last, it)
+				claims = append(claims, Claimed(Fig(k(x, mRank)), OpEqual, Fig(k(x, mOf))))
+			default:
+				claims = append(claims, Claimed(Fig(k(x, mRank)), OpGreater, Num(1)), Claimed(Fig(k(x, mRank)), OpLess, Fig(k(x, mOf))))
+				continue
+			}
+			cites = append(cites, k(x, mRank), k(x, mOf))
+			claims = append(claims, Claimed(Fig(distKey(g.Name, x.ind.Key, x.p.Year, mN)), OpLess, Num(float64(c.floor()))))
+		}
+		return f, named, cites, claims
+	}
+	var hi, lo, eh, el []placed
+	for _, x := range ps {
+		if c.small(x.d) {
+			continue // too few values for a quarter; its position sentence gives the rank
+		}
+		switch e := c.edge(x.p.Percentile); {
+		case e == 1:
+			eh = append(eh, x)
+			claims = append(claims, c.edgeClaims(k(x, mPercentile), 1)...)
+		case e == 4:
+			el = append(el, x)
+			claims = append(claims, c.edgeClaims(k(x, mPercentile), 4)...)
+		case x.p.Quartile == 1:
 			hi = append(hi, x)
-		case 4:
+			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpEqual, Num(1)))
+			claims = append(claims, quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 1)...)
+		case x.p.Quartile == 4:
 			lo = append(lo, x)
+			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpEqual, Num(4)))
+			claims = append(claims, quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 4)...)
+		default:
+			f.Middle++
+			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpNotEqual, Num(1)), Claimed(Fig(k(x, mQuartile)), OpNotEqual, Num(4)))
 		}
 	}
 	sort.SliceStable(hi, func(i, j int) bool { return hi[i].p.Percentile > hi[j].p.Percentile })
 	sort.SliceStable(lo, func(i, j int) bool { return lo[i].p.Percentile < lo[j].p.Percentile })
-	qk := func(x placed) Operand { return Fig(posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile)) }
-	for _, x := range ps {
-		switch x.p.Quartile {
-		case 1:
-			claims = append(claims, Claimed(qk(x), OpEqual, Num(1)))
-		case 4:
-			claims = append(claims, Claimed(qk(x), OpEqual, Num(4)))
-		default:
-			claims = append(claims, Claimed(qk(x), OpNotEqual, Num(1)), Claimed(qk(x), OpNotEqual, Num(4)))
-		}
-	}
-	named = map[string]bool{}
-	for _, x := range append(append([]placed(nil), hi...), lo...) {
+	for _, x := range append(append(append(append([]placed(nil), hi...), lo...), eh...), el...) {
 		// Counted in "and two other indicators" too: never named again.
 		named[x.ind.Key] = true
 	}
@@ -83,8 +120,7 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 		lo = lo[:OverviewItems]
 	}
 	item := func(x placed) RankedItem {
-		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile),
-			posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mPercentile))
+		cites = append(cites, k(x, mQuartile), k(x, mPercentile))
 		return RankedItem{Indicator: c.w.Indicator(x.ind), Percentile: printOrdinalPct(x.p.Percentile), Value: printValue(x.ind, x.p.Value)}
 	}
 	for _, x := range hi {
@@ -92,6 +128,12 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 	}
 	for _, x := range lo {
 		f.Bottom = append(f.Bottom, item(x))
+	}
+	for _, x := range eh {
+		f.EdgeTop = append(f.EdgeTop, item(x))
+	}
+	for _, x := range el {
+		f.EdgeBottom = append(f.EdgeBottom, item(x))
 	}
 	return f, named, cites, claims
 }
@@ -113,6 +155,9 @@ func (c *composer) overview(sc *scope) ([]Sentence, *OverviewFact) {
 	f.Seed, f.Focus, f.Group, f.named = g.Name, c.focus, c.phrase(g), named
 	s := c.say("", c.w.Overview(f), cites...).claim(claims...)
 	s.Thresholds = listCounts(f.MoreTop, f.MoreBottom)
+	if f.Small {
+		s.Thresholds = append(s.Thresholds, float64(c.floor()))
+	}
 	return []Sentence{s}, &f
 }
 
@@ -268,6 +313,12 @@ func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.
 	var cites []figures.Key
 	for _, x := range xs {
 		f.Seed += x.ind.Key
+		if c.small(x.d) {
+			// Below the floor: the rank "of n", never a percentile.
+			f.Items = append(f.Items, RankedItem{Indicator: c.w.Indicator(x.ind), Rank: format.Ordinal(x.p.Rank) + " of " + printCount(x.p.Of), Value: printValue(x.ind, x.p.Value)})
+			cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mRank), posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mOf))
+			continue
+		}
 		f.Items = append(f.Items, RankedItem{Indicator: c.w.Indicator(x.ind), Percentile: printOrdinalPct(x.p.Percentile), Value: printValue(x.ind, x.p.Value)})
 		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mPercentile))
 	}
@@ -295,7 +346,7 @@ func (c *composer) headline(sc *scope, groupNamed bool) []Sentence {
 			continue
 		}
 		cd, ok := c.changeData(sc, g, ind)
-		if !ok || !cd.hasPct || !cd.useTrend || math.IsNaN(cd.t.PercentileMove) {
+		if !ok || !cd.hasPct || !cd.useTrend || math.IsNaN(cd.t.PercentileMove) || c.small(cd.d0) || c.small(cd.d1) {
 			continue
 		}
 		weighed = append(weighed, ind)

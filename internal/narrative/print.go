@@ -15,7 +15,7 @@ func printValue(ind dataset.Indicator, v float64) string { return format.Value(i
 
 func printAmount(ind dataset.Indicator, d float64) string { return format.Difference(ind, d) }
 
-func printOrdinalPct(p float64) string { return format.Ordinal(int(format.Round(p, 0))) }
+func printOrdinalPct(p float64) string { return format.Ordinal(format.PercentileRank(p)) }
 
 func printCount(n int) string { return format.Int(n) }
 

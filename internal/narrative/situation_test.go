@@ -27,6 +27,10 @@ type situation struct {
 	Years      []int               `yaml:"years"`
 	Language   string              `yaml:"language"`
 	RankBands  int                 `yaml:"rank_bands"`
+	// SmallGroup and Noise are the brief's small_group and noise settings
+	// (unset: the brief's defaults).
+	SmallGroup int     `yaml:"small_group"`
+	Noise      float64 `yaml:"noise"`
 	// Columns names the value columns as indicator@year.
 	Columns []string `yaml:"columns"`
 	// Institutions: id -> [country, name, values in column order]; a
@@ -168,6 +172,12 @@ func (s *situation) build(t *testing.T) (*figures.Model, *brief.Brief) {
 	fm.WriteString("data: {register: register.csv, values: values.csv, dictionary: indicators.yaml}\n")
 	if s.Language != "" {
 		fmt.Fprintf(&fm, "language: %s\n", s.Language)
+	}
+	if s.SmallGroup > 0 {
+		fmt.Fprintf(&fm, "small_group: %d\n", s.SmallGroup)
+	}
+	if s.Noise > 0 {
+		fmt.Fprintf(&fm, "noise: %v\n", s.Noise)
 	}
 	if s.RankBands > 0 {
 		fmt.Fprintf(&fm, "rank_bands: %d\n", s.RankBands)

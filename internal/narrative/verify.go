@@ -155,7 +155,7 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n":
 		out = append(out, format.Int(whole))
 	case "percentile":
-		p := int(format.Round(v, 0))
+		p := format.PercentileRank(v)
 		out = append(out, format.Ordinal(p), format.Int(p))
 	case "percentile_change", "rank_change":
 		out = append(out, format.Int(int(math.Abs(format.Round(v, 0)))))

@@ -119,8 +119,12 @@ type PositionFact struct {
 	Last  bool
 	First bool
 	Of    string
-	// Quartile is 1 (best quarter) to 4.
+	// Quartile is 1 (best quarter) to 4, 0 when the group is below the
+	// small-group floor (no quarter is printed). Edge is 1 or 4 when the
+	// percentile lies within the noise rule of the top or bottom
+	// quarter's boundary: "at the edge of the top quarter".
 	Quartile int
+	Edge     int
 	InGroup  bool
 	// Members is the number of members with a value (outside groups).
 	Members string
@@ -208,6 +212,18 @@ type OverviewFact struct {
 	Group  string
 	Top    []RankedItem
 	Bottom []RankedItem
+	// EdgeTop and EdgeBottom are the indicators within the noise rule of
+	// the top or bottom quarter's boundary, whichever side: "at the edge
+	// of" the quarter, not in or out of it.
+	EdgeTop, EdgeBottom []RankedItem
+	// Middle counts the indicators in neither quarter nor at an edge.
+	Middle int
+	// Small is set when the group is below the small-group floor: First
+	// and Last list the indicators where the focus ranks first or last
+	// ("1st of 5"), and no quarters are named; Floor is the printed floor.
+	Small       bool
+	First, Last []RankedItem
+	Floor       string
 	// MoreTop and MoreBottom count the indicators of each quarter left
 	// out of lists cut to OverviewItems.
 	MoreTop, MoreBottom int
@@ -215,10 +231,13 @@ type OverviewFact struct {
 	named map[string]bool
 }
 
-// RankedItem is one strength or risk: an indicator and its percentile.
+// RankedItem is one strength or risk: an indicator and its percentile,
+// or, in a group below the small-group floor, its rank "of n" (Rank, with
+// Percentile empty).
 type RankedItem struct {
 	Indicator  string
 	Percentile string
+	Rank       string
 	Value      string
 }
 
@@ -249,6 +268,14 @@ type CompetitionFact struct {
 	Bottom   []string
 	// MoreTop and MoreBottom count indicators left out of Top and Bottom.
 	MoreTop, MoreBottom int
+	// EdgeTop and EdgeBottom name the indicators within the noise rule
+	// of the top or bottom quarter's boundary (see OverviewFact).
+	EdgeTop, EdgeBottom []string
+	// Small: the system is below the small-group floor; First and Last
+	// then list first and last places "of n" (see OverviewFact).
+	Small       bool
+	First, Last []RankedItem
+	Floor       string
 	// Systems and Shared, for CompetitionShared: how many systems, and
 	// the indicators on which every one of their medians leads.
 	Systems int

@@ -164,6 +164,25 @@ func (english) quarter(better dataset.Polarity, q int) string {
 	if q < 1 || q > 4 {
 		return ""
 	}
+	return quarterWord(better, q)
+}
+
+// edgeWord: a position within the noise rule of a quarter boundary.
+func edgeWord(better dataset.Polarity, edge int) string {
+	switch {
+	case better == dataset.Neutral && edge == 1:
+		return "at the edge of the highest quarter of values"
+	case better == dataset.Neutral && edge == 4:
+		return "at the edge of the lowest quarter of values"
+	case edge == 1:
+		return "at the edge of the top quarter"
+	case edge == 4:
+		return "at the edge of the bottom quarter"
+	}
+	return ""
+}
+
+func quarterWord(better dataset.Polarity, q int) string {
 	if better == dataset.Neutral {
 		return neutralQuarter[q]
 	}
@@ -180,6 +199,9 @@ func (e english) Position(f PositionFact) string {
 	if !f.Last && !f.First {
 		if w := e.quarter(f.Better, f.Quartile); w != "" {
 			q = ", " + w
+		}
+		if f.Quartile != 0 && f.Edge != 0 {
+			q = ", " + edgeWord(f.Better, f.Edge)
 		}
 	}
 	inYear := " in " + f.Year
@@ -419,18 +441,59 @@ func (e english) ChangePercentile(f ChangeFact) string {
 // Overview: which indicators are in the best and worst quarter, with
 // their percentiles; a list cut short ends "and two other indicators".
 func (e english) Overview(f OverviewFact) string {
+	if f.Small {
+		return e.smallOverview(f)
+	}
 	top := e.rankedMore(f.Top, f.MoreTop, true)
 	bottom := e.rankedMore(f.Bottom, f.MoreBottom, len(f.Top) == 0)
 	kv := []string{"focus", f.Focus, "group", f.Group, "top", top, "bottom", bottom}
+	edge := ""
+	if len(f.EdgeTop) > 0 || len(f.EdgeBottom) > 0 {
+		var parts []string
+		word := len(f.Top) == 0 && len(f.Bottom) == 0
+		if len(f.EdgeTop) > 0 {
+			parts = append(parts, "of the top quarter on "+e.rankedMore(f.EdgeTop, 0, word))
+			word = false
+		}
+		if len(f.EdgeBottom) > 0 {
+			parts = append(parts, "of the bottom quarter on "+e.rankedMore(f.EdgeBottom, 0, word))
+		}
+		edge = "; it is at the edge " + strings.Join(parts, " and at the edge ") + ", within the noise of the data"
+	}
+	noTop, noBottom := len(f.EdgeTop) == 0, len(f.EdgeBottom) == 0
 	switch {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
-		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}"+edge+".", kv...)
+	case len(f.Top) > 0 && noBottom:
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, with no indicator in the bottom quarter"+edge+".", kv...)
 	case len(f.Top) > 0:
-		return e.fill("Within {group}, {focus} is in the top quarter on {top}, with no indicator in the bottom quarter.", kv...)
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}"+edge+".", kv...)
+	case len(f.Bottom) > 0 && noTop:
+		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, with no indicator in the top quarter"+edge+".", kv...)
 	case len(f.Bottom) > 0:
-		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, with no indicator in the top quarter.", kv...)
+		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}"+edge+".", kv...)
+	case edge != "" && f.Middle > 0:
+		return e.fill("Within {group}, {focus} is"+strings.TrimPrefix(edge, "; it is")+", and in the middle half on every other indicator.", kv...)
+	case edge != "":
+		return e.fill("Within {group}, {focus} is"+strings.TrimPrefix(edge, "; it is")+".", kv...)
 	}
 	return e.fill("Within {group}, {focus} sits in the middle half on every indicator, in neither the top nor the bottom quarter.", kv...)
+}
+
+// smallOverview: a group below the small-group floor gets first and last
+// places "of n", no quarters.
+func (e english) smallOverview(f OverviewFact) string {
+	kv := []string{"focus", f.Focus, "group", f.Group, "in", e.in(f.Group), "first", e.rankedMore(f.First, 0, false),
+		"last", e.rankedMore(f.Last, 0, false), "floor", f.Floor}
+	switch {
+	case len(f.First) > 0 && len(f.Last) > 0:
+		return e.fill("{in}, {focus} ranks first on {first}, and last on {last}; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
+	case len(f.First) > 0:
+		return e.fill("{in}, {focus} ranks first on {first}, and last on none; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
+	case len(f.Last) > 0:
+		return e.fill("{in}, {focus} ranks last on {last}, and first on none; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
+	}
+	return e.fill("{in}, {focus} ranks neither first nor last on any indicator; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
 }
 
 // listMore lists items and, when a list was cut, how many it left out:
@@ -447,6 +510,10 @@ func (e english) listMore(items []string, more int) string {
 func (e english) rankedMore(items []RankedItem, more int, word bool) string {
 	parts := make([]string, len(items))
 	for i, it := range items {
+		if it.Rank != "" {
+			parts[i] = it.Indicator + " (" + it.Rank + ")"
+			continue
+		}
 		if i == 0 && word {
 			parts[i] = it.Indicator + " (" + it.Percentile + " percentile)"
 		} else {
@@ -535,6 +602,41 @@ func (e english) CompetitionPlace(f CompetitionFact) string {
 	lead, be, sit := leads[variant(f.Seed, len(leads))], " be", " sit"
 	if f.InSystem {
 		lead, be, sit = "Among the institutions of {system}, {focus}", " is", " sits"
+	}
+	if f.Small {
+		rank := " rank"
+		if f.InSystem {
+			rank = " ranks"
+		}
+		kv = append(kv, "first", e.rankedMore(f.First, 0, false), "last", e.rankedMore(f.Last, 0, false), "floor", f.Floor)
+		tail := "; with fewer than {floor} members reporting, no quarters are given."
+		switch {
+		case len(f.First) > 0 && len(f.Last) > 0:
+			return e.fill(lead+rank+" first on {first}, and last on {last}"+tail, kv...)
+		case len(f.First) > 0:
+			return e.fill(lead+rank+" first on {first}, and last on none"+tail, kv...)
+		case len(f.Last) > 0:
+			return e.fill(lead+rank+" last on {last}, and first on none"+tail, kv...)
+		}
+		return e.fill(lead+rank+" neither first nor last on any indicator here"+tail, kv...)
+	}
+	if len(f.EdgeTop) > 0 || len(f.EdgeBottom) > 0 {
+		// Positions within the noise rule of a boundary are named as
+		// such, and no quarter is said to be empty while one may hold them.
+		var parts []string
+		if len(f.Top) > 0 {
+			parts = append(parts, "in the top quarter on {top}")
+		}
+		if len(f.Bottom) > 0 {
+			parts = append(parts, "in the bottom quarter on {bottom}")
+		}
+		if len(f.EdgeTop) > 0 {
+			parts = append(parts, "at the edge of the top quarter on "+e.List(f.EdgeTop))
+		}
+		if len(f.EdgeBottom) > 0 {
+			parts = append(parts, "at the edge of the bottom quarter on "+e.List(f.EdgeBottom))
+		}
+		return e.fill(lead+be+" "+strings.Join(parts, ", ")+".", kv...)
 	}
 	switch {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:

@@ -78,6 +78,7 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 	if err := probs.Err(); err != nil {
 		return nil, err
 	}
+	out.dedupe(b, executivePlaced)
 	out.Sentences = collect(out.Summary)
 	for _, blk := range b.Blocks {
 		if cb, ok := blk.(*brief.CommentaryBlock); ok {
@@ -95,6 +96,34 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 	}
 	m.Add(rows...)
 	return out, nil
+}
+
+// dedupe drops every paragraph the pack has already printed under the same
+// run-in heading (two blocks asking for the same competitor systems), so
+// no paragraph appears twice. The
+// executive summary counts as printed only when no summary block stands in
+// for it (the layout prints one or the other).
+func (out *Commentary) dedupe(b *brief.Brief, executivePlaced bool) {
+	seen := map[string]bool{}
+	if !executivePlaced {
+		for _, p := range out.Summary {
+			seen[p.Heading+"\x00"+p.Text()] = true
+		}
+	}
+	for _, blk := range b.Blocks {
+		cb, ok := blk.(*brief.CommentaryBlock)
+		if !ok {
+			continue
+		}
+		var kept []Paragraph
+		for _, p := range out.Blocks[cb] {
+			if t := p.Heading + "\x00" + p.Text(); !seen[t] {
+				seen[t] = true
+				kept = append(kept, p)
+			}
+		}
+		out.Blocks[cb] = kept
+	}
 }
 
 func collect(ps []Paragraph) []Sentence {
@@ -418,6 +447,16 @@ func (c *composer) splitGroups(sc *scope, groups []*figures.Group) {
 	}
 	if len(sc.groups) == 0 {
 		sc.groups = sc.systems
+	}
+	if sc.style == "summary" {
+		// A summary leads with the standing among the brief's chosen
+		// peers (a members list) when it has them.
+		for _, g := range sc.groups {
+			if g.Kind == "members" {
+				sc.ref = g
+				return
+			}
+		}
 	}
 	for _, g := range sc.groups {
 		if g.FocusIn {

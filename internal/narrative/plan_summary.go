@@ -115,10 +115,8 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 		f.MoreTop = len(hi) - OverviewItems
 		hi = hi[:OverviewItems]
 	}
-	if len(lo) > OverviewItems+1 {
-		f.MoreBottom = len(lo) - OverviewItems
-		lo = lo[:OverviewItems]
-	}
+	// The bottom quarter is never cut: every position there is named and
+	// cited, so no bad news is left to a count.
 	item := func(x placed) RankedItem {
 		cites = append(cites, k(x, mQuartile), k(x, mPercentile))
 		return RankedItem{Indicator: c.w.Indicator(x.ind), Percentile: printOrdinalPct(x.p.Percentile), Value: printValue(x.ind, x.p.Value)}
@@ -143,7 +141,29 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 // (nil without a sentence), so the strengths and risks that follow know
 // what it named.
 func (c *composer) overview(sc *scope) ([]Sentence, *OverviewFact) {
-	g := sc.ref
+	return c.overviewOf(sc, sc.ref)
+}
+
+// otherOverviews places the focus in every other group of the scope, one
+// sentence each, so a summary covers each comparison group it is given
+// (competitor systems too, unless the scope's competition topic does).
+func (c *composer) otherOverviews(sc *scope) []Sentence {
+	var out []Sentence
+	gs := sc.groups
+	if !sc.has("competition") && !sameSet(sc.groups, sc.systems) {
+		gs = append(append([]*figures.Group(nil), sc.groups...), sc.systems...)
+	}
+	for _, g := range gs {
+		if g == sc.ref {
+			continue
+		}
+		s, _ := c.overviewOf(sc, g)
+		out = append(out, s...)
+	}
+	return out
+}
+
+func (c *composer) overviewOf(sc *scope, g *figures.Group) ([]Sentence, *OverviewFact) {
 	if g == nil {
 		return nil, nil
 	}

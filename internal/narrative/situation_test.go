@@ -55,6 +55,9 @@ type situation struct {
 	International []string  `yaml:"international"`
 	Groups        yaml.Node `yaml:"groups"`
 	Block         yaml.Node `yaml:"block"`
+	// Repeat writes the block this many times (default once), as a brief
+	// asking twice for the same commentary would.
+	Repeat int `yaml:"repeat"`
 	// Expect is the block's text as render prints it; Summary the
 	// executive summary's.
 	Expect  *string `yaml:"expect"`
@@ -186,9 +189,12 @@ func (s *situation) build(t *testing.T) (*figures.Model, *brief.Brief) {
 	for _, line := range strings.Split(strings.TrimRight(nodeYAML(t, &s.Groups), "\n"), "\n") {
 		fm.WriteString("  " + line + "\n")
 	}
-	fm.WriteString("---\n\n# Situation\n\n```commentary\n")
-	fm.WriteString(nodeYAML(t, &s.Block))
-	fm.WriteString("```\n")
+	fm.WriteString("---\n\n# Situation\n")
+	for range max(s.Repeat, 1) {
+		fm.WriteString("\n```commentary\n")
+		fm.WriteString(nodeYAML(t, &s.Block))
+		fm.WriteString("```\n")
+	}
 	b, err := brief.Parse("brief.md", []byte(fm.String()))
 	if err != nil {
 		t.Fatalf("brief: %v\n%s", err, fm.String())

@@ -205,6 +205,7 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 		// Mean and SD first, in register order, so their last digits do not
 		// depend on how selection reorders the values.
 		dist.Mean, dist.SD = stats.MeanSD(vals)
+		dist.Skewness = stats.Skewness(vals)
 		for j, inst := range m.Named {
 			targets[j] = col[inst]
 		}

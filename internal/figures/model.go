@@ -159,8 +159,10 @@ type Distribution struct {
 	Indicator string
 	Year      int
 	stats.Box
-	// Mean and SD (sample) of the members with a value.
+	// Mean and SD (sample) of the members with a value; Skewness their
+	// adjusted sample skewness (stats.Skewness), NaN under three values.
 	Mean, SD float64
+	Skewness float64
 	// Outliers are register positions of members beyond the whiskers.
 	Outliers []int
 }

@@ -183,6 +183,7 @@ func distributionRows(f rowSink, d *Distribution, floor int) bool {
 		emitNum(f, dk("q1"), d.Q1) &&
 		emitNum(f, dk("q3"), d.Q3) &&
 		emitNum(f, dk("sd"), d.SD) &&
+		emitNum(f, dk("skewness"), d.Skewness) &&
 		emitNum(f, dk("whisker_high"), d.WhiskerHigh) &&
 		emitNum(f, dk("whisker_low"), d.WhiskerLow)
 }

@@ -2,6 +2,7 @@ package narrative
 
 import (
 	"fmt"
+	"math"
 	"regexp"
 	"strings"
 	"testing"
@@ -297,5 +298,35 @@ func TestDefectLargestMovementInsideTheNoise(t *testing.T) {
 	}
 	if text := allText(c); strings.Contains(text, "largest movement") {
 		t.Errorf("a move inside the noise is called the largest movement:\n%s", text)
+	}
+}
+
+// Z-scores carry a caution where the values are strongly skewed: nine
+// values of 1 and one of 50 have adjusted sample skewness
+// sqrt(90)/8 x g1 with g1 = 8/3, that is sqrt(10) = 3.16 (worked by hand;
+// SciPy skew(bias=False) agrees, from memory), beyond 2; a symmetric
+// group gets no caution.
+func TestSkewedValuesCaution(t *testing.T) {
+	src := defectIndicators + "columns: [intl@2025, staff@2025, spa@2025]\ninstitutions:\n  F: [Kestria, Arlen University, 50, 5, 5]\n"
+	for i := 1; i <= 9; i++ {
+		src += fmt.Sprintf("  K%d: [Kestria, Kestrel %d, 1, %d, %d]\n", i, i, i, i)
+	}
+	src += "groups:\n  - {name: Kestria sector, where: {country: Kestria}}\nblock: {style: detail, topics: [position, caveats], indicators: [intl, staff]}\n"
+	c, m, _ := parseSituation(t, src).compose(t)
+	d, _ := m.Distribution("Kestria sector", "intl", 2025)
+	if math.Abs(d.Skewness-math.Sqrt(10)) > 1e-9 {
+		t.Fatalf("skewness %v, want sqrt(10)", d.Skewness)
+	}
+	n := 0
+	for _, s := range c.Sentences {
+		if strings.Contains(s.Text, "strongly skewed") {
+			n++
+			if s.About != "intl" || !strings.Contains(s.Text, "(sample skewness 3.2") || len(s.Claims) != 1 {
+				t.Errorf("caution %q about %s with %d claims", s.Text, s.About, len(s.Claims))
+			}
+		}
+	}
+	if n != 1 {
+		t.Errorf("%d skewness cautions, want 1 (intl only):\n%s", n, allText(c))
 	}
 }

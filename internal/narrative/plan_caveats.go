@@ -1,10 +1,13 @@
 package narrative
 
 import (
+	"math"
 	"strings"
 
 	"peerpack/internal/dataset"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
+	"peerpack/internal/stats"
 )
 
 // Caveats are written where they apply and nowhere else.
@@ -75,7 +78,32 @@ func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence
 			out = append(out, c.coverage(g, ind, sc.year))
 		}
 	}
+	if s, ok := c.skewed(sc.ref, ind, sc.year); ok {
+		out = append(out, s)
+	}
 	return out
+}
+
+// skewed cautions on z-scores and means where the reference group's
+// values are strongly skewed: absolute adjusted sample skewness above
+// stats.SkewCaution (2).
+func (c *composer) skewed(g *figures.Group, ind dataset.Indicator, year int) (Sentence, bool) {
+	if g == nil {
+		return Sentence{}, false
+	}
+	d, ok := c.m.Distribution(g.Name, ind.Key, year)
+	if !ok || math.IsNaN(d.Skewness) || math.Abs(d.Skewness) <= stats.SkewCaution {
+		return Sentence{}, false
+	}
+	k := distKey(g.Name, ind.Key, year, "skewness")
+	cl := Claimed(Fig(k), OpGreater, Num(stats.SkewCaution))
+	if d.Skewness < 0 {
+		cl = Claimed(Fig(k), OpLess, Num(-stats.SkewCaution))
+	}
+	f := CaveatFact{Seed: ind.Key, Indicator: c.w.Indicator(ind), Group: c.phrase(g), N: format.Number(d.Skewness, 1)}
+	s := c.say(ind.Key, c.w.Skewed(f), k).claim(cl)
+	s.Thresholds = []float64{stats.SkewCaution}
+	return s, true
 }
 
 func (c *composer) anyGroup(sc *scope) string {

@@ -148,6 +148,8 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	case "ties":
 		// "joint 4th with 2 others": the others, or all who share.
 		out = append(out, format.Int(whole-1), format.Int(whole))
+	case "skewness":
+		out = append(out, format.Number(v, 1), format.Number(math.Abs(v), 1))
 	case "pearson", "spearman":
 		out = append(out, format.Number(v, 2), format.Number(math.Abs(v), 2))
 	case "rank":

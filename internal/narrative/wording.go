@@ -65,6 +65,9 @@ type Wording interface {
 	PPP(f CaveatFact) string
 	Judgement(f CaveatFact) string
 	OneCountry(f CaveatFact) string
+	// Skewed: the values are strongly skewed (f.N is the printed
+	// skewness), so z-scores and means describe positions poorly.
+	Skewed(f CaveatFact) string
 	// SmallGroupBrief, PPPBrief and Direction are the executive
 	// summary's short caveats: a group too small for stable quartiles,
 	// the indicators in international dollars, and which indicators

@@ -751,6 +751,12 @@ func (e english) GapList(fs []GapFact) string {
 	return e.fill(tmpl, "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
 }
 
+// Skewed: z-scores assume a roughly symmetric spread.
+func (e english) Skewed(f CaveatFact) string {
+	return e.fill("Values of {ind} {in} are strongly skewed (sample skewness {skew}, beyond 2 either way), so a z-score or a mean describes positions there poorly; ranks, percentiles and the median are the safer reading.",
+		"ind", f.Indicator, "in", e.in(f.Group), "skew", f.N)
+}
+
 // SmallGroup: fewer members than quartiles can bear.
 func (e english) SmallGroup(f CaveatFact) string {
 	return e.fill("The comparison {in} rests on {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, so those ranks are indicative only.",

@@ -229,6 +229,10 @@ type Trend struct {
 	// so "broadly unchanged" can be checked against the noise share.
 	PercentileMove float64
 	ChangePerIQR   float64
+	// Points is the number of years with a value between StartYear and
+	// EndYear: two points give a change, not a trend, and the slope and
+	// CAGR of two points are no more than that change.
+	Points int
 	// StartOf and EndOf are the group sizes with a value in the first and
 	// last year; when they differ a lot, statements compare percentiles.
 	StartOf, EndOf int

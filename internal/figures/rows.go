@@ -250,6 +250,9 @@ func (m *Model) trendRows(f rowSink, t *Trend) bool {
 		if ranks && (!emitNum(f, tk("percentile_change"), t.PercentileChange) || !emitNum(f, tk("percentile_move"), t.PercentileMove)) {
 			return false
 		}
+		if !emitNum(f, tk("points"), float64(t.Points)) {
+			return false
+		}
 		if !emitNum(f, tk("prefer_percentiles"), oneIf(t.PreferPercentiles)) {
 			return false
 		}

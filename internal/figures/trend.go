@@ -42,6 +42,7 @@ func trendOf(g *Group, ind dataset.Indicator, inst int, series []*Position, dist
 		return t
 	}
 	s, e := series[first], series[last]
+	t.Points = len(xs)
 	t.StartYear, t.StartValue = s.Year, s.Value
 	t.EndYear, t.EndValue = e.Year, e.Value
 	t.StartOf, t.EndOf = s.Of, e.Of

@@ -231,7 +231,13 @@ func TestTrendMeasures(t *testing.T) {
 	// years is +21, +21%, a compound 10% a year.
 	near(t, "change", Change(100, 121), 21, 0)
 	near(t, "change pct", ChangePct(100, 121), 21, 1e-12)
-	near(t, "change pct from a negative start", ChangePct(-10, -5), 50, 1e-12)
+	// No percentage change from, across or below zero.
+	for _, se := range [][2]float64{{-10, -5}, {-2, 3}, {4, -1}, {0, 3}} {
+		if !math.IsNaN(ChangePct(se[0], se[1])) {
+			t.Errorf("ChangePct(%v, %v) = %v, want NaN", se[0], se[1], ChangePct(se[0], se[1]))
+		}
+	}
+	near(t, "change pct to zero", ChangePct(8, 0), -100, 1e-12)
 	near(t, "cagr", CAGR(100, 121, 2), 10, 1e-12)
 	if !math.IsNaN(CAGR(0, 5, 3)) || !math.IsNaN(CAGR(-1, 5, 3)) || !math.IsNaN(ChangePct(0, 3)) {
 		t.Error("CAGR and change pct need a positive / non-zero start")

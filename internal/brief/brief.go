@@ -300,7 +300,9 @@ type ChartBlock struct {
 	Size string `yaml:"size"`
 	// Orientation is horizontal (default for box) or vertical.
 	Orientation string `yaml:"orientation"`
-	// Scale, for radar axes: percentile (default) or range.
+	// Scale, for radar axes: percentile (default), range (each spoke over
+	// the values shown) or common (one scale from zero for every spoke,
+	// for shares of one whole).
 	Scale string `yaml:"scale"`
 	// Fit adds a least-squares line to a scatter.
 	Fit bool `yaml:"fit"`
@@ -408,11 +410,7 @@ func oneOf(v string, set []string) bool {
 }
 
 func quoteList(set []string) string {
-	q := make([]string, len(set))
-	for i, s := range set {
-		q[i] = s
-	}
-	return strings.Join(q, ", ")
+	return strings.Join(set, ", ")
 }
 
 // Defaults of the brief's noise and small_group settings (common practice,

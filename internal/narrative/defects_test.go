@@ -330,3 +330,23 @@ func TestSkewedValuesCaution(t *testing.T) {
 		t.Errorf("%d skewness cautions, want 1 (intl only):\n%s", n, allText(c))
 	}
 }
+
+// Profile peers chosen on an indicator are like the focus there by
+// construction, and the caveats say so for that indicator only.
+func TestProfilePeersByConstruction(t *testing.T) {
+	src := defectIndicators + "columns: [intl@2025, staff@2025, spa@2025]\ninstitutions:\n  F: [Kestria, Arlen University, 30, 30, 15]\n"
+	for i := 1; i <= 12; i++ {
+		src += fmt.Sprintf("  K%02d: [Kestria, Kestrel %d, %d, %d, %d]\n", i, i, 20+i, 40-i, 10+i)
+	}
+	src += "groups:\n  - {name: Profile peers, nearest: {count: 5, indicators: [intl]}}\nblock: {style: detail, topics: [position, caveats], indicators: [intl, staff]}\n"
+	c, _, _ := parseSituation(t, src).compose(t)
+	var about []string
+	for _, s := range c.Sentences {
+		if strings.Contains(s.Text, "by construction") {
+			about = append(about, s.About)
+		}
+	}
+	if len(about) != 1 || about[0] != "intl" {
+		t.Errorf("by-construction cautions on %v, want [intl]:\n%s", about, allText(c))
+	}
+}

@@ -81,7 +81,31 @@ func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence
 	if s, ok := c.skewed(sc.ref, ind, sc.year); ok {
 		out = append(out, s)
 	}
+	for _, g := range sc.distinctGroups() {
+		if c.choseBy(g, ind.Key) {
+			f := CaveatFact{Seed: g.Name, Focus: c.focus, Indicator: label, Group: c.phrase(g)}
+			out = append(out, c.say(ind.Key, c.w.ByConstruction(f), groupKey(g.Name, mMembers)))
+		}
+	}
 	return out
+}
+
+// choseBy reports whether a nearest-peers group was chosen on the
+// indicator: the focus's closeness to it there is then by construction.
+func (c *composer) choseBy(g *figures.Group, key string) bool {
+	if g.Kind != "nearest" {
+		return false
+	}
+	for _, spec := range c.b.Groups {
+		if spec.Name == g.Spec && spec.Nearest != nil {
+			for _, k := range spec.Nearest.Indicators {
+				if k == key {
+					return true
+				}
+			}
+		}
+	}
+	return false
 }
 
 // skewed cautions on z-scores and means where the reference group's

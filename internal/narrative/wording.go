@@ -68,6 +68,9 @@ type Wording interface {
 	// Skewed: the values are strongly skewed (f.N is the printed
 	// skewness), so z-scores and means describe positions poorly.
 	Skewed(f CaveatFact) string
+	// ByConstruction: a nearest-peers group chosen on this indicator, so
+	// the focus's similarity to it there is by construction.
+	ByConstruction(f CaveatFact) string
 	// SmallGroupBrief, PPPBrief and Direction are the executive
 	// summary's short caveats: a group too small for stable quartiles,
 	// the indicators in international dollars, and which indicators

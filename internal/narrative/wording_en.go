@@ -751,6 +751,12 @@ func (e english) GapList(fs []GapFact) string {
 	return e.fill(tmpl, "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
 }
 
+// ByConstruction: peers chosen for closeness on an indicator.
+func (e english) ByConstruction(f CaveatFact) string {
+	return e.fill("{group} were chosen as the institutions closest to {focus} on {ind}, among other indicators, so {focus's} likeness to them there is by construction, not a finding.",
+		"group", f.Group, "focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator)
+}
+
 // Skewed: z-scores assume a roughly symmetric spread.
 func (e english) Skewed(f CaveatFact) string {
 	return e.fill("Values of {ind} {in} are strongly skewed (sample skewness {skew}, beyond 2 either way), so a z-score or a mean describes positions there poorly; ranks, percentiles and the median are the safer reading.",

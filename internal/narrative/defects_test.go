@@ -350,3 +350,18 @@ func TestProfilePeersByConstruction(t *testing.T) {
 		t.Errorf("by-construction cautions on %v, want [intl]:\n%s", about, allText(c))
 	}
 }
+
+// A summary says which indicators it leaves out and why: the focus
+// reports no value for academic staff share in 2025.
+func TestSummarySaysWhatItLeavesOut(t *testing.T) {
+	src := defectIndicators + "columns: [intl@2025, staff@2025, spa@2025]\ninstitutions:\n  F: [Kestria, Arlen University, 30, ~, 15]\n"
+	for i := 1; i <= 12; i++ {
+		src += fmt.Sprintf("  K%02d: [Kestria, Kestrel %d, %d, %d, %d]\n", i, i, 20+i, 40-i, 10+i)
+	}
+	src += "groups:\n  - {name: Kestria sector, where: {country: Kestria}}\nblock: {style: summary, topics: [position]}\n"
+	c, _, _ := parseSituation(t, src).compose(t)
+	want := "The positions above leave out academic staff share, for which Arlen University reports no 2025 figure."
+	if !strings.Contains(allText(c), want) {
+		t.Errorf("want %q in\n%s", want, allText(c))
+	}
+}

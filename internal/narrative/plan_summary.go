@@ -178,7 +178,38 @@ func (c *composer) overviewOf(sc *scope, g *figures.Group) ([]Sentence, *Overvie
 	if f.Small {
 		s.Thresholds = append(s.Thresholds, float64(c.floor()))
 	}
-	return []Sentence{s}, &f
+	out := []Sentence{s}
+	if g == sc.ref {
+		out = append(out, c.leftOut(sc, g)...)
+	}
+	return out, &f
+}
+
+// leftOut says which judged indicators of the scope the overview could
+// not place because the focus reports no value for the year, so a
+// summary never passes over them in silence (claim: has_value = 0 each).
+func (c *composer) leftOut(sc *scope, g *figures.Group) []Sentence {
+	var names []string
+	var cites []figures.Key
+	var claims []Claim
+	for _, ind := range sc.inds {
+		if !judged(ind) {
+			continue
+		}
+		p, ok := c.m.Position(g.Name, ind.Key, c.m.Focus, sc.year)
+		if !ok || p.HasValue {
+			continue
+		}
+		k := posKey(g.Name, ind.Key, c.m.FocusID, sc.year, "has_value")
+		names = append(names, c.w.Indicator(ind))
+		cites = append(cites, k)
+		claims = append(claims, Claimed(Fig(k), OpEqual, Num(0)))
+	}
+	if len(names) == 0 {
+		return nil
+	}
+	f := MissingFact{Seed: g.Name, Focus: c.focus, Indicator: c.w.List(names), Year: printYear(sc.year)}
+	return []Sentence{c.say("", c.w.LeftOut(f), cites...).claim(claims...)}
 }
 
 // strengthsAndRisks names the indicators furthest above and below the

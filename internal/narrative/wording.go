@@ -31,6 +31,9 @@ type Wording interface {
 	Position(f PositionFact) string
 	Distance(f PositionFact) string
 	FocusMissing(f MissingFact) string
+	// LeftOut: the indicators (f.Indicator, a list) a summary cannot
+	// place because the focus reports no value for the year.
+	LeftOut(f MissingFact) string
 	GroupMissing(f MissingFact) string
 	AllMissing(f MissingFact) string
 	Alone(f PositionFact) string

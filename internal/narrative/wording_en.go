@@ -316,6 +316,12 @@ func (e english) FocusMissing(f MissingFact) string {
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
 }
 
+// LeftOut: what a summary cannot place, and why.
+func (e english) LeftOut(f MissingFact) string {
+	return e.fill("The positions above leave out {ind}, for which {focus} reports no {year} figure.",
+		"focus", f.Focus, "year", f.Year, "ind", f.Indicator)
+}
+
 // GroupMissing: no member of the group reports the indicator.
 func (e english) GroupMissing(f MissingFact) string {
 	return e.fill("No member of {group} reports {ind} for {year}, so {focus} cannot be compared there.",

@@ -56,6 +56,15 @@ type Brief struct {
 	// Quantiles selects the quantile definition: type7 (default), type6 or
 	// hinges.
 	Quantiles string `yaml:"quantiles"`
+	// Noise is the noise rule in percentile points (default DefaultNoise):
+	// a difference inside it is "level with", a position within it of a
+	// quarter boundary "at the edge" of the quarter, a change inside it
+	// "broadly unchanged". SmallGroup is the floor (default
+	// DefaultSmallGroup members reporting) below which quarters and
+	// percentiles are not printed, only ranks "of n". Read them with
+	// NoiseRule and SmallGroupFloor.
+	Noise      *float64 `yaml:"noise"`
+	SmallGroup *int     `yaml:"small_group"`
 
 	// Body is the Markdown after the front matter; BodyLine is the line
 	// of the brief on which it starts (1-based).
@@ -406,4 +415,30 @@ func oneOf(v string, set []string) bool {
 
 func quoteList(set []string) string {
 	return strings.Join(set, ", ")
+}
+
+// Defaults of the brief's noise and small_group settings (common practice,
+// no source): five percentile points is four or five places in a group of
+// a hundred, which a revision or one institution entering can shift;
+// quartiles of fewer than ten values move a lot when one member changes.
+const (
+	DefaultNoise      = 5.0
+	DefaultSmallGroup = 10
+)
+
+// NoiseRule is the brief's noise setting in percentile points, or the
+// default.
+func (b *Brief) NoiseRule() float64 {
+	if b == nil || b.Noise == nil {
+		return DefaultNoise
+	}
+	return *b.Noise
+}
+
+// SmallGroupFloor is the brief's small_group setting, or the default.
+func (b *Brief) SmallGroupFloor() int {
+	if b == nil || b.SmallGroup == nil {
+		return DefaultSmallGroup
+	}
+	return *b.SmallGroup
 }

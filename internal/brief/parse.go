@@ -276,6 +276,14 @@ func (b *Brief) validateFrontMatter() error {
 		p := b.PosOf("quantiles")
 		l.Addf(b.File, p.Line, p.Column, "quantiles %q is not a known definition; use type7 (default), type6 or hinges", b.Quantiles)
 	}
+	if b.Noise != nil && !(*b.Noise >= 0 && *b.Noise < 25) {
+		p := b.PosOf("noise")
+		l.Addf(b.File, p.Line, p.Column, "noise %v is outside 0 to 25; it is the noise rule in percentile points, e.g. noise: 5", *b.Noise)
+	}
+	if b.SmallGroup != nil && *b.SmallGroup < 2 {
+		p := b.PosOf("small_group")
+		l.Addf(b.File, p.Line, p.Column, "small_group %d is below 2; it is the fewest members reporting for quarters and percentiles to be printed, e.g. small_group: 10", *b.SmallGroup)
+	}
 	switch b.Theme.Paper {
 	case "":
 		b.Theme.Paper = "a4"

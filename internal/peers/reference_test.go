@@ -110,9 +110,9 @@ func TestIrisKMeansAgainstRAndScikitLearn(t *testing.T) {
 	}
 }
 
-// Hamerly's bounds only skip distance computations: from the same seeding
+// Elkan's bounds only skip distance computations: from the same seeding
 // a plain Lloyd run must end in the same assignment and sum of squares.
-func TestHamerlyMatchesPlainLloyd(t *testing.T) {
+func TestBoundsMatchPlainLloyd(t *testing.T) {
 	x := readMatrix(t, "testdata/iris.csv", 0)
 	z, _, _ := Standardise(x, nil)
 	for _, k := range []int{2, 3, 5, 8} {

@@ -18,6 +18,7 @@ for (k in 2:4) {
   add(sprintf("iris_kmeans_k%d_withinss", k), km$tot.withinss)
   s <- sort(km$size, decreasing = TRUE)
   for (i in seq_along(s)) add(sprintf("iris_kmeans_k%d_size%d", k, i), s[i])
+  add(sprintf("iris_kmeans_k%d_silhouette", k), mean(silhouette(km$cluster, dist(iris[, 1:4]))[, "sil_width"]))
 }
 
 # silhouette of a fixed labelling (R's k = 3 solution), written with it

@@ -318,8 +318,11 @@ func (b *Brief) validateFrontMatter() error {
 		if g.Each != "" {
 			defs++
 		}
+		if g.Cluster != nil {
+			defs++
+		}
 		if defs != 1 {
-			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest or each (each may carry a where)", g.Name)
+			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest, each or cluster (each may carry a where)", g.Name)
 		}
 		if g.Nearest != nil && (g.Nearest.Count < 1 || len(g.Nearest.Indicators) == 0) {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: nearest needs a count of at least 1 and a list of indicators, e.g. nearest: {count: 15, indicators: [fwci, papers_per_academic]}", g.Name)
@@ -330,6 +333,7 @@ func (b *Brief) validateFrontMatter() error {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: over must be ranked (default) or all", g.Name)
 		}
 	}
+	b.validatePeers(&l)
 	return l.Err()
 }
 

@@ -29,6 +29,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 	}
 	focus, tracked := checkFront(d, b, probs)
 	r := &resolver{d: d, b: b, focus: focus, probs: probs}
+	r.pm = r.peersFor()
 	groups := r.resolveGroups()
 	checkBlocks(d, b, groups, probs)
 	if err := probs.Err(); err != nil {
@@ -49,6 +50,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		Last:    last,
 		Method:  stats.ParseQuantileMethod(b.Quantiles),
 		Groups:  groups,
+		Peers:   r.pm,
 		dist:    map[distKey]*Distribution{},
 		pos:     map[posKey]*Position{},
 		trend:   map[trendKey]*Trend{},

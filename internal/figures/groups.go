@@ -17,6 +17,8 @@ type resolver struct {
 	b     *brief.Brief
 	focus int
 	probs *diag.List
+	// pm is the peers: section's clustering, for cluster groups.
+	pm *Peers
 }
 
 func (r *resolver) errAt(p brief.Pos, format string, args ...any) {
@@ -56,6 +58,8 @@ func (r *resolver) resolveGroups() []*Group {
 			gs = r.members(spec, over)
 		case spec.Nearest != nil:
 			gs = r.nearest(spec, over)
+		case spec.Cluster != nil:
+			gs = r.clusterGroup(spec)
 		case spec.Where != nil:
 			gs = r.where(spec, over)
 		}

@@ -205,6 +205,7 @@ func (m *Model) Rows() []Row {
 		num(ck("spearman"), c.Spearman)
 	}
 
+	rows = m.peersRows(rows)
 	rows = append(rows, m.extra...)
 	// Sort an index rather than the rows (large structs), with the input
 	// position as the last tie-break, so equal keys keep their order.

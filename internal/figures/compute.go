@@ -57,6 +57,12 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		gtrend:  map[gtrendKey]*GroupTrend{},
 		corr:    map[corrKey]int{},
 	}
+	m.groupIndex = make(map[string]int, len(groups))
+	for i, g := range groups {
+		if _, dup := m.groupIndex[g.Name]; !dup {
+			m.groupIndex[g.Name] = i
+		}
+	}
 	for _, y := range d.Years {
 		if y >= m.First && y <= m.Last {
 			m.Years = append(m.Years, y)
@@ -66,6 +72,9 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		probs.Add(err)
 		return nil, probs
 	}
+	// The peers rows join the later stages' rows: the figures file and
+	// Lookup read them from there.
+	m.Add(m.peersRows(nil)...)
 	return m, nil
 }
 

@@ -380,7 +380,7 @@ func (*AppendixBlock) Kind() string { return "appendix" }
 var AppendixKinds = []string{"methodology", "data"}
 
 // BlockKinds are the fence info strings peerpack recognises.
-var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns"}
+var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns", "clusters"}
 
 // ChartKinds are the chart kinds.
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars"}

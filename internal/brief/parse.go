@@ -428,6 +428,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 		blk = &PageBreakBlock{}
 	case "columns":
 		blk = &ColumnsBlock{}
+	case "clusters":
+		blk = &ClustersBlock{}
 	default:
 		if s := yamlx.Nearest(info, BlockKinds); s != "" && info != "" {
 			return nil, diag.At(file, fenceLine, 1, "unknown block %q; did you mean %q? (blocks are %s)", info, s, quoteList(BlockKinds))
@@ -454,6 +456,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 	case *PageBreakBlock:
 		v.At = pos
 	case *ColumnsBlock:
+		v.At = pos
+	case *ClustersBlock:
 		v.At = pos
 	}
 	return blk, nil
@@ -535,6 +539,22 @@ func (b *Brief) validateBlocks() error {
 					msg += fmt.Sprintf("; did you mean %q?", s)
 				}
 				bad(v, "%s (kinds are %s)", msg, quoteList(AppendixKinds))
+			}
+		case *ClustersBlock:
+			if b.Peers == nil {
+				bad(v, "a clusters block shows the peers: section, which this brief does not have; add one to the front matter, e.g. peers: {indicators: [citation_impact, papers_per_academic], k: auto}")
+			}
+			for _, s := range v.Show {
+				if !oneOf(s, ClustersParts) {
+					msg := fmt.Sprintf("clusters block: unknown part %q", s)
+					if n := yamlx.Nearest(s, ClustersParts); n != "" {
+						msg += fmt.Sprintf("; did you mean %q?", n)
+					}
+					bad(v, "%s (parts are %s)", msg, quoteList(ClustersParts))
+				}
+			}
+			if len(v.Show) == 0 {
+				v.Show = ClustersParts
 			}
 		case *ColumnsBlock:
 			if v.Count < 1 || v.Count > 3 {

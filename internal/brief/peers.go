@@ -60,7 +60,7 @@ func (k *KChoice) UnmarshalYAML(n *yaml.Node) error {
 			return nil
 		}
 	}
-	return fmt.Errorf("line %d: k must be a number of clusters (2 or more) or auto", n.Line)
+	return fmt.Errorf("line %d column %d: k must be a number of clusters (2 or more) or auto", n.Line, n.Column)
 }
 
 // ClusterRef names a cluster of the peers: section for a group: the
@@ -83,7 +83,7 @@ func (c *ClusterRef) UnmarshalYAML(n *yaml.Node) error {
 			return nil
 		}
 	}
-	return fmt.Errorf("line %d: cluster must be focus (the focus's own cluster) or a cluster number from 1, e.g. cluster: focus", n.Line)
+	return fmt.Errorf("line %d column %d: cluster must be focus (the focus's own cluster) or a cluster number from 1, e.g. cluster: focus", n.Line, n.Column)
 }
 
 // Defaults of the peers: section.
@@ -201,3 +201,27 @@ func (b *Brief) validatePeers(l *diag.List) {
 		p.Year = b.Year
 	}
 }
+
+// ClustersBlock lays out the peer-group section of the peers: front
+// matter: the cluster table with generated descriptions, the sector map,
+// the silhouette curve, the stability and the focus's nearest profiles,
+// with commentary citing the figures.
+type ClustersBlock struct {
+	BlockBase `yaml:",inline"`
+	// Show chooses and orders the parts (default: all, in ClustersParts
+	// order).
+	Show []string `yaml:"show"`
+	// Loadings draws the indicators' loadings as arrows on the map.
+	Loadings bool `yaml:"loadings"`
+	// Label names institutions to mark on the map besides the focus,
+	// its nearest profiles and each cluster's typical member.
+	Label []string `yaml:"label"`
+	// Caption is set under the map.
+	Caption string `yaml:"caption"`
+}
+
+// Kind implements Block.
+func (*ClustersBlock) Kind() string { return "clusters" }
+
+// ClustersParts are the parts a clusters block can show.
+var ClustersParts = []string{"text", "table", "map", "silhouette", "stability", "nearest"}

@@ -4,11 +4,17 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"peerpack/internal/peers"
 )
 
 // ClusterGroup is the group column of a cluster's rows in section peers
 // ("cluster 2").
 func ClusterGroup(n int) string { return fmt.Sprintf("cluster %d", n) }
+
+// CountryMeasure is the measure of a cluster's count of members from a
+// country ("members_from Kestria").
+func CountryMeasure(country string) string { return "members_from " + country }
 
 // NearestGroup is the group column of the nearest-profile rows.
 const NearestGroup = "nearest"
@@ -57,6 +63,8 @@ func (m *Model) peersRows(rows []Row) []Row {
 	num(top("converged"), map[bool]float64{true: 1, false: 0}[a.Converged])
 	if a.Stability != nil {
 		num(top("resamples"), float64(a.Stability.Resamples))
+		num(top("jaccard_fragile"), peers.FragileJaccard)
+		num(top("jaccard_stable"), peers.StableJaccard)
 	}
 	for _, sc := range a.Curve {
 		num(top(CurveMeasure(sc.K)), sc.Silhouette)
@@ -92,6 +100,9 @@ func (m *Model) peersRows(rows []Row) []Row {
 			cs[i] = fmt.Sprintf("%s %d", c.Country, c.N)
 		}
 		text(ck("countries"), strings.Join(cs, "; "))
+		for _, c := range k.Countries {
+			num(ck(CountryMeasure(c.Country)), float64(c.N))
+		}
 		num(pm.Key(g, "", m.InstitutionID(k.Typical), "typical"), 1)
 		for j, ind := range pm.Indicators {
 			num(pm.Key(g, ind.Key, "", "centroid"), k.Centroid[j])

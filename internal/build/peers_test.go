@@ -21,7 +21,7 @@ func peersDemo(t *testing.T) fstest.MapFS {
 		fsys[name] = &fstest.MapFile{Data: data}
 	}
 	src := string(fsys["brief.md"].Data)
-	src = strings.Replace(src, "population:\n", "  - name: Profile cluster\n    cluster: focus\npeers:\n  indicators: [fwci, papers_per_academic, research_income_per_academic, intl_coauthored, students_per_academic, subj_health, subj_engineering]\n  k: auto\n  seed: 11\n  resamples: 10\npopulation:\n", 1)
+	src = strings.Replace(src, "population:\n", "  - name: Profile cluster\n    cluster: focus\npeers:\n  indicators: [citation_impact, papers_per_academic, research_income_per_academic, intl_coauthorship, students_per_academic, field_health, field_engineering]\n  k: auto\n  seed: 11\n  resamples: 10\npopulation:\n", 1)
 	src = strings.Replace(src, "# Executive summary", "# Peer clusters\n\n```clusters\nloadings: true\n```\n\n# Executive summary", 1)
 	if !strings.Contains(src, "cluster: focus") || !strings.Contains(src, "```clusters") {
 		t.Fatal("the demo brief changed shape; adjust the test's edits")

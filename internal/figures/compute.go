@@ -31,7 +31,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 	r := &resolver{d: d, b: b, focus: focus, probs: probs}
 	r.pm = r.peersFor()
 	groups := r.resolveGroups()
-	checkBlocks(d, b, groups, probs)
+	checkBlocks(d, b, groups, r.emptied, probs)
 	if err := probs.Err(); err != nil {
 		return nil, err
 	}

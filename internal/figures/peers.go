@@ -324,10 +324,12 @@ func (cl *Clustering) describe(d *dataset.Dataset, raw *peers.Matrix, inds []dat
 
 // traitLabel is the short form of an indicator for a generated name.
 func traitLabel(ind dataset.Indicator) string {
+	s := runningLabel(ind)
 	if ind.Short != "" {
-		return strings.ToLower(ind.Short[:1]) + ind.Short[1:]
+		s = strings.ToLower(ind.Short[:1]) + ind.Short[1:]
 	}
-	return runningLabel(ind)
+	// A comma inside a trait would read as the name's own separator.
+	return strings.ReplaceAll(s, ", ", " and ")
 }
 
 // clusterName generates a cluster's name from its leading traits: the

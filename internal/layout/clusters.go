@@ -81,7 +81,12 @@ func traitText(pm *figures.Peers, k figures.Cluster) string {
 	name := func(js []int) string {
 		var s []string
 		for _, j := range js {
-			s = append(s, pm.Indicators[j].RunningLabel())
+			ind := pm.Indicators[j]
+			if ind.Short != "" {
+				s = append(s, ind.Short)
+			} else {
+				s = append(s, ind.RunningLabel())
+			}
 		}
 		return strings.Join(s, ", ")
 	}
@@ -101,7 +106,7 @@ func traitText(pm *figures.Peers, k figures.Cluster) string {
 func (w *writer) clusterTable(pm *figures.Peers) {
 	reg := w.m.Data.Register
 	g := grid{head: []string{"No.", "Generated name", "Members", "Stands out (centre vs population)", "Main countries", "Most typical member"},
-		align: []byte{'R', 'L', 'R', 'L', 'L', 'L'}, caption: "Peer clusters, largest first", maxLines: 4}
+		align: []byte{'R', 'L', 'R', 'L', 'L', 'L'}, caption: "Peer clusters, largest first", maxLines: 6}
 	for c, k := range pm.Clusters {
 		var cs []string
 		for _, cc := range k.Countries {

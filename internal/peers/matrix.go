@@ -14,6 +14,8 @@ package peers
 import (
 	"fmt"
 	"math"
+
+	"peerpack/internal/stats"
 )
 
 // Matrix is n rows (institutions) by p columns (indicators), row-major.
@@ -35,27 +37,23 @@ func (x *Matrix) Row(i int) []float64 { return x.Data[i*x.P : (i+1)*x.P] }
 
 // Standardise returns a copy of x with each column centred on its mean and
 // divided by its sample standard deviation (n - 1 denominator, as R's
-// scale() and prcomp(scale. = TRUE)), then multiplied by the column's
+// scale() and prcomp(scale. = TRUE); stats.MeanSD), then multiplied by the column's
 // weight. A column with no spread becomes zero: it cannot separate
 // anyone. Means and SDs are returned so centroids can be read back in the
 // indicators' own units.
 func Standardise(x *Matrix, weights []float64) (z *Matrix, means, sds []float64) {
 	means = make([]float64, x.P)
 	sds = make([]float64, x.P)
+	col := make([]float64, x.N)
 	for j := 0; j < x.P; j++ {
-		var s float64
 		for i := 0; i < x.N; i++ {
-			s += x.Data[i*x.P+j]
+			col[i] = x.Data[i*x.P+j]
 		}
-		mu := s / float64(x.N)
-		var ss float64
-		for i := 0; i < x.N; i++ {
-			d := x.Data[i*x.P+j] - mu
-			ss += d * d
-		}
-		means[j] = mu
-		if x.N > 1 {
-			sds[j] = math.Sqrt(ss / float64(x.N-1))
+		// The one definition of mean and sample SD, shared with the
+		// nearest-peer groups of the figures model.
+		means[j], sds[j] = stats.MeanSD(col)
+		if math.IsNaN(sds[j]) {
+			sds[j] = 0
 		}
 	}
 	z = &Matrix{N: x.N, P: x.P, Data: make([]float64, len(x.Data))}

@@ -41,6 +41,8 @@ type Brief struct {
 	// Groups are the comparison groups, in pack order.
 	Groups     []GroupSpec     `yaml:"groups"`
 	Population *PopulationSpec `yaml:"population"`
+	// Peers asks for data-driven peer groups (clusters of profiles).
+	Peers *PeersSpec `yaml:"peers"`
 	// Named lists further institutions whose positions the figures record
 	// and charts may label.
 	Named []string `yaml:"named"`
@@ -128,12 +130,15 @@ func (p *PathList) UnmarshalYAML(n *yaml.Node) error {
 }
 
 // GroupSpec defines one comparison group. Exactly one of Where, Members,
-// Nearest and Each defines it (Each may carry a Where to restrict it).
+// Nearest, Each and Cluster defines it (Each may carry a Where to restrict
+// it).
 type GroupSpec struct {
 	Name    string       `yaml:"name"`
 	Where   *Filter      `yaml:"where"`
 	Members []string     `yaml:"members"`
 	Nearest *NearestSpec `yaml:"nearest"`
+	// Cluster is one of the clusters of the peers: section.
+	Cluster *ClusterRef `yaml:"cluster"`
 	// Each expands into one group per distinct value of a register field,
 	// named "<Name>: <value>" or just the value when Name is empty.
 	Each string `yaml:"each"`
@@ -390,7 +395,7 @@ func (*AppendixBlock) Kind() string { return "appendix" }
 var AppendixKinds = []string{"methodology", "data"}
 
 // BlockKinds are the fence info strings peerpack recognises.
-var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns"}
+var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns", "clusters"}
 
 // ChartKinds are the chart kinds.
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars"}

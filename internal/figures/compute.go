@@ -29,6 +29,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 	}
 	focus, tracked := checkFront(d, b, probs)
 	r := &resolver{d: d, b: b, focus: focus, probs: probs}
+	r.pm = r.peersFor()
 	groups := r.resolveGroups()
 	checkBlocks(d, b, groups, r.emptied, probs)
 	if err := probs.Err(); err != nil {
@@ -50,6 +51,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		Method:  stats.ParseQuantileMethod(b.Quantiles),
 		Floor:   b.SmallGroupFloor(),
 		Groups:  groups,
+		Peers:   r.pm,
 		dist:    map[distKey]*Distribution{},
 		pos:     map[posKey]*Position{},
 		trend:   map[trendKey]*Trend{},
@@ -71,6 +73,9 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		probs.Add(err)
 		return nil, probs
 	}
+	// The peers rows join the later stages' rows: the figures file and
+	// Lookup read them from there.
+	m.Add(m.peersRows(nil)...)
 	return m, nil
 }
 

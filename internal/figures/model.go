@@ -82,6 +82,9 @@ type Model struct {
 	// Groups are the resolved comparison groups in brief order ("each"
 	// groups expanded in place).
 	Groups []*Group
+	// Peers is the data-driven peer grouping of the brief's peers:
+	// section, nil without one.
+	Peers *Peers
 
 	dist   map[distKey]*Distribution
 	pos    map[posKey]*Position
@@ -125,6 +128,8 @@ type Group struct {
 	// Spec is the name of the brief's group definition this group came
 	// from; it differs from Name only for groups expanded from "each".
 	Spec string
+	// Cluster is the cluster number (1-based) of a "cluster" group.
+	Cluster int
 	// Nearest lists, for a "nearest" group, the chosen institutions from
 	// the nearest outwards with their standardised distances.
 	Nearest []Neighbour

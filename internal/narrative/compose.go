@@ -21,6 +21,8 @@ type Commentary struct {
 	Summary []Paragraph
 	// Blocks holds the text of every commentary block of the brief.
 	Blocks map[*brief.CommentaryBlock][]Paragraph
+	// Clusters holds the peer-group text of every clusters block.
+	Clusters map[*brief.ClustersBlock][]Paragraph
 	// Sentences lists every sentence in pack order (the summary, then the
 	// blocks in brief order), for the sources appendix.
 	Sentences []Sentence
@@ -47,7 +49,7 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 		return nil, diag.At(b.File, p.Line, p.Column, "%v", err)
 	}
 	c := newComposer(m, b, w)
-	out := &Commentary{Blocks: map[*brief.CommentaryBlock][]Paragraph{}, rankBands: b.RankBands, wording: w}
+	out := &Commentary{Blocks: map[*brief.CommentaryBlock][]Paragraph{}, Clusters: map[*brief.ClustersBlock][]Paragraph{}, rankBands: b.RankBands, wording: w}
 	out.Summary = c.write(c.executiveScope())
 
 	var probs diag.List
@@ -79,10 +81,20 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 		return nil, err
 	}
 	out.dedupe(b, executivePlaced)
+	nc := 0
+	for _, blk := range b.Blocks {
+		if pb, ok := blk.(*brief.ClustersBlock); ok && m.Peers != nil {
+			nc++
+			out.Clusters[pb] = c.peersParagraphs(fmt.Sprintf("clusters-%02d", nc))
+		}
+	}
 	out.Sentences = collect(out.Summary)
 	for _, blk := range b.Blocks {
-		if cb, ok := blk.(*brief.CommentaryBlock); ok {
-			out.Sentences = append(out.Sentences, collect(out.Blocks[cb])...)
+		switch v := blk.(type) {
+		case *brief.CommentaryBlock:
+			out.Sentences = append(out.Sentences, collect(out.Blocks[v])...)
+		case *brief.ClustersBlock:
+			out.Sentences = append(out.Sentences, collect(out.Clusters[v])...)
 		}
 	}
 	if err := checkCites(m, out.Sentences); err != nil {

@@ -133,6 +133,9 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	if r.Year != 0 {
 		out = append(out, strconv.Itoa(r.Year))
 	}
+	if r.Section == figures.SectionPeers {
+		return append(out, peersRenderings(m, r)...)
+	}
 	v := r.Value
 	ind, hasInd := m.Indicator(r.Indicator)
 	whole := int(math.Round(v))

@@ -68,7 +68,9 @@ func checkExists(fsys fs.FS, b *brief.Brief, key, p string) error {
 			}
 		}
 	}
-	msg := "is not in the brief's folder"
+	// "does not exist" rather than "is not in the folder": a file deleted
+	// or renamed since the last build (under --watch) is not elsewhere.
+	msg := "does not exist in the brief's folder"
 	if dir != "." {
 		msg = "does not exist below the brief's folder"
 	}

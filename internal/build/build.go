@@ -132,6 +132,10 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		probs.Add(err)
 		return nil, probs.Err()
 	}
+	if err := checkNames(m); err != nil {
+		probs.Add(err)
+		return nil, probs.Err()
+	}
 	if err := layout.CheckPlaceholders(b, m); err != nil {
 		probs.Add(err)
 		return nil, probs.Err()

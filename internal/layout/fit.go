@@ -37,8 +37,8 @@ const (
 	// joinShare is the fill under which a section's last page takes the
 	// next section: a little over runtShare, since a reader judges a page
 	// by its ink, not by the layout's own measure of it.
-	joinShare = 0.4
-	maxJoinRounds    = 4
+	joinShare     = 0.4
+	maxJoinRounds = 4
 )
 
 func (p *fitPlan) chartScale(section int) float64 {

@@ -145,11 +145,6 @@ func (w *writer) setTable(g grid) {
 		}
 		return float64(n)*lineH + 2*cellPadY
 	}
-	rowH := 0.0
-	if len(g.rows) > 0 {
-		rowH = rowHeight(0)
-	}
-
 	capSp := w.captionSpans("Table", w.tableNo, g.caption)
 	if g.noNumber {
 		capSp = []span{{text: g.caption, font: w.st.font(pdf.Regular, captionSize), color: w.st.muted}}
@@ -217,7 +212,7 @@ func (w *writer) setTable(g grid) {
 	drawCaption(false)
 	drawHead()
 	for ri, r := range g.rows {
-		rowH = rowHeight(ri)
+		rowH := rowHeight(ri)
 		// Do not strand the last row alone on a continuation page.
 		lastTwo := ri == len(g.rows)-2 && ri >= lead && w.y+rowH+rowHeight(ri+1) > w.bottom()
 		if w.y+rowH > w.bottom() || lastTwo {
@@ -250,12 +245,15 @@ func (w *writer) setTable(g grid) {
 				}
 				w.doc.SetTextColor(col)
 				base := w.y + cellPadY + pdf.PtToMM(tableSize)*0.95
-				room := widths[c] - 2*cellPadX
+				// The lines were fitted to the cell less glyphColumn when
+				// shaded; left-aligned text starts after the glyph so the two
+				// never overlap (right-aligned text ends at the far edge).
+				textX := x + cellPadX
 				if cl.shade > 0 {
-					room -= glyphColumn
 					w.doc.SetFont(w.st.font(pdf.Regular, tableSize-1.5))
 					w.doc.Text(x+cellPadX, base-0.2, quartileGlyph(cl.shade))
 					w.doc.SetFont(f)
+					textX += glyphColumn
 				}
 				var lines []string
 				if c < len(rowLines[ri]) {
@@ -265,7 +263,7 @@ func (w *writer) setTable(g grid) {
 					if g.align[c] == 'R' {
 						w.doc.TextRight(x+widths[c]-cellPadX, base+float64(li)*lineH, s)
 					} else {
-						w.doc.Text(x+cellPadX, base+float64(li)*lineH, s)
+						w.doc.Text(textX, base+float64(li)*lineH, s)
 					}
 				}
 				x += widths[c]

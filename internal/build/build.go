@@ -9,6 +9,7 @@ package build
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
 	"io/fs"
@@ -26,6 +27,7 @@ import (
 	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
 	"peerpack/internal/layout"
 	"peerpack/internal/limits"
 	"peerpack/internal/narrative"
@@ -104,12 +106,9 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 // LoadWith is Load with the given limits on every input.
 func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inputs, error) {
 	lim = lim.Or()
-	raw, err := fs.ReadFile(src.FS, src.Brief)
+	raw, err := readBrief(src)
 	if err != nil {
-		return nil, diag.At(src.Display, 0, 0, "cannot read the brief: %v", unwrap(err))
-	}
-	if len(raw) > brief.MaxBriefBytes {
-		return nil, diag.At(src.Display, 0, 0, "brief is %d bytes, over the limit of %d bytes", len(raw), brief.MaxBriefBytes)
+		return nil, err
 	}
 	var probs diag.List
 	b, err := brief.ParseWith(src.Display, raw, lim.YAML())
@@ -144,11 +143,51 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		probs.Add(err)
 		return nil, probs.Err()
 	}
+	if err := checkNames(m); err != nil {
+		probs.Add(err)
+		return nil, probs.Err()
+	}
 	if err := layout.CheckPlaceholders(b, m); err != nil {
 		probs.Add(err)
 		return nil, probs.Err()
 	}
 	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS, Sources: rec.Files(), Rebuild: src.Rebuild}, nil
+}
+
+// readBrief checks the brief's kind and size before reading it (a named
+// pipe would block the open, /dev/zero would never end, a 2 GB file would
+// be read whole before its size was seen), then reads it through a limit
+// in case it grows meanwhile.
+func readBrief(src Source) ([]byte, error) {
+	fi, err := fs.Stat(src.FS, src.Brief)
+	if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
+			return nil, diag.At(src.Display, 0, 0, "cannot read the brief: there is no such file; check the path")
+		}
+		return nil, diag.At(src.Display, 0, 0, "the brief %s", dataset.OpenProblem(err))
+	}
+	if kind := dataset.NotAFile(fi.Mode()); kind != "" {
+		return nil, diag.At(src.Display, 0, 0, "the brief is %s, not a file; name a Markdown file, e.g. brief.md", kind)
+	}
+	tooBig := func(n int64) error {
+		return diag.At(src.Display, 0, 0, "the brief is %s, over the limit of %s for a brief; keep data in the data files it names", format.Bytes(int(n)), format.Bytes(brief.MaxBriefBytes))
+	}
+	if fi.Size() > brief.MaxBriefBytes {
+		return nil, tooBig(fi.Size())
+	}
+	f, err := src.FS.Open(src.Brief)
+	if err != nil {
+		return nil, diag.At(src.Display, 0, 0, "the brief %s", dataset.OpenProblem(err))
+	}
+	defer f.Close()
+	raw, err := io.ReadAll(io.LimitReader(f, brief.MaxBriefBytes+1))
+	if err != nil {
+		return nil, diag.At(src.Display, 0, 0, "the brief %s", dataset.OpenProblem(err))
+	}
+	if len(raw) > brief.MaxBriefBytes {
+		return nil, tooBig(int64(len(raw)))
+	}
+	return raw, nil
 }
 
 // checkBlockCounts refuses a brief with more charts or blocks than the

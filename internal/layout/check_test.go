@@ -215,3 +215,24 @@ func TestCheckPlaceholders(t *testing.T) {
 		t.Fatalf("fixture placeholders: %v", err)
 	}
 }
+
+// An undefined group in a placeholder is reported once, at its position
+// (the brief's check), not a second time by the model's.
+func TestPlaceholderUnknownGroupOnce(t *testing.T) {
+	base := fixtureInput(t, 60)
+	key := base.Model.Data.Dictionary.Indicators[0].Key
+	src, err := os.ReadFile(filepath.Join(fixtureDir, "brief.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	src = append(src, []byte("\n\nIt reads {=median "+key+" in Nowhere}.\n")...)
+	in := fixtureInputFrom(t, 60, src)
+	err = CheckPlaceholders(in.Brief, in.Model)
+	var l *diag.List
+	if !errors.As(err, &l) || len(l.Items) != 1 {
+		t.Fatalf("want exactly one problem, got %v", err)
+	}
+	if !strings.Contains(err.Error(), `names group "Nowhere", which the front matter does not define`) {
+		t.Errorf("message: %v", err)
+	}
+}

@@ -108,7 +108,6 @@ func reorder(w io.Writer, pkg []byte) error {
 	for _, f := range files {
 		h := f.FileHeader
 		h.Modified = fixedTime
-		h.ModifiedDate, h.ModifiedTime = 0, 0
 		h.Extra = nil
 		raw, err := f.OpenRaw()
 		if err != nil {

@@ -263,3 +263,71 @@ func TestBatchChartsPerPack(t *testing.T) {
 		}
 	}
 }
+
+// Ids that make the same file name each get their own file (common
+// practice, no source: a batch must never report a pack built that a
+// later pack overwrote), in a way that does not depend on their order.
+func TestGroupOutputsAreUnique(t *testing.T) {
+	ids := []string{"sub/x", "sub_x", "KE001", "ke001", "AL002"}
+	var jobs []Job
+	for _, id := range ids {
+		jobs = append(jobs, Job{Focus: id, Output: safeName(id) + ".pdf"})
+	}
+	got, err := uniqueOutputs(jobs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	seen := map[string]bool{}
+	names := map[string]string{}
+	for _, j := range got {
+		key := strings.ToLower(j.Output)
+		if seen[key] {
+			t.Errorf("%s written twice", j.Output)
+		}
+		seen[key] = true
+		names[j.Focus] = j.Output
+		if !strings.HasSuffix(j.Output, ".pdf") || strings.ContainsAny(j.Output, "/\\") {
+			t.Errorf("%q is not a plain PDF file name", j.Output)
+		}
+	}
+	if names["AL002"] != "AL002.pdf" {
+		t.Errorf("an id that collides with nothing keeps its plain name, got %s", names["AL002"])
+	}
+	// The same ids in another order get the same names.
+	var rev []Job
+	for i := len(ids) - 1; i >= 0; i-- {
+		rev = append(rev, Job{Focus: ids[i], Output: safeName(ids[i]) + ".pdf"})
+	}
+	again, _ := uniqueOutputs(rev)
+	for _, j := range again {
+		if names[j.Focus] != j.Output {
+			t.Errorf("%s: %s in one order, %s in another", j.Focus, names[j.Focus], j.Output)
+		}
+	}
+}
+
+// Plan outputs differing only in case are one file on macOS and Windows.
+func TestPlanOutputsDifferingInCase(t *testing.T) {
+	fsys := fstest.MapFS{"plan.csv": {Data: []byte("focus,output\nKE001,Pack.pdf\nKE002,pack\n")}}
+	_, err := ReadPlan(fsys, "plan.csv", "plan.csv")
+	want := `plan.csv:3:1: output "pack.pdf" is also written by line 2; give each pack its own file name`
+	if err == nil || err.Error() != want {
+		t.Errorf("got  %v\nwant %s", err, want)
+	}
+}
+
+// A plan's unknown focus is reported at the plan's row, where the fix is.
+func TestPlanFocusErrorAtPlanRow(t *testing.T) {
+	in := loadDemo(t)
+	id := in.Figures.InstitutionID(in.Figures.Groups[0].Members[0])
+	fsys := fstest.MapFS{"plan.csv": {Data: []byte("focus,output\n" + id + "X,a.pdf\n")}}
+	jobs, err := ReadPlan(fsys, "plan.csv", "plans/plan.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	outs := Run(context.Background(), in, jobs, Options{OutDir: t.TempDir(), Workers: 1, Created: created, Version: "test"})
+	want := `plans/plan.csv:2:1: focus "` + id + `X" is not in the register institutions.csv; did you mean "` + id + `"?`
+	if outs[0].Err == nil || outs[0].Err.Error() != want {
+		t.Errorf("got  %v\nwant %s", outs[0].Err, want)
+	}
+}

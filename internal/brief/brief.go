@@ -22,10 +22,13 @@ type Brief struct {
 	// Dir is the folder data paths are relative to.
 	Dir string `yaml:"-"`
 
-	Title    string   `yaml:"title"`
-	Subtitle string   `yaml:"subtitle"`
-	Audience string   `yaml:"audience"`
-	Author   string   `yaml:"author"`
+	Title    string `yaml:"title"`
+	Subtitle string `yaml:"subtitle"`
+	Audience string `yaml:"audience"`
+	Author   string `yaml:"author"`
+	// Contact says whom to ask about the pack (a name, an office, an
+	// address); it closes "About these figures".
+	Contact  string   `yaml:"contact"`
 	Date     string   `yaml:"date"`
 	Keywords []string `yaml:"keywords"`
 	// Focus is the register id of the institution the pack is about.
@@ -291,7 +294,9 @@ type ChartBlock struct {
 	Size string `yaml:"size"`
 	// Orientation is horizontal (default for box) or vertical.
 	Orientation string `yaml:"orientation"`
-	// Scale, for radar axes: percentile (default) or range.
+	// Scale, for radar axes: percentile (default), range (each spoke over
+	// the values shown) or common (one scale from zero for every spoke,
+	// for shares of one whole).
 	Scale string `yaml:"scale"`
 	// Fit adds a least-squares line to a scatter.
 	Fit bool `yaml:"fit"`

@@ -15,6 +15,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"peerpack/internal/provenance"
 	"runtime/debug"
 	"strconv"
 	"strings"
@@ -39,6 +40,13 @@ type Source struct {
 	Brief string
 	// Display is how messages name the brief (the path the user typed).
 	Display string
+	// Dir is the root folder on disk (absolute), empty for an in-memory
+	// FS; builds use it to refuse an output that is one of their inputs.
+	Dir string
+	// Rebuild is the command a reader runs to build the pack again from
+	// the same files, printed in its closing section; empty gives
+	// "peerpack build" with the brief's name.
+	Rebuild string
 }
 
 // OpenSource opens a brief on disk. Its data paths are confined to root,
@@ -64,7 +72,7 @@ func OpenSource(briefPath, root string) (Source, error) {
 	if err != nil {
 		return Source{}, diag.At(root, 0, 0, "cannot open the folder: %v", unwrap(err))
 	}
-	return Source{FS: r.FS(), Brief: filepath.ToSlash(rel), Display: briefPath}, nil
+	return Source{FS: r.FS(), Brief: filepath.ToSlash(rel), Display: briefPath, Dir: absRoot}, nil
 }
 
 func unwrap(err error) error {
@@ -81,6 +89,11 @@ type Inputs struct {
 	Report  *dataset.Report
 	Figures *figures.Model
 	FS      fs.FS
+	// Sources are the data files read, with sizes and checksums, for the
+	// pack's closing section.
+	Sources []provenance.File
+	// Rebuild is the command that rebuilds the pack from the same files.
+	Rebuild string
 }
 
 // Load reads the brief and everything it names, and computes the figures
@@ -116,7 +129,8 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		// Front matter problems make loading the data pointless.
 		return nil, probs.Err()
 	}
-	d, rep, err := dataset.LoadWith(src.FS, b, lim)
+	rec := provenance.New(src.FS)
+	d, rep, err := dataset.LoadWith(rec, b, lim)
 	if err != nil {
 		probs.Add(err)
 		// The report says what loaded; check prints it above the problems.
@@ -135,7 +149,7 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		probs.Add(err)
 		return nil, probs.Err()
 	}
-	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS}, nil
+	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS, Sources: rec.Files(), Rebuild: src.Rebuild}, nil
 }
 
 // checkBlockCounts refuses a brief with more charts or blocks than the
@@ -218,7 +232,8 @@ type Options struct {
 	Override func(*brief.Brief)
 	// Limits cap every input; the zero value means the defaults.
 	Limits limits.Limits
-	// AfterStage, when set, is called after each stage ("load", "pack")
+	// AfterStage, when set, is called after each stage ("load", "pack",
+	// "written": every output in its temporary, none renamed yet)
 	// with the stage's name; tests use it to interrupt a build part way.
 	AfterStage func(stage string)
 }
@@ -256,7 +271,7 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 	}
 	pdf, figs, err := layout.RenderFigures(layout.Input{
 		Brief: in.Brief, Model: in.Figures, Commentary: com, FS: in.FS,
-		Created: created, Version: version,
+		Created: created, Version: version, Sources: in.Sources, Rebuild: in.Rebuild,
 	})
 	if err != nil {
 		return nil, err
@@ -276,8 +291,14 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 			opt.AfterStage(stage)
 		}
 	}
+	if err := checkOutputKinds(opt); err != nil {
+		return nil, err
+	}
 	in, err := LoadWith(src, opt.Override, opt.Limits)
 	if err != nil {
+		return nil, err
+	}
+	if err := checkOutputsAgainstInputs(opt, src, in.Brief); err != nil {
 		return nil, err
 	}
 	after("load")
@@ -293,27 +314,43 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	if err := ctx.Err(); err != nil {
 		return nil, interrupted(opt.Output)
 	}
-	if err := atomicfile.WriteFile(ctx, opt.Output, pdf, 0o644); err != nil {
+	// One build, one outcome: every output is written in full to a
+	// temporary first, and the targets are replaced only when all are.
+	var set atomicfile.Set
+	if err := set.Add(opt.Output, 0o644, writeBytes(pdf)); err != nil {
 		return nil, err
 	}
 	if opt.Figures != "" {
-		err := atomicfile.Write(ctx, opt.Figures, 0o644, func(w io.Writer) error { return figures.WriteCSV(w, in.Figures) })
+		err := set.Add(opt.Figures, 0o644, func(w io.Writer) error { return figures.WriteCSV(w, in.Figures) })
 		if err != nil {
 			return nil, err
 		}
 	}
 	if opt.Workbook != "" {
-		err := atomicfile.Write(ctx, opt.Workbook, 0o644, func(w io.Writer) error { return WriteWorkbook(w, in.Figures) })
+		err := set.Add(opt.Workbook, 0o644, func(w io.Writer) error { return WriteWorkbook(w, in.Figures) })
 		if err != nil {
 			return nil, err
 		}
 	}
+	after("written")
+	if err := set.Commit(ctx); err != nil {
+		return nil, err
+	}
+	// The charts are a folder of many files, each written atomically,
+	// after the pack itself is in place.
 	if opt.Charts != "" {
 		if _, err := chartfiles.Write(ctx, opt.Charts, packed.Figures); err != nil {
 			return nil, err
 		}
 	}
 	return &Result{Output: opt.Output, Bytes: len(pdf), Inputs: in}, nil
+}
+
+func writeBytes(b []byte) func(io.Writer) error {
+	return func(w io.Writer) error {
+		_, err := w.Write(b)
+		return err
+	}
 }
 
 func interrupted(out string) error {
@@ -348,5 +385,5 @@ func Refocus(base *Inputs, override func(*brief.Brief)) (*Inputs, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Inputs{Brief: &b, Data: base.Data, Report: base.Report, Figures: m, FS: base.FS}, nil
+	return &Inputs{Brief: &b, Data: base.Data, Report: base.Report, Figures: m, FS: base.FS, Sources: base.Sources}, nil
 }

@@ -14,6 +14,7 @@ package layout
 import (
 	"fmt"
 	"io/fs"
+	"peerpack/internal/provenance"
 	"time"
 
 	"github.com/yuin/goldmark/ast"
@@ -38,6 +39,11 @@ type Input struct {
 	Created time.Time
 	// Version is peerpack's version, for the Producer field.
 	Version string
+	// Sources are the data files the pack was built from, with sizes and
+	// checksums; Rebuild is the command that builds it again (empty: a
+	// generic one is given). Both go into "About these figures".
+	Sources []provenance.File
+	Rebuild string
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief
@@ -78,6 +84,22 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 				}
 			}
 		}
+	}
+	// A runt that tightening could not pull back is given enough to carry:
+	// the next section opens on that page. Joining moves every later page
+	// break, so the check runs again on the joined layout, a few times at
+	// most (each round only adds joins, so it settles).
+	for range maxJoinRounds {
+		ends := first.runtEnds()
+		if len(ends) == 0 {
+			break
+		}
+		p := plan.withJoins(ends)
+		alt, err := pass(in, nil, p)
+		if err != nil {
+			break
+		}
+		first, plan = alt, p
 	}
 	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
@@ -124,7 +146,7 @@ func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 		in: in, b: b, m: in.Model, com: in.Commentary, doc: doc, st: newStyle(b.Theme.Font, b.Theme.Accent),
 		src: b.Body, known: known, measuring: known == nil, colGap: 8, cols: 1,
 		consumed: map[ast.Node]bool{}, plan: plan,
-		chartHeight: map[int]float64{}, tableCount: map[int]int{},
+		chartHeight: map[int]float64{}, tableCount: map[int]int{}, headed: map[int]bool{},
 	}
 	w.register()
 	w.indexBlocks()
@@ -188,6 +210,8 @@ func focusName(m *figures.Model) string {
 // configuration the brief package checks it with.
 func (w *writer) body() {
 	doc := brief.Markdown().Parser().Parse(text.NewReader(w.src))
-	w.newPage()
+	if !w.plan.joins(w.section + 1) {
+		w.newPage()
+	}
 	w.walk(doc)
 }

@@ -105,7 +105,7 @@ func (w *writer) setTable(g grid) {
 	headLines := make([][]string, ncol)
 	maxLines := 1
 	for c := 0; c < ncol; c++ {
-		sp := []span{{text: g.head[c], font: headF}}
+		sp := []span{{text: glueHeader(g.head[c]), font: headF}}
 		for _, ln := range w.wrap(sp, w.tokenize(sp), widths[c]-2*cellPadX, widths[c]-2*cellPadX) {
 			var parts []string
 			for _, t := range ln.toks {
@@ -331,7 +331,7 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 	word := make([]float64, ncol)    // widest single word (text columns)
 	cellNat := make([]float64, ncol) // widest cell, header left out
 	for c := 0; c < ncol; c++ {
-		for _, wd := range strings.Fields(g.head[c]) {
+		for _, wd := range strings.Split(glueHeader(g.head[c]), " ") {
 			word[c] = math.Max(word[c], w.doc.WidthIn(headF, wd))
 		}
 		nat[c] = word[c]
@@ -564,4 +564,16 @@ func (w *writer) labelsTall(g grid, c int, width float64, bodyF, boldF pdf.Font)
 		}
 	}
 	return false
+}
+
+// glueHeader keeps a header's joining marks with the words they join, so
+// that a narrow column breaks it only between words: a slash stays at the
+// end of the line before the break ("Students /" over "academic ↓") and
+// the lower-is-better arrow with the word before it, never a line of its
+// own. The glue is a no-break space, which the flow does not break at.
+func glueHeader(s string) string {
+	s = strings.ReplaceAll(s, " / ", "\u00a0/ ")
+	s = strings.ReplaceAll(s, " ↓", "\u00a0↓")
+	s = strings.ReplaceAll(s, " ↑", "\u00a0↑")
+	return s
 }

@@ -38,6 +38,8 @@ type env struct {
 	stdout, stderr io.Writer
 	quiet, verbose bool
 	limits         limits.Limits
+	// charts is the --charts folder of build and demo, empty for none.
+	charts string
 }
 
 // limitFlag collects repeated --limit name=value[,name=value] flags.

@@ -24,6 +24,7 @@ import (
 
 	"peerpack/internal/atomicfile"
 	"peerpack/internal/brief"
+	"peerpack/internal/chartfiles"
 	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
 	"peerpack/internal/figures"
@@ -262,6 +263,9 @@ type Options struct {
 	Output   string // PDF path
 	Figures  string // figures CSV path, optional
 	Workbook string // figures XLSX path, optional
+	// Charts, when set, is a folder that receives every figure of the
+	// pack as SVG and 300-dpi PNG (internal/chartfiles).
+	Charts   string
 	Created  time.Time
 	Version  string
 	Override func(*brief.Brief)
@@ -287,6 +291,8 @@ type Result struct {
 type Packed struct {
 	PDF        []byte
 	Commentary *narrative.Commentary
+	// Figures are the charts as set in the pack, in figure order.
+	Figures []layout.Figure
 }
 
 // Pack writes the commentary and lays out the PDF of loaded inputs. It
@@ -302,14 +308,14 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 	if err != nil {
 		return nil, err
 	}
-	pdf, err := layout.Render(layout.Input{
+	pdf, figs, err := layout.RenderFigures(layout.Input{
 		Brief: in.Brief, Model: in.Figures, Commentary: com, FS: in.FS,
 		Created: created, Version: version, Sources: in.Sources, Rebuild: in.Rebuild,
 	})
 	if err != nil {
 		return nil, err
 	}
-	return &Packed{PDF: pdf, Commentary: com}, nil
+	return &Packed{PDF: pdf, Commentary: com, Figures: figs}, nil
 }
 
 // Build runs the whole pipeline for one brief and writes the outputs.
@@ -368,6 +374,13 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	after("written")
 	if err := set.Commit(ctx); err != nil {
 		return nil, err
+	}
+	// The charts are a folder of many files, each written atomically,
+	// after the pack itself is in place.
+	if opt.Charts != "" {
+		if _, err := chartfiles.Write(ctx, opt.Charts, packed.Figures); err != nil {
+			return nil, err
+		}
 	}
 	return &Result{Output: opt.Output, Bytes: len(pdf), Inputs: in}, nil
 }

@@ -13,6 +13,7 @@ import (
 
 	"peerpack/internal/diag"
 	"peerpack/internal/narrative"
+	"peerpack/internal/pdfcheck"
 )
 
 func renderFixture(t testing.TB) []byte {
@@ -30,6 +31,10 @@ func renderFixture(t testing.TB) []byte {
 // with its diacritics, and table values equal to R's quartiles).
 func TestPackPassesPDFTools(t *testing.T) {
 	out := renderFixture(t)
+	// pdfcpu's strict mode (ISO 32000-1) beside qpdf's structural check.
+	if err := pdfcheck.Strict(out); err != nil {
+		t.Errorf("%v", err)
+	}
 	runTool(t, out, "qpdf", "--check")
 
 	fonts := runTool(t, out, "pdffonts")

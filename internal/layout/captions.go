@@ -51,8 +51,12 @@ func CaptionWarnings(b *brief.Brief, m *figures.Model) []string {
 				switch c.noun {
 				case "indicator", "measure":
 					have, what = len(inds), "indicators"
-				case "system", "group", "country", "sector":
+				case "group":
 					have, what = len(groups), "groups"
+				case "system", "country":
+					// "six systems" counts the countries the block's
+					// groups draw on, one group or several.
+					have, what = countriesOf(m, groups), "systems (countries) among its groups' members"
 				case "highest", "lowest", "best", "top", "institution", "university", "bar":
 					have, what = bars, "ranked bars"
 				}
@@ -77,7 +81,7 @@ var countWords = map[string]int{"two": 2, "three": 3, "four": 4, "five": 5, "six
 	"twenty-five": 25, "thirty": 30, "forty": 40, "fifty": 50}
 
 // countNouns are the words a stated count is read against, singular.
-var countNouns = []string{"indicator", "measure", "system", "group", "country", "sector", "highest", "lowest", "best", "top", "institution", "university", "bar"}
+var countNouns = []string{"indicator", "measure", "system", "group", "country", "highest", "lowest", "best", "top", "institution", "university", "bar"}
 
 // statedCounts finds "<number> [up to two words] <noun>" in a caption:
 // "the fifteen highest", "six competitor systems", "4 indicators".
@@ -93,6 +97,9 @@ func statedCounts(s string) []statedCount {
 		}
 		if !ok {
 			continue
+		}
+		if i+1 < len(words) && words[i+1] == "or" || i > 0 && (words[i-1] == "least" || words[i-1] == "than") {
+			continue // "two or more", "at least three", "more than five": a rule, not a count
 		}
 		for j := i + 1; j < len(words) && j <= i+3; j++ {
 			noun := strings.TrimSuffix(strings.TrimSuffix(words[j], "s"), "ie")
@@ -112,4 +119,19 @@ func statedCounts(s string) []statedCount {
 		}
 	}
 	return out
+}
+
+// countriesOf counts the countries among the members of the named groups.
+func countriesOf(m *figures.Model, names []string) int {
+	seen := map[string]bool{}
+	for _, n := range names {
+		g, ok := m.Group(n)
+		if !ok {
+			continue
+		}
+		for _, i := range g.Members {
+			seen[m.Data.Register.Institutions[i].Country] = true
+		}
+	}
+	return len(seen)
 }

@@ -17,12 +17,12 @@ func TestCaptionWarnings(t *testing.T) {
 	in := fixtureInputFrom(t, 60, fixtureBody(t, body))
 	ws := CaptionWarnings(in.Brief, in.Model)
 	if len(ws) != 2 {
-		t.Fatalf("warnings %q; want two (four indicators over two, six systems over two groups)", ws)
+		t.Fatalf("warnings %q; want two (four indicators over two, six systems over the two countries of Valmoria and the northern region)", ws)
 	}
 	if !strings.Contains(ws[0], `"four indicators"`) || !strings.Contains(ws[0], "shows 2 indicators") {
 		t.Errorf("first warning %q", ws[0])
 	}
-	if !strings.Contains(ws[1], `"six systems"`) || !strings.Contains(ws[1], "shows 2 groups") {
+	if !strings.Contains(ws[1], `"six systems"`) || !strings.Contains(ws[1], "systems (countries)") {
 		t.Errorf("second warning %q", ws[1])
 	}
 	if !strings.HasPrefix(ws[0], "brief.md:") {
@@ -46,7 +46,9 @@ func TestStatedCounts(t *testing.T) {
 			t.Errorf("%q: %+v, want %d %s", c.in, got, c.n, c.noun)
 		}
 	}
-	if got := statedCounts("In 2025, the sector grew."); len(got) != 0 {
-		t.Errorf("a year read as a count: %+v", got)
+	for _, s := range []string{"In 2025, the sector grew.", "Papers with authors in two or more countries", "at least three indicators"} {
+		if got := statedCounts(s); len(got) != 0 {
+			t.Errorf("%q read as a count: %+v", s, got)
+		}
 	}
 }

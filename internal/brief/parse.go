@@ -73,7 +73,10 @@ func ParseWith(file string, src []byte, lim yamlx.Limits) (*Brief, error) {
 		return nil, diag.At(file, line, 0, "the brief is not valid UTF-8 (first bad byte on this line); save it as UTF-8")
 	}
 	src = bytes.TrimPrefix(src, []byte("\xef\xbb\xbf"))
+	// Line endings as CommonMark 0.31 section 2.1 defines them: LF, CRLF,
+	// or a CR alone (as classic Mac OS saved text).
 	src = bytes.ReplaceAll(src, []byte("\r\n"), []byte("\n"))
+	src = bytes.ReplaceAll(src, []byte("\r"), []byte("\n"))
 	fm, body, bodyLine, err := splitFrontMatter(file, src)
 	if err != nil {
 		return nil, err
@@ -277,6 +280,14 @@ func (b *Brief) validateFrontMatter() error {
 		p := b.PosOf("quantiles")
 		l.Addf(b.File, p.Line, p.Column, "quantiles %q is not a known definition; use type7 (default), type6 or hinges", b.Quantiles)
 	}
+	if b.Noise != nil && !(*b.Noise >= 0 && *b.Noise < 25) {
+		p := b.PosOf("noise")
+		l.Addf(b.File, p.Line, p.Column, "noise %v is outside 0 to 25; it is the noise rule in percentile points, e.g. noise: 5", *b.Noise)
+	}
+	if b.SmallGroup != nil && *b.SmallGroup < 2 {
+		p := b.PosOf("small_group")
+		l.Addf(b.File, p.Line, p.Column, "small_group %d is below 2; it is the fewest members reporting for quarters and percentiles to be printed, e.g. small_group: 10", *b.SmallGroup)
+	}
 	switch b.Theme.Paper {
 	case "":
 		b.Theme.Paper = "a4"
@@ -319,8 +330,11 @@ func (b *Brief) validateFrontMatter() error {
 		if g.Each != "" {
 			defs++
 		}
+		if g.Cluster != nil {
+			defs++
+		}
 		if defs != 1 {
-			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest or each (each may carry a where)", g.Name)
+			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest, each or cluster (each may carry a where)", g.Name)
 		}
 		if g.Nearest != nil && (g.Nearest.Count < 1 || len(g.Nearest.Indicators) == 0) {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: nearest needs a count of at least 1 and a list of indicators, e.g. nearest: {count: 15, indicators: [fnci, papers_per_academic]}", g.Name)
@@ -331,6 +345,7 @@ func (b *Brief) validateFrontMatter() error {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: over must be ranked (default) or all", g.Name)
 		}
 	}
+	b.validatePeers(&l)
 	return l.Err()
 }
 
@@ -425,6 +440,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 		blk = &PageBreakBlock{}
 	case "columns":
 		blk = &ColumnsBlock{}
+	case "clusters":
+		blk = &ClustersBlock{}
 	case "composite":
 		blk = &CompositeBlock{}
 	default:
@@ -453,6 +470,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 	case *PageBreakBlock:
 		v.At = pos
 	case *ColumnsBlock:
+		v.At = pos
+	case *ClustersBlock:
 		v.At = pos
 	case *CompositeBlock:
 		v.At = pos
@@ -585,6 +604,22 @@ func (b *Brief) validateBlocks() error {
 					msg += fmt.Sprintf("; did you mean %q?", s)
 				}
 				bad(v, "%s (kinds are %s)", msg, quoteList(AppendixKinds))
+			}
+		case *ClustersBlock:
+			if b.Peers == nil {
+				bad(v, "a clusters block shows the peers: section, which this brief does not have; add one to the front matter, e.g. peers: {indicators: [citation_impact, papers_per_academic], k: auto}")
+			}
+			for _, s := range v.Show {
+				if !oneOf(s, ClustersParts) {
+					msg := fmt.Sprintf("clusters block: unknown part %q", s)
+					if n := yamlx.Nearest(s, ClustersParts); n != "" {
+						msg += fmt.Sprintf("; did you mean %q?", n)
+					}
+					bad(v, "%s (parts are %s)", msg, quoteList(ClustersParts))
+				}
+			}
+			if len(v.Show) == 0 {
+				v.Show = ClustersParts
 			}
 		case *ColumnsBlock:
 			if v.Count < 1 || v.Count > 3 {

@@ -93,6 +93,9 @@ func Number(v float64, decimals int) string {
 	if math.IsInf(v, 0) {
 		return "–"
 	}
+	if math.Abs(v) >= MaxExact {
+		return scientific(v)
+	}
 	r := Round(v, decimals)
 	s := roundString(math.Abs(r), clampDecimals(decimals))
 	intPart, frac := s, ""
@@ -111,6 +114,27 @@ func Number(v float64, decimals int) string {
 	}
 	b.WriteString(frac)
 	return b.String()
+}
+
+// MaxExact is 2^53: up to it every whole number is held exactly by a
+// float64 (IEEE 754-2008 binary64, 53-bit significand) and printed digit
+// for digit; from it on Number prints four significant digits in
+// scientific form, since the further digits are not in the data
+// (123456789012345678 is stored as 123456789012345680).
+const MaxExact = 1 << 53
+
+// scientific prints v as "1.235 × 10^17" (four significant digits, no-break
+// spaces around the sign so it never breaks across lines; the
+// exponent after a caret: the embedded fonts lack superscript 0 and 9).
+func scientific(v float64) string {
+	s := strconv.FormatFloat(math.Abs(v), 'e', 3, 64) // "1.235e+17"
+	mant, exp, _ := strings.Cut(s, "e")
+	e, _ := strconv.Atoi(exp)
+	sign := ""
+	if v < 0 {
+		sign = "−"
+	}
+	return sign + mant + "\u00a0×\u00a010^" + strconv.Itoa(e)
 }
 
 // Int prints a whole number with thousands separators.
@@ -194,7 +218,16 @@ func Percentile(p float64) string {
 	if math.IsNaN(p) || math.IsInf(p, 0) {
 		return "–"
 	}
-	return Ordinal(int(Round(p, 0))) + " percentile"
+	return Ordinal(PercentileRank(p)) + " percentile"
+}
+
+// PercentileRank is a percentile rank as printed: rounded to a whole
+// number and kept within 1 to 99. A mid-rank percentile is never 0 or 100
+// (100 x (below + ties/2) / n lies strictly between), so a printed "0th"
+// or "100th" would only be rounding, and reads as "below everyone" or
+// "above everyone including itself" (common practice, no source).
+func PercentileRank(p float64) int {
+	return min(max(int(Round(p, 0)), 1), 99)
 }
 
 // Ordinal prints 1st, 2nd, 3rd, 4th, 11th, 12th, 13th, 21st, 112th.

@@ -43,6 +43,12 @@ type valuesReader struct {
 	otherRows  int
 	otherFirst tabular.Cell
 	otherFile  string
+	// The last institution and indicator resolved: long files are grouped
+	// by institution, with the indicators in dictionary order within a
+	// year, so the next row usually names the same institution and the
+	// same or the next indicator; checking those first saves a map lookup
+	// per row.
+	lastInst, lastInd int
 }
 
 // maxUnknownNames caps the distinct unknown ids and keys remembered.
@@ -113,7 +119,11 @@ func (v *valuesReader) read(name string) {
 // institution resolves an id cell, aggregating unknown ids.
 func (v *valuesReader) institution(file string, c tabular.Cell) int {
 	id := strings.TrimSpace(c.Text)
+	if v.lastInst < len(v.reg.Institutions) && v.reg.Institutions[v.lastInst].ID == id {
+		return v.lastInst
+	}
 	if i := v.reg.Index(id); i >= 0 {
+		v.lastInst = i
 		return i
 	}
 	if id == "" {
@@ -135,6 +145,12 @@ func (v *valuesReader) institution(file string, c tabular.Cell) int {
 
 func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 	key := strings.TrimSpace(c.Text)
+	for _, i := range [2]int{v.lastInd + 1, v.lastInd} {
+		if i < len(v.dict.Indicators) && v.dict.Indicators[i].Key == key && v.dict.Indicators[i].Derive == "" {
+			v.lastInd = i
+			return i
+		}
+	}
 	if i := v.dict.Index(key); i >= 0 {
 		if v.dict.Indicators[i].Derive != "" {
 			if u, ok := v.derivedK[key]; ok {
@@ -146,6 +162,7 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 			}
 			return -1
 		}
+		v.lastInd = i
 		return i
 	}
 	if key == "" {

@@ -50,7 +50,7 @@ func NewCSVWith(file string, data []byte, lim limits.Limits) (*CSVReader, error)
 		return nil, diag.At(file, 1, 1, "the file is UTF-16 encoded; save it as UTF-8 (in a spreadsheet: \"CSV UTF-8 (comma delimited)\")")
 	}
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
-	if !utf8.Valid(data) {
+	if !validUTF8(data) {
 		return nil, encodingProblem(file, data)
 	}
 	r := &CSVReader{file: file, line: 1, col: 1, lim: lim}

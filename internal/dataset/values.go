@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"runtime"
 	"strconv"
 	"strings"
 
@@ -182,7 +183,25 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 	return -1
 }
 
+// plainYear is the year of a cell that year accepts without a problem.
+func plainYear(text string) (int, bool) {
+	s := strings.TrimSpace(text)
+	y, err := strconv.Atoi(s)
+	if err != nil {
+		if f, ferr := strconv.ParseFloat(s, 64); ferr == nil && f == math.Trunc(f) && math.Abs(f) < 1e6 {
+			y, err = int(f), nil
+		}
+	}
+	if err != nil || y < MinYear || y > MaxYear {
+		return 0, false
+	}
+	return y, true
+}
+
 func (v *valuesReader) year(file string, c tabular.Cell) int {
+	if y, ok := plainYear(c.Text); ok {
+		return y
+	}
 	s := strings.TrimSpace(c.Text)
 	y, err := strconv.Atoi(s)
 	if err != nil {
@@ -310,6 +329,13 @@ func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string
 			v.addf(file, h, "unexpected column %q in a long values file (institution,year,indicator,value[,note]); remove it, or use the wide shape with one column per indicator", r.Header()[i].Text)
 		}
 	}
+	cols := longColumns{ic: ic, yc: yc, kc: kc, vc: vc, nc: nc, hasNote: hasNote}
+	if cr, ok := r.(*tabular.CSVReader); ok && !hasNote && runtime.GOMAXPROCS(0) > 1 && cr.Unread() >= parallelBytes &&
+		len(v.dict.Indicators) <= math.MaxInt16 {
+		if parts := cr.Split(cr.Unread() / partBytes); parts != nil {
+			return v.readLongParts(parts, file, fileIdx, cols)
+		}
+	}
 	rows := 0
 	for {
 		row, err := r.Next()
@@ -324,28 +350,39 @@ func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string
 			break
 		}
 		rows++
-		inst := v.institution(file, row[ic])
-		ind := v.indicator(file, row[kc])
-		year := v.year(file, row[yc])
-		if ind < 0 {
-			continue
-		}
-		x, ok := v.value(file, row[vc], ind)
-		if inst < 0 || year == 0 || !ok {
-			continue
-		}
-		// An empty value claims no place, as in a wide file, so another
-		// file may supply it; its note is still kept.
-		if !math.IsNaN(x) {
-			v.store(file, fileIdx, row[vc], inst, ind, year, x)
-		}
-		if hasNote {
-			if n := strings.TrimSpace(row[nc].Text); n != "" {
-				v.l.notes = append(v.l.notes, stagedNote{CellRef{Indicator: ind, Year: year, Institution: inst}, strings.Clone(n)})
-			}
-		}
+		v.longRow(file, fileIdx, row, cols)
 	}
 	return rows
+}
+
+// longColumns are the positions of a long file's columns.
+type longColumns struct {
+	ic, yc, kc, vc, nc int
+	hasNote            bool
+}
+
+// longRow reads one row of a long values file.
+func (v *valuesReader) longRow(file string, fileIdx int, row []tabular.Cell, c longColumns) {
+	inst := v.institution(file, row[c.ic])
+	ind := v.indicator(file, row[c.kc])
+	year := v.year(file, row[c.yc])
+	if ind < 0 {
+		return
+	}
+	x, ok := v.value(file, row[c.vc], ind)
+	if inst < 0 || year == 0 || !ok {
+		return
+	}
+	// An empty value claims no place, as in a wide file, so another
+	// file may supply it; its note is still kept.
+	if !math.IsNaN(x) {
+		v.store(file, fileIdx, row[c.vc], inst, ind, year, x)
+	}
+	if c.hasNote {
+		if n := strings.TrimSpace(row[c.nc].Text); n != "" {
+			v.l.notes = append(v.l.notes, stagedNote{CellRef{Indicator: ind, Year: year, Institution: inst}, strings.Clone(n)})
+		}
+	}
 }
 
 func (v *valuesReader) readWide(r tabular.RowReader, fileIdx int, ic, yc int) int {

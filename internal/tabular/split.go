@@ -88,3 +88,6 @@ func lineBreaks(s string) int {
 	}
 	return n
 }
+
+// Unread is the number of bytes the reader has not read yet.
+func (r *CSVReader) Unread() int { return len(r.data) - r.pos }

@@ -28,9 +28,9 @@ var (
 
 // Kinds of parsed rows.
 const (
-	rowPlain int8 = iota // settled by the worker
-	rowWhole             // read in turn by longRow (cells in part.whole)
-	rowProblem           // the reader's problem (part.problems)
+	rowPlain   int8 = iota // settled by the worker
+	rowWhole               // read in turn by longRow (cells in part.whole)
+	rowProblem             // the reader's problem (part.problems)
 )
 
 type parsedRow struct {

@@ -107,7 +107,6 @@ func Write(dir string, o Options) error {
 		id, system, region string
 		research, intl     float64 // latent scores
 		size               float64 // log-scale size factor
-		sysResearch        float64
 	}
 	sysResearch := make([]float64, o.Systems)
 	sysIntl := make([]float64, o.Systems)

@@ -399,9 +399,5 @@ func oneOf(v string, set []string) bool {
 }
 
 func quoteList(set []string) string {
-	q := make([]string, len(set))
-	for i, s := range set {
-		q[i] = s
-	}
-	return strings.Join(q, ", ")
+	return strings.Join(set, ", ")
 }

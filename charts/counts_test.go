@@ -1,6 +1,7 @@
 package charts
 
 import (
+	"math"
 	"strconv"
 	"strings"
 	"testing"
@@ -65,5 +66,49 @@ func TestScatterLegendCountsOverlappingGroups(t *testing.T) {
 	}
 	if !strings.Contains(ps.legend.note, "drawn once") {
 		t.Errorf("legend note %q does not say shared points are drawn once", ps.legend.note)
+	}
+}
+
+// Shares of one whole are drawn on one common scale from zero (a pack
+// review saw a subject radar stretch each spoke over its own range, which
+// made an ordinary profile look extreme); the scale is stated and units
+// must agree.
+func TestRadarCommonScale(t *testing.T) {
+	m, b := buildModel(t, 40, "# R\n\n```chart\nkind: radar\nindicators: [fwci, intl_staff, ssr]\ngroups: [Kestria national]\nscale: common\n```\n")
+	if _, err := New(m, chartBlocks(b)[0], Theme{}); err == nil || !strings.Contains(err.Error(), "need one unit") {
+		t.Errorf("mixed units accepted on a common scale: %v", err)
+	}
+	m, b = buildModel(t, 40, "# R\n\n```chart\nkind: radar\nindicators: [intl_staff, field_a, field_b]\ngroups: [Kestria national]\nscale: common\n```\n")
+	c, err := New(m, chartBlocks(b)[0], Theme{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rc := c.(*RadarChart)
+	top := 0.0
+	for _, s := range rc.Series {
+		for _, v := range s.Values {
+			top = max(top, v)
+		}
+	}
+	for _, ax := range rc.Axes {
+		if ax.Inner != 0 || ax.Outer != rc.Axes[0].Outer || ax.Outer < top {
+			t.Errorf("spoke %s runs %g to %g; want 0 to one common rim at or above %g", ax.Label, ax.Inner, ax.Outer, top)
+		}
+		if !strings.HasPrefix(ax.InnerText, "median ") {
+			t.Errorf("spoke %s does not print its median: %q", ax.Label, ax.InnerText)
+		}
+	}
+	if !strings.Contains(rc.Note, "one scale, from 0 at the centre to") {
+		t.Errorf("note does not state the scale: %q", rc.Note)
+	}
+}
+
+// Round ring steps: 1, 2, 2.5 or 5 times a power of ten, never below the
+// step asked for (common practice, no source).
+func TestCeilStep(t *testing.T) {
+	for _, c := range []struct{ in, want float64 }{{7.8, 10}, {10, 10}, {1.3, 2}, {2.2, 2.5}, {0.031, 0.05}, {42, 50}} {
+		if got := ceilStep(c.in); math.Abs(got-c.want) > 1e-12 {
+			t.Errorf("ceilStep(%g) = %g, want %g", c.in, got, c.want)
+		}
 	}
 }

@@ -542,9 +542,9 @@ func (b *Brief) validateBlocks() error {
 				bad(v, "chart orientation %q: use horizontal or vertical", v.Orientation)
 			}
 			switch v.Scale {
-			case "", "percentile", "range":
+			case "", "percentile", "range", "common":
 			default:
-				bad(v, "radar scale %q: use percentile or range", v.Scale)
+				bad(v, "radar scale %q: use percentile, range or common", v.Scale)
 			}
 		case *TableBlock:
 			if v.Type == "" {

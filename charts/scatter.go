@@ -45,8 +45,19 @@ type ScatterChart struct {
 	// NoFit says why a line the block asked for is not drawn ("" when
 	// drawn or not asked for).
 	NoFit string
-	Theme Theme
-	built *panels
+	// Arrows, when set, are drawn from the origin (the sector map's
+	// loadings); they are scaled to the points' range by the plotter.
+	Arrows []ScatterArrow
+	// ArrowNote explains the arrows in the legend.
+	ArrowNote string
+	Theme     Theme
+	built     *panels
+}
+
+// ScatterArrow is a direction from the origin with its label.
+type ScatterArrow struct {
+	Label  string
+	DX, DY float64
 }
 
 // ScatterPlotter draws a ScatterChart's points, fit line and labels.
@@ -124,6 +135,9 @@ func (s *ScatterPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 		}
 	}
 	var labels []labelRequest
+	if len(sc.Arrows) > 0 {
+		lines = append(lines, s.drawArrows(&c, p, &labels)...)
+	}
 	named := NamedMarker()
 	for _, m := range sc.Marks {
 		pt := vg.Point{X: trX(m.X), Y: trY(m.Y)}
@@ -150,6 +164,43 @@ func (s *ScatterPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 		c.Fill(halo.Path())
 	}
 	drawLabels(&c, placed)
+}
+
+// drawArrows draws the arrows from the origin, the longest reaching 85 %
+// of the way to the nearest edge of the plotted range, so their lengths
+// compare with each other, not with the points' units.
+func (s *ScatterPlotter) drawArrows(c *draw.Canvas, p *plot.Plot, labels *[]labelRequest) [][]vg.Point {
+	trX, trY := p.Transforms(c)
+	longest := 0.0
+	for _, a := range s.Chart.Arrows {
+		longest = math.Max(longest, math.Hypot(a.DX, a.DY))
+	}
+	reach := math.Min(math.Min(-p.X.Min, p.X.Max), math.Min(-p.Y.Min, p.Y.Max))
+	if longest == 0 || reach <= 0 {
+		return nil
+	}
+	scale := 0.85 * reach / longest
+	ls := draw.LineStyle{Color: greyText, Width: vg.Points(0.8)}
+	var out [][]vg.Point
+	o := vg.Point{X: trX(0), Y: trY(0)}
+	for _, a := range s.Chart.Arrows {
+		tip := vg.Point{X: trX(a.DX * scale), Y: trY(a.DY * scale)}
+		c.StrokeLines(ls, []vg.Point{o, tip})
+		out = append(out, []vg.Point{o, tip})
+		// a small open head, 4 pt long, at 25 degrees either side
+		dx, dy := float64(tip.X-o.X), float64(tip.Y-o.Y)
+		if l := math.Hypot(dx, dy); l > 0 {
+			ux, uy := dx/l, dy/l
+			for _, sgn := range []float64{1, -1} {
+				ang := sgn * 25 * math.Pi / 180
+				hx := ux*math.Cos(ang) - uy*math.Sin(ang)
+				hy := ux*math.Sin(ang) + uy*math.Cos(ang)
+				c.StrokeLines(ls, []vg.Point{tip, {X: tip.X - vg.Length(4*hx), Y: tip.Y - vg.Length(4*hy)}})
+			}
+		}
+		*labels = append(*labels, labelRequest{Anchor: tip, Text: a.Label, Style: s.Chart.Theme.labelStyle(), Gap: 2, Priority: 2})
+	}
+	return out
 }
 
 func (sc *ScatterChart) panels() *panels {
@@ -201,6 +252,11 @@ func (sc *ScatterChart) panels() *panels {
 		// Each group's n counts all its members; a point in two groups is
 		// drawn once, so say in which colour.
 		l.note = strings.TrimSpace(l.note + " An institution in more than one group is drawn once, in the colour of the first group listed.")
+	}
+	if len(sc.Arrows) > 0 {
+		ls := draw.LineStyle{Color: greyText, Width: vg.Points(0.8)}
+		l.add(legendEntry{Text: "Indicator loading (direction)", Width: 20, Thumb: lineThumb(ls, nil)})
+		l.note = strings.TrimSpace(l.note + " " + sc.ArrowNote)
 	}
 	sc.built = ps
 	return ps

@@ -41,6 +41,8 @@ type Brief struct {
 	// Groups are the comparison groups, in pack order.
 	Groups     []GroupSpec     `yaml:"groups"`
 	Population *PopulationSpec `yaml:"population"`
+	// Peers asks for data-driven peer groups (clusters of profiles).
+	Peers *PeersSpec `yaml:"peers"`
 	// Named lists further institutions whose positions the figures record
 	// and charts may label.
 	Named []string `yaml:"named"`
@@ -56,6 +58,15 @@ type Brief struct {
 	// Quantiles selects the quantile definition: type7 (default), type6 or
 	// hinges.
 	Quantiles string `yaml:"quantiles"`
+	// Noise is the noise rule in percentile points (default DefaultNoise):
+	// a difference inside it is "level with", a position within it of a
+	// quarter boundary "at the edge" of the quarter, a change inside it
+	// "broadly unchanged". SmallGroup is the floor (default
+	// DefaultSmallGroup members reporting) below which quarters and
+	// percentiles are not printed, only ranks "of n". Read them with
+	// NoiseRule and SmallGroupFloor.
+	Noise      *float64 `yaml:"noise"`
+	SmallGroup *int     `yaml:"small_group"`
 
 	// Body is the Markdown after the front matter; BodyLine is the line
 	// of the brief on which it starts (1-based).
@@ -119,12 +130,15 @@ func (p *PathList) UnmarshalYAML(n *yaml.Node) error {
 }
 
 // GroupSpec defines one comparison group. Exactly one of Where, Members,
-// Nearest and Each defines it (Each may carry a Where to restrict it).
+// Nearest, Each and Cluster defines it (Each may carry a Where to restrict
+// it).
 type GroupSpec struct {
 	Name    string       `yaml:"name"`
 	Where   *Filter      `yaml:"where"`
 	Members []string     `yaml:"members"`
 	Nearest *NearestSpec `yaml:"nearest"`
+	// Cluster is one of the clusters of the peers: section.
+	Cluster *ClusterRef `yaml:"cluster"`
 	// Each expands into one group per distinct value of a register field,
 	// named "<Name>: <value>" or just the value when Name is empty.
 	Each string `yaml:"each"`
@@ -381,7 +395,7 @@ func (*AppendixBlock) Kind() string { return "appendix" }
 var AppendixKinds = []string{"methodology", "data"}
 
 // BlockKinds are the fence info strings peerpack recognises.
-var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns"}
+var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns", "clusters"}
 
 // ChartKinds are the chart kinds.
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars"}
@@ -406,4 +420,30 @@ func oneOf(v string, set []string) bool {
 
 func quoteList(set []string) string {
 	return strings.Join(set, ", ")
+}
+
+// Defaults of the brief's noise and small_group settings (common practice,
+// no source): five percentile points is four or five places in a group of
+// a hundred, which a revision or one institution entering can shift;
+// quartiles of fewer than ten values move a lot when one member changes.
+const (
+	DefaultNoise      = 5.0
+	DefaultSmallGroup = 10
+)
+
+// NoiseRule is the brief's noise setting in percentile points, or the
+// default.
+func (b *Brief) NoiseRule() float64 {
+	if b == nil || b.Noise == nil {
+		return DefaultNoise
+	}
+	return *b.Noise
+}
+
+// SmallGroupFloor is the brief's small_group setting, or the default.
+func (b *Brief) SmallGroupFloor() int {
+	if b == nil || b.SmallGroup == nil {
+		return DefaultSmallGroup
+	}
+	return *b.SmallGroup
 }

@@ -148,3 +148,27 @@ func FuzzBlockYAML(f *testing.F) {
 		DecodeBlock("brief.md", kind, src, 10)
 	})
 }
+
+// The noise and small_group settings default to 5 percentile points and
+// 10 members (common practice, no source), read back what the brief
+// writes, and are refused with the key's position outside their range.
+func TestNoiseAndSmallGroupSettings(t *testing.T) {
+	b, err := Parse("brief.md", []byte(goodBrief))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if b.NoiseRule() != 5 || b.SmallGroupFloor() != 10 {
+		t.Errorf("defaults: noise %v, small_group %v; want 5 and 10", b.NoiseRule(), b.SmallGroupFloor())
+	}
+	src := strings.Replace(goodBrief, "focus: KE001\n", "focus: KE001\nnoise: 2.5\nsmall_group: 6\n", 1)
+	if b, err = Parse("brief.md", []byte(src)); err != nil || b.NoiseRule() != 2.5 || b.SmallGroupFloor() != 6 {
+		t.Fatalf("set: %v, noise %v, small_group %v", err, b.NoiseRule(), b.SmallGroupFloor())
+	}
+	for _, bad := range []string{"noise: 30\n", "noise: -1\n", "small_group: 1\n"} {
+		src := strings.Replace(goodBrief, "focus: KE001\n", "focus: KE001\n"+bad, 1)
+		_, err := Parse("brief.md", []byte(src))
+		if err == nil || !strings.Contains(err.Error(), "brief.md:") || !strings.Contains(err.Error(), strings.SplitN(bad, ":", 2)[0]) {
+			t.Errorf("%q: %v, want a positioned error naming the key", bad, err)
+		}
+	}
+}

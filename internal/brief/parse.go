@@ -276,6 +276,14 @@ func (b *Brief) validateFrontMatter() error {
 		p := b.PosOf("quantiles")
 		l.Addf(b.File, p.Line, p.Column, "quantiles %q is not a known definition; use type7 (default), type6 or hinges", b.Quantiles)
 	}
+	if b.Noise != nil && !(*b.Noise >= 0 && *b.Noise < 25) {
+		p := b.PosOf("noise")
+		l.Addf(b.File, p.Line, p.Column, "noise %v is outside 0 to 25; it is the noise rule in percentile points, e.g. noise: 5", *b.Noise)
+	}
+	if b.SmallGroup != nil && *b.SmallGroup < 2 {
+		p := b.PosOf("small_group")
+		l.Addf(b.File, p.Line, p.Column, "small_group %d is below 2; it is the fewest members reporting for quarters and percentiles to be printed, e.g. small_group: 10", *b.SmallGroup)
+	}
 	switch b.Theme.Paper {
 	case "":
 		b.Theme.Paper = "a4"
@@ -318,8 +326,11 @@ func (b *Brief) validateFrontMatter() error {
 		if g.Each != "" {
 			defs++
 		}
+		if g.Cluster != nil {
+			defs++
+		}
 		if defs != 1 {
-			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest or each (each may carry a where)", g.Name)
+			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest, each or cluster (each may carry a where)", g.Name)
 		}
 		if g.Nearest != nil && (g.Nearest.Count < 1 || len(g.Nearest.Indicators) == 0) {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: nearest needs a count of at least 1 and a list of indicators, e.g. nearest: {count: 15, indicators: [fnci, papers_per_academic]}", g.Name)
@@ -330,6 +341,7 @@ func (b *Brief) validateFrontMatter() error {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: over must be ranked (default) or all", g.Name)
 		}
 	}
+	b.validatePeers(&l)
 	return l.Err()
 }
 
@@ -424,6 +436,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 		blk = &PageBreakBlock{}
 	case "columns":
 		blk = &ColumnsBlock{}
+	case "clusters":
+		blk = &ClustersBlock{}
 	default:
 		if s := yamlx.Nearest(info, BlockKinds); s != "" && info != "" {
 			return nil, diag.At(file, fenceLine, 1, "unknown block %q; did you mean %q? (blocks are %s)", info, s, quoteList(BlockKinds))
@@ -450,6 +464,8 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 	case *PageBreakBlock:
 		v.At = pos
 	case *ColumnsBlock:
+		v.At = pos
+	case *ClustersBlock:
 		v.At = pos
 	}
 	return blk, nil
@@ -578,6 +594,22 @@ func (b *Brief) validateBlocks() error {
 					msg += fmt.Sprintf("; did you mean %q?", s)
 				}
 				bad(v, "%s (kinds are %s)", msg, quoteList(AppendixKinds))
+			}
+		case *ClustersBlock:
+			if b.Peers == nil {
+				bad(v, "a clusters block shows the peers: section, which this brief does not have; add one to the front matter, e.g. peers: {indicators: [citation_impact, papers_per_academic], k: auto}")
+			}
+			for _, s := range v.Show {
+				if !oneOf(s, ClustersParts) {
+					msg := fmt.Sprintf("clusters block: unknown part %q", s)
+					if n := yamlx.Nearest(s, ClustersParts); n != "" {
+						msg += fmt.Sprintf("; did you mean %q?", n)
+					}
+					bad(v, "%s (parts are %s)", msg, quoteList(ClustersParts))
+				}
+			}
+			if len(v.Show) == 0 {
+				v.Show = ClustersParts
 			}
 		case *ColumnsBlock:
 			if v.Count < 1 || v.Count > 3 {

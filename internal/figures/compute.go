@@ -29,6 +29,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 	}
 	focus, tracked := checkFront(d, b, probs)
 	r := &resolver{d: d, b: b, focus: focus, probs: probs}
+	r.pm = r.peersFor()
 	groups := r.resolveGroups()
 	checkBlocks(d, b, groups, r.emptied, probs)
 	if err := probs.Err(); err != nil {
@@ -48,7 +49,9 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		First:   first,
 		Last:    last,
 		Method:  stats.ParseQuantileMethod(b.Quantiles),
+		Floor:   b.SmallGroupFloor(),
 		Groups:  groups,
+		Peers:   r.pm,
 		dist:    map[distKey]*Distribution{},
 		pos:     map[posKey]*Position{},
 		trend:   map[trendKey]*Trend{},
@@ -70,6 +73,9 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		probs.Add(err)
 		return nil, probs
 	}
+	// The peers rows join the later stages' rows: the figures file and
+	// Lookup read them from there.
+	m.Add(m.peersRows(nil)...)
 	return m, nil
 }
 
@@ -204,6 +210,7 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 		// Mean and SD first, in register order, so their last digits do not
 		// depend on how selection reorders the values.
 		dist.Mean, dist.SD = stats.MeanSD(vals)
+		dist.Skewness = stats.Skewness(vals)
 		for j, inst := range m.Named {
 			targets[j] = col[inst]
 		}
@@ -287,7 +294,9 @@ func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int,
 		return p // no member has a value: nothing to compare with
 	}
 	p.Rank, p.Of, p.Percentile, p.Ties = pl.Rank, pl.Of, pl.Percentile, pl.Ties
-	p.Quartile = stats.QuartileOf(p.Percentile)
+	// The quarter by the group's quartile values, ties and a value on a
+	// quartile going to the better quarter (stats.QuartileByValue).
+	p.Quartile = stats.QuartileByValue(v, dist.Box, RankDirection(ind.Better) == stats.LowerFirst)
 	p.Z = stats.Z(v, dist.Mean, dist.SD)
 	p.GapMedian, p.GapQ3 = gaps(ind.Better, v, dist.Box)
 	p.VsMedian, p.VsBetterQuartile = signedDifferences(ind.Better, v, dist.Box)

@@ -9,14 +9,16 @@ import (
 	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
 	"peerpack/internal/demo"
-	"peerpack/internal/stats"
 )
 
 // TestDemoInvariants computes the demo scenario's figures and checks
 // properties every model must have, whatever the data (definitions in
 // DEVELOPERS.md): n + missing = members; min <= drawn low whisker <= q1
 // <= median <= q3 <= drawn high whisker <= max; 1 <= rank <= of; 0 < percentile <
-// 100; the quartile agrees with the percentile; a member's of equals the
+// 100; the quartile agrees with the value's place among the group's
+// quartile values (a value on a quartile in the better quarter; ties share
+// one quarter, so a joint-best value is in the top quarter); a member's of
+// equals the
 // group's n, an outsider's n + 1. (The demo's golden file comes with the
 // demo's own tests.)
 func TestDemoInvariants(t *testing.T) {
@@ -74,8 +76,33 @@ func checkInvariants(t *testing.T, m *Model) {
 		if p.Rank < 1 || p.Rank > p.Of || p.Of != wantOf || !(p.Percentile > 0 && p.Percentile < 100) {
 			t.Fatalf("position out of range: %+v (n=%d)", p, dist.N)
 		}
-		if q := p.Quartile; q != stats.QuartileOf(p.Percentile) {
-			t.Fatalf("quartile %d for percentile %v", q, p.Percentile)
+		ind, _ := m.Indicator(p.Indicator)
+		hi, lo := dist.Q3, dist.Q1
+		if ind.Better == dataset.LowerIsBetter {
+			hi, lo = -dist.Q1, -dist.Q3
+		}
+		v := p.Value
+		if ind.Better == dataset.LowerIsBetter {
+			v = -v
+		}
+		med := dist.Median
+		if ind.Better == dataset.LowerIsBetter {
+			med = -med
+		}
+		want := 4
+		switch {
+		case v >= hi:
+			want = 1
+		case v >= med:
+			want = 2
+		case v >= lo:
+			want = 3
+		}
+		if p.Quartile != want {
+			t.Fatalf("quartile %d for %v against quartiles %v, %v, %v (%s)", p.Quartile, p.Value, dist.Q1, dist.Median, dist.Q3, ind.Better)
+		}
+		if p.Rank == 1 && p.Quartile != 1 {
+			t.Fatalf("a (joint) best value outside the top quarter: %+v", p)
 		}
 	}
 }

@@ -17,6 +17,8 @@ type resolver struct {
 	b     *brief.Brief
 	focus int
 	probs *diag.List
+	// pm is the peers: section's clustering, for cluster groups.
+	pm *Peers
 	// emptied names the groups of an each expansion that the population
 	// rules left without members, with why, so a block naming one is told
 	// that rather than "not defined".
@@ -60,6 +62,8 @@ func (r *resolver) resolveGroups() []*Group {
 			gs = r.members(spec, over)
 		case spec.Nearest != nil:
 			gs = r.nearest(spec, over)
+		case spec.Cluster != nil:
+			gs = r.clusterGroup(spec)
 		case spec.Where != nil:
 			gs = r.where(spec, over)
 		}

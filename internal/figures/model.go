@@ -74,10 +74,17 @@ type Model struct {
 	Years       []int
 	// Method is the quantile definition used.
 	Method stats.QuantileMethod
+	// Floor is the brief's small-group floor (brief.SmallGroupFloor):
+	// a distribution with fewer values than this is flagged
+	// (below_floor = 1) and packs print no quarters or percentiles for it.
+	Floor int
 
 	// Groups are the resolved comparison groups in brief order ("each"
 	// groups expanded in place).
 	Groups []*Group
+	// Peers is the data-driven peer grouping of the brief's peers:
+	// section, nil without one.
+	Peers *Peers
 
 	dist   map[distKey]*Distribution
 	pos    map[posKey]*Position
@@ -121,6 +128,8 @@ type Group struct {
 	// Spec is the name of the brief's group definition this group came
 	// from; it differs from Name only for groups expanded from "each".
 	Spec string
+	// Cluster is the cluster number (1-based) of a "cluster" group.
+	Cluster int
 	// Nearest lists, for a "nearest" group, the chosen institutions from
 	// the nearest outwards with their standardised distances.
 	Nearest []Neighbour
@@ -155,8 +164,10 @@ type Distribution struct {
 	Indicator string
 	Year      int
 	stats.Box
-	// Mean and SD (sample) of the members with a value.
+	// Mean and SD (sample) of the members with a value; Skewness their
+	// adjusted sample skewness (stats.Skewness), NaN under three values.
 	Mean, SD float64
+	Skewness float64
 	// Outliers are register positions of members beyond the whiskers.
 	Outliers []int
 }
@@ -217,6 +228,16 @@ type Trend struct {
 	// RankChange is positive when the rank improved (moved towards 1).
 	RankChange       int
 	PercentileChange float64
+	// PercentileMove is |PercentileChange|, so "the largest movement" can
+	// be checked figure against figure; ChangePerIQR is |Change| over the
+	// group's interquartile range in the last year (NaN when that is 0),
+	// so "broadly unchanged" can be checked against the noise share.
+	PercentileMove float64
+	ChangePerIQR   float64
+	// Points is the number of years with a value between StartYear and
+	// EndYear: two points give a change, not a trend, and the slope and
+	// CAGR of two points are no more than that change.
+	Points int
 	// StartOf and EndOf are the group sizes with a value in the first and
 	// last year; when they differ a lot, statements compare percentiles.
 	StartOf, EndOf int
@@ -327,6 +348,10 @@ func (m *Model) Indicator(key string) (dataset.Indicator, bool) {
 func (m *Model) InstitutionID(inst int) string {
 	return m.Data.Register.Institutions[inst].ID
 }
+
+// BelowFloor reports whether a distribution has fewer values than the
+// small-group floor (and at least one).
+func (m *Model) BelowFloor(d *Distribution) bool { return d != nil && d.N > 0 && d.N < m.Floor }
 
 // Add appends rows from a later stage (commentary, composite, ...).
 func (m *Model) Add(rows ...Row) {

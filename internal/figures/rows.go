@@ -162,10 +162,15 @@ func quantileMethodKey() Key {
 	return Key{Section: SectionDistribution, Measure: "quantile_method"}
 }
 
-// distributionRows yields a distribution's rows without an institution.
-func distributionRows(f rowSink, d *Distribution) bool {
+// distributionRows yields a distribution's rows without an institution;
+// below_floor (1 when fewer values than the small-group floor) is written
+// for distributions with at least one value.
+func distributionRows(f rowSink, d *Distribution, floor int) bool {
 	dk := func(measure string) Key {
 		return Key{Section: SectionDistribution, Group: d.Group, Indicator: d.Indicator, Year: d.Year, Measure: measure}
+	}
+	if d.N > 0 && !emitNum(f, dk("below_floor"), oneIf(d.N < floor)) {
+		return false
 	}
 	return emitNum(f, dk("iqr"), d.IQR) &&
 		emitNum(f, dk("max"), d.Max) &&
@@ -178,6 +183,7 @@ func distributionRows(f rowSink, d *Distribution) bool {
 		emitNum(f, dk("q1"), d.Q1) &&
 		emitNum(f, dk("q3"), d.Q3) &&
 		emitNum(f, dk("sd"), d.SD) &&
+		emitNum(f, dk("skewness"), d.Skewness) &&
 		emitNum(f, dk("whisker_high"), d.WhiskerHigh) &&
 		emitNum(f, dk("whisker_low"), d.WhiskerLow)
 }
@@ -227,7 +233,8 @@ func (m *Model) trendRows(f rowSink, t *Trend) bool {
 		return emitNum(f, tk("valid"), 0)
 	}
 	if t.Valid {
-		if !emitNum(f, tk("cagr"), t.CAGR) || !emitNum(f, tk("change"), t.Change) || !emitNum(f, tk("change_pct"), t.ChangePct) {
+		if !emitNum(f, tk("cagr"), t.CAGR) || !emitNum(f, tk("change"), t.Change) || !emitNum(f, tk("change_pct"), t.ChangePct) ||
+			!emitNum(f, tk("change_per_iqr"), t.ChangePerIQR) {
 			return false
 		}
 	}
@@ -240,7 +247,10 @@ func (m *Model) trendRows(f rowSink, t *Trend) bool {
 		if !emitNum(f, tk("median_change"), t.MedianChange) {
 			return false
 		}
-		if ranks && !emitNum(f, tk("percentile_change"), t.PercentileChange) {
+		if ranks && (!emitNum(f, tk("percentile_change"), t.PercentileChange) || !emitNum(f, tk("percentile_move"), t.PercentileMove)) {
+			return false
+		}
+		if !emitNum(f, tk("points"), float64(t.Points)) {
 			return false
 		}
 		if !emitNum(f, tk("prefer_percentiles"), oneIf(t.PreferPercentiles)) {
@@ -454,7 +464,7 @@ func (m *Model) streamDistributions(f rowSink, r *ranks) bool {
 		// then the outliers by institution id and year.
 		for ; hi < len(es) && es[hi].group == es[lo].group && es[hi].ind == es[lo].ind; hi++ {
 			d := es[hi].d
-			if !distributionRows(f, d) {
+			if !distributionRows(f, d, m.Floor) {
 				return false
 			}
 			for _, i := range d.Outliers {
@@ -631,7 +641,7 @@ func (m *Model) Lookup(k Key) (Row, bool) {
 			break
 		}
 		if inst < 0 {
-			distributionRows(f, d)
+			distributionRows(f, d, m.Floor)
 			break
 		}
 		if slices.Contains(d.Outliers, inst) {

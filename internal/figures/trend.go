@@ -34,6 +34,7 @@ func trendOf(g *Group, ind dataset.Indicator, inst int, series []*Position, dist
 	t := &Trend{Group: g.Name, Indicator: ind.Key, Institution: inst}
 	nan := math.NaN()
 	t.StartValue, t.EndValue, t.Change, t.ChangePct, t.CAGR, t.Slope, t.PercentileChange, t.MedianChange = nan, nan, nan, nan, nan, nan, nan, nan
+	t.PercentileMove, t.ChangePerIQR = nan, nan
 	first, last, xs, ys := spanOf(len(series), func(i int) (int, float64, bool) {
 		return series[i].Year, series[i].Value, series[i].HasValue
 	})
@@ -41,6 +42,7 @@ func trendOf(g *Group, ind dataset.Indicator, inst int, series []*Position, dist
 		return t
 	}
 	s, e := series[first], series[last]
+	t.Points = len(xs)
 	t.StartYear, t.StartValue = s.Year, s.Value
 	t.EndYear, t.EndValue = e.Year, e.Value
 	t.StartOf, t.EndOf = s.Of, e.Of
@@ -55,6 +57,10 @@ func trendOf(g *Group, ind dataset.Indicator, inst int, series []*Position, dist
 	if s.Rank > 0 && e.Rank > 0 {
 		t.RankChange = s.Rank - e.Rank
 		t.PercentileChange = e.Percentile - s.Percentile
+		t.PercentileMove = math.Abs(t.PercentileChange)
+	}
+	if iqr := dists[last].IQR; dists[last].N >= 2 && iqr > 0 {
+		t.ChangePerIQR = math.Abs(t.Change) / iqr
 	}
 	t.MedianChange = dists[last].Median - dists[first].Median
 	t.PreferPercentiles = SizeChanged(s.Of, e.Of)

@@ -194,7 +194,16 @@ func Percentile(p float64) string {
 	if math.IsNaN(p) || math.IsInf(p, 0) {
 		return "–"
 	}
-	return Ordinal(int(Round(p, 0))) + " percentile"
+	return Ordinal(PercentileRank(p)) + " percentile"
+}
+
+// PercentileRank is a percentile rank as printed: rounded to a whole
+// number and kept within 1 to 99. A mid-rank percentile is never 0 or 100
+// (100 x (below + ties/2) / n lies strictly between), so a printed "0th"
+// or "100th" would only be rounding, and reads as "below everyone" or
+// "above everyone including itself" (common practice, no source).
+func PercentileRank(p float64) int {
+	return min(max(int(Round(p, 0)), 1), 99)
 }
 
 // Ordinal prints 1st, 2nd, 3rd, 4th, 11th, 12th, 13th, 21st, 112th.

@@ -79,3 +79,22 @@ func TestRankBand(t *testing.T) {
 		}
 	}
 }
+
+// A mid-rank percentile lies strictly between 0 and 100 (best of 400:
+// 100 x 399.5 / 400 = 99.875; worst: 0.125), so the printed rank stays
+// within 1st to 99th; half rounds away from zero as everywhere in the
+// package (common practice, no source).
+func TestPercentileRankNeverZeroOrHundred(t *testing.T) {
+	cases := []struct {
+		p    float64
+		want string
+	}{
+		{99.875, "99th percentile"}, {99.5, "99th percentile"}, {0.125, "1st percentile"},
+		{0.5, "1st percentile"}, {50, "50th percentile"}, {72.5, "73rd percentile"}, {1.4, "1st percentile"},
+	}
+	for _, c := range cases {
+		if got := Percentile(c.p); got != c.want {
+			t.Errorf("Percentile(%v) = %q, want %q", c.p, got, c.want)
+		}
+	}
+}

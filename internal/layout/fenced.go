@@ -66,6 +66,8 @@ func (w *writer) fencedBlock(n ast.Node, entering bool) ast.WalkStatus {
 		w.section++
 	case *brief.ColumnsBlock:
 		w.setColumns(v.Count)
+	case *brief.ClustersBlock:
+		w.clustersBlock(v)
 	}
 	return ast.WalkSkipChildren
 }

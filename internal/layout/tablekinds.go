@@ -208,6 +208,9 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 			dist, okd := w.m.Distribution(gr.Name, ind.Key, year)
 			tr, okt := w.m.Trend(gr.Name, ind.Key, focus)
 			has := okp && pos.HasValue
+			// Below the brief's small-group floor no quarter or
+			// percentile is printed, in tables as in text.
+			small := okd && w.m.BelowFloor(dist)
 			for _, c := range cols {
 				var cl cell
 				switch c {
@@ -215,7 +218,9 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 					cl.text = "–"
 					if has {
 						cl.text = tableValue(ind, pos.Value)
-						cl.shade = pos.Quartile
+						if !small {
+							cl.shade = pos.Quartile
+						}
 					}
 				case "rank":
 					cl.text = "–"
@@ -224,12 +229,12 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 					}
 				case "percentile":
 					cl.text = "–"
-					if has {
-						cl.text = format.Ordinal(int(format.Round(pos.Percentile, 0)))
+					if has && !small {
+						cl.text = format.Ordinal(format.PercentileRank(pos.Percentile))
 					}
 				case "quarter":
 					cl.text = "–"
-					if has {
+					if has && !small {
 						cl.text = quarterShort(pos.Quartile)
 					}
 				case "median", "q1", "q3":
@@ -345,6 +350,9 @@ func (w *writer) peersTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 			cl := cell{text: "–"}
 			if p, ok := w.m.PlaceOf(gr.Name, ind.Key, i, year); ok && p.HasValue {
 				cl = cell{text: tableValue(ind, p.Value), shade: p.Quartile}
+				if d, ok := w.m.Distribution(gr.Name, ind.Key, year); ok && w.m.BelowFloor(d) {
+					cl.shade = 0 // no quarters below the small-group floor
+				}
 			}
 			row = append(row, cl)
 		}
@@ -405,6 +413,9 @@ func (w *writer) groupsTable(tb *brief.TableBlock, groups []*figures.Group, inds
 			sc := cell{text: "–"}
 			if p, ok := w.m.PlaceOf(gr.Name, ind.Key, w.m.Focus, year); ok && p.HasValue {
 				sc = cell{text: format.Rank(p.Rank, w.b.RankBands) + " of " + format.Int(p.Of), shade: p.Quartile}
+				if d, ok := w.m.Distribution(gr.Name, ind.Key, year); ok && w.m.BelowFloor(d) {
+					sc.shade = 0 // no quarters below the small-group floor
+				}
 			}
 			srow = append(srow, sc)
 		}

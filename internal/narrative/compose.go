@@ -3,6 +3,7 @@ package narrative
 import (
 	"errors"
 	"fmt"
+	"math"
 	"strings"
 
 	"peerpack/internal/brief"
@@ -20,6 +21,8 @@ type Commentary struct {
 	Summary []Paragraph
 	// Blocks holds the text of every commentary block of the brief.
 	Blocks map[*brief.CommentaryBlock][]Paragraph
+	// Clusters holds the peer-group text of every clusters block.
+	Clusters map[*brief.ClustersBlock][]Paragraph
 	// Sentences lists every sentence in pack order (the summary, then the
 	// blocks in brief order), for the sources appendix.
 	Sentences []Sentence
@@ -46,7 +49,7 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 		return nil, diag.At(b.File, p.Line, p.Column, "%v", err)
 	}
 	c := newComposer(m, b, w)
-	out := &Commentary{Blocks: map[*brief.CommentaryBlock][]Paragraph{}, rankBands: b.RankBands, wording: w}
+	out := &Commentary{Blocks: map[*brief.CommentaryBlock][]Paragraph{}, Clusters: map[*brief.ClustersBlock][]Paragraph{}, rankBands: b.RankBands, wording: w}
 	out.Summary = c.write(c.executiveScope())
 
 	var probs diag.List
@@ -77,10 +80,21 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 	if err := probs.Err(); err != nil {
 		return nil, err
 	}
+	out.dedupe(b, executivePlaced)
+	nc := 0
+	for _, blk := range b.Blocks {
+		if pb, ok := blk.(*brief.ClustersBlock); ok && m.Peers != nil {
+			nc++
+			out.Clusters[pb] = c.peersParagraphs(fmt.Sprintf("clusters-%02d", nc))
+		}
+	}
 	out.Sentences = collect(out.Summary)
 	for _, blk := range b.Blocks {
-		if cb, ok := blk.(*brief.CommentaryBlock); ok {
-			out.Sentences = append(out.Sentences, collect(out.Blocks[cb])...)
+		switch v := blk.(type) {
+		case *brief.CommentaryBlock:
+			out.Sentences = append(out.Sentences, collect(out.Blocks[v])...)
+		case *brief.ClustersBlock:
+			out.Sentences = append(out.Sentences, collect(out.Clusters[v])...)
 		}
 	}
 	if err := checkCites(m, out.Sentences); err != nil {
@@ -94,6 +108,34 @@ func Compose(m *figures.Model, b *brief.Brief) (*Commentary, error) {
 	}
 	m.Add(rows...)
 	return out, nil
+}
+
+// dedupe drops every paragraph the pack has already printed under the same
+// run-in heading (two blocks asking for the same competitor systems), so
+// no paragraph appears twice. The
+// executive summary counts as printed only when no summary block stands in
+// for it (the layout prints one or the other).
+func (out *Commentary) dedupe(b *brief.Brief, executivePlaced bool) {
+	seen := map[string]bool{}
+	if !executivePlaced {
+		for _, p := range out.Summary {
+			seen[p.Heading+"\x00"+p.Text()] = true
+		}
+	}
+	for _, blk := range b.Blocks {
+		cb, ok := blk.(*brief.CommentaryBlock)
+		if !ok {
+			continue
+		}
+		var kept []Paragraph
+		for _, p := range out.Blocks[cb] {
+			if t := p.Heading + "\x00" + p.Text(); !seen[t] {
+				seen[t] = true
+				kept = append(kept, p)
+			}
+		}
+		out.Blocks[cb] = kept
+	}
 }
 
 func collect(ps []Paragraph) []Sentence {
@@ -156,6 +198,81 @@ func (c *composer) next(kind string) (string, int) {
 	t := c.turns[k]
 	c.turns[k] = t + 1
 	return k, t
+}
+
+// noise is the brief's noise rule in percentile points
+// (brief.NoiseRule, default PercentileNoise).
+func (c *composer) noise() float64 { return c.b.NoiseRule() }
+
+// floor is the brief's small-group floor (brief.SmallGroupFloor, default
+// SmallGroup): a distribution with fewer values gets ranks "of n" and no
+// quarters or percentiles.
+func (c *composer) floor() int {
+	if c.m.Floor > 0 {
+		return c.m.Floor
+	}
+	return c.b.SmallGroupFloor()
+}
+
+// small reports whether a distribution is below the small-group floor.
+func (c *composer) small(d *figures.Distribution) bool { return d != nil && d.N > 0 && d.N < c.floor() }
+
+// edge is the quarter boundary a percentile lies within the noise rule
+// of: 1 for the top quarter's (75), 4 for the bottom quarter's (25), 0
+// for neither. Such a position is "at the edge of" that quarter rather
+// than in or out of it.
+func (c *composer) edge(pct float64) int {
+	switch n := c.noise(); {
+	case n <= 0 || math.IsNaN(pct):
+		return 0
+	case math.Abs(pct-75) <= n:
+		return 1
+	case math.Abs(pct-25) <= n:
+		return 4
+	}
+	return 0
+}
+
+// edgeClaims: the percentile lies within the noise rule of the boundary
+// edge names (bounds included).
+func (c *composer) edgeClaims(pct figures.Key, edge int) []Claim {
+	b := 75.0
+	if edge == 4 {
+		b = 25
+	}
+	n := c.noise()
+	return []Claim{Claimed(Fig(pct), OpGreaterEq, Num(b-n)), Claimed(Fig(pct), OpLessEq, Num(b+n))}
+}
+
+// quarterClaims: the quarter a value is said to be in, checked against
+// the group's quartile values (the one boundary rule, stats.QuartileByValue:
+// a value on a quartile is in the better quarter).
+func quarterClaims(ind dataset.Indicator, value Operand, group, key string, year, q int) []Claim {
+	q1, med, q3 := Fig(distKey(group, key, year, mQ1)), Fig(distKey(group, key, year, mMedian)), Fig(distKey(group, key, year, mQ3))
+	if ind.Better == dataset.LowerIsBetter {
+		switch q {
+		case 1:
+			return []Claim{Claimed(value, OpLessEq, q1)}
+		case 2:
+			return []Claim{Claimed(value, OpGreater, q1), Claimed(value, OpLessEq, med)}
+		case 3:
+			return []Claim{Claimed(value, OpGreater, med), Claimed(value, OpLessEq, q3)}
+		case 4:
+			return []Claim{Claimed(value, OpGreater, q3)}
+		}
+		return nil
+	}
+	switch q {
+	case 1:
+		return []Claim{Claimed(value, OpGreaterEq, q3)}
+	case 2:
+		return []Claim{Claimed(value, OpLess, q3), Claimed(value, OpGreaterEq, med)}
+	case 3:
+		return []Claim{Claimed(value, OpLess, med), Claimed(value, OpGreaterEq, q1)}
+	case 4:
+		return []Claim{Claimed(value, OpLess, q1)}
+	}
+	return nil
 }
 
 // phrase is how sentences name a group: the brief's phrase, else the
@@ -342,6 +459,16 @@ func (c *composer) splitGroups(sc *scope, groups []*figures.Group) {
 	}
 	if len(sc.groups) == 0 {
 		sc.groups = sc.systems
+	}
+	if sc.style == "summary" {
+		// A summary leads with the standing among the brief's chosen
+		// peers (a members list) when it has them.
+		for _, g := range sc.groups {
+			if g.Kind == "members" {
+				sc.ref = g
+				return
+			}
+		}
 	}
 	for _, g := range sc.groups {
 		if g.FocusIn {

@@ -9,9 +9,13 @@ import (
 // Quartiles are Hyndman and Fan type 7 (R's quantile() default) and
 // percentile ranks 100 x (below + ties/2) / n, worked by hand for these
 // five-value groups; phrasings are the ones the FNV-1a hash of each
-// figure key picks.
+// figure key picks. The small-group floor is set to 2 so that quarters
+// are printed for these hand-sized groups (the default, 10, would give
+// ranks only); a quarter is placed by the group's quartile values, a value
+// on a quartile in the better quarter.
 
 const edgeIndicators = `
+small_group: 2
 indicators:
   - {key: intl, label: International staff share, unit: percent, better: higher, decimals: 1}
   - {key: spa, label: Students per academic, unit: ratio, better: lower, decimals: 1}
@@ -61,8 +65,10 @@ institutions:
 ` + home("spa"),
 			// sorted 14.2, 15.1, 16.0, 17.6, 19.0: median 16.0, Q1 15.1; three
 			// lower (better) values, so rank 4 of 5; percentile 100 x 1.5 / 5
-			// = 30, third quarter; gaps 1.6 and 2.5.
-			"Students per academic: Arlen University stands 4th of 5 in the Kestria sector at 17.6 in 2025, in the third quarter. That is 1.6 above the group median of 16.0 (unfavourable, as lower is better here), and 2.5 above the lower quartile (15.1).\n"},
+			// = 30, within the 5-point noise rule of the bottom quarter's
+			// boundary at 25, so "at the edge of the bottom quarter"; gaps
+			// 1.6 and 2.5.
+			"Students per academic: Arlen University stands 4th of 5 in the Kestria sector at 17.6 in 2025, at the edge of the bottom quarter. That is 1.6 above the group median of 16.0 (unfavourable, as lower is better here), and 2.5 above the lower quartile (15.1).\n"},
 		{"neutral indicator: no judgement words", `
 columns: [size@2025]
 institutions:
@@ -73,8 +79,11 @@ institutions:
   D: [Kestria, Elswick Polytechnic, 15000]
 ` + home("size"),
 			// sorted 10,000 .. 30,000: median 15,000; 2nd highest; percentile
-			// 100 x 3.5 / 5 = 70.
-			"Student headcount: Arlen University stands 2nd highest of 5 in the Kestria sector at 21,000 in 2025, in the second-highest quarter of values. That is 6,000 above the group median of 15,000.\n"},
+			// 100 x 3.5 / 5 = 70; type-7 Q3 is the 4th value, 21,000 itself,
+			// so the highest quarter (a value on a quartile is in the better
+			// quarter), but 70 is within the 5-point noise rule of 75: "at
+			// the edge".
+			"Student headcount: Arlen University stands 2nd highest of 5 in the Kestria sector at 21,000 in 2025, at the edge of the highest quarter of values. That is 6,000 above the group median of 15,000.\n"},
 		{"tie shares the rank", `
 columns: [intl@2025]
 institutions:
@@ -85,8 +94,10 @@ institutions:
   D: [Kestria, Elswick Polytechnic, 44]
 ` + home("intl"),
 			// sorted 30, 40, 40, 44, 45: median 40, Q3 44; two better values,
-			// rank joint 3rd; percentile 100 x (1 + 1) / 5 = 40.
-			"International staff share: Arlen University stands joint 3rd of 5 with one other in the Kestria sector at 40.0% in 2025, in the third quarter. That is level with the group median of 40.0%, and 4.0 percentage points short of the upper quartile (44.0%).\n"},
+			// rank joint 3rd; percentile 100 x (1 + 1) / 5 = 40; the value
+			// is the median, so the second quarter (ties and a value on a
+			// quartile go to the better quarter).
+			"International staff share: Arlen University stands joint 3rd of 5 with one other in the Kestria sector at 40.0% in 2025, in the second quarter. That is level with the group median of 40.0%, and 4.0 percentage points short of the upper quartile (44.0%).\n"},
 		{"a value that rounds equal to the median is level with it", `
 columns: [intl@2025]
 institutions:
@@ -144,8 +155,9 @@ groups:
 block: {style: detail, topics: [position], indicators: [intl]}
 `,
 			// sorted 22, 40, 50; placed as a fourth value: rank 2 of 4,
-			// percentile 100 x 2.5 / 4 = 62.5; median 40, Q3 45.
-			"International staff share: Arlen University is not a member of the Veldra peers; placed among the 3 members that report international staff share, its 45.2% in 2025 would rank 2nd of 4, in the second quarter. That is 5.2 percentage points above the group median of 40.0%, and 0.2 percentage points above the upper quartile (45.0%).\n"},
+			// percentile 100 x 2.5 / 4 = 62.5; median 40, Q3 45; 45.2 is
+			// above Q3, so the top quarter, as the distance sentence says.
+			"International staff share: Arlen University is not a member of the Veldra peers; placed among the 3 members that report international staff share, its 45.2% in 2025 would rank 2nd of 4, in the top quarter. That is 5.2 percentage points above the group median of 40.0%, and 0.2 percentage points above the upper quartile (45.0%).\n"},
 		{"a chosen peer group of one country", `
 columns: [intl@2025]
 institutions:
@@ -209,10 +221,11 @@ groups:
   - {name: Veldra partner, members: [D]}
 block: {style: detail, topics: [position], indicators: [intl]}
 `)
-	// Placed beside 50.0 the focus is 2nd of 2, percentile 100 x 0.5 / 2
-	// = 25, bottom quarter; the median of one value is the value. With a
-	// single member there is no quartile target to state.
-	want := "International staff share: Arlen University is not a member of the Veldra partner; placed beside its one member that reports international staff share, its 45.2% in 2025 would rank 2nd of 2, in the bottom quarter. That is 4.8 percentage points below the group median of 50.0%.\n"
+	// Placed beside 50.0 the focus is 2nd of 2; one member reporting is
+	// below the small-group floor (2 here), so no quarter is printed; the
+	// median of one value is the value. With a single member there is no
+	// quartile target to state.
+	want := "International staff share: Arlen University is not a member of the Veldra partner; placed beside its one member that reports international staff share, its 45.2% in 2025 would rank 2nd of 2. That is 4.8 percentage points below the group median of 50.0%.\n"
 	if got != want {
 		t.Fatalf("got\n%s\nwant\n%s", got, want)
 	}

@@ -22,6 +22,9 @@ type Sentence struct {
 	// indicators a cut list leaves out ("and 12 other indicators").
 	// Verify accepts exactly these besides the cited figures.
 	Thresholds []float64
+	// Claims are the comparisons the sentence makes (see claims.go);
+	// Verify evaluates each against the model.
+	Claims []Claim
 	// About is the indicator the sentence is about ("" for general
 	// sentences); Part names where it appears ("summary", "block-02").
 	About string

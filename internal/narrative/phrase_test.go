@@ -78,13 +78,14 @@ groups:
 block: {style: detail, topics: [position, competition], indicators: [intl]}
 `)
 	// Partners: sorted 30, 40, 40, 40, 50; rank 1 + 1 better = 2nd, shared
-	// by three; percentile 100 x (1 + 3/2) / 5 = 50, so the third quarter
-	// (a boundary goes to the less favourable side); median 40 and type-7
-	// Q3 = x[4] of 1-based (1 + 4 x 0.75) = 40, so level and reached.
+	// by three; percentile 100 x (1 + 3/2) / 5 = 50; median 40 and type-7
+	// Q3 = x[4] of 1-based (1 + 4 x 0.75) = 40, so level and reached, and
+	// a value on the upper quartile is in the top quarter (it was "third
+	// quarter" beside "level with the upper quartile" before).
 	// Veldra: 36, 44, 50 with 40 placed among them: 3rd of 4, percentile
 	// 100 x 1.5 / 4 = 37.5, third quarter, so neither quarter is named;
 	// its median 44 is ahead of 40.
-	want := "International staff share: Arlen University stands joint 2nd of 5 with two others among our partner universities at 40.0% in 2025, in the third quarter. " +
+	want := "International staff share: Arlen University stands joint 2nd of 5 with two others among our partner universities at 40.0% in 2025, in the top quarter. " +
 		"That is level with both the group median and the upper quartile (40.0%).\n" +
 		"Competitor systems: Set among the institutions of the Veldra system, Arlen University would sit in the middle half on every indicator here. " +
 		"The median of the Veldra system is ahead on international staff share (44.0% against 40.0%).\n"

@@ -1,10 +1,13 @@
 package narrative
 
 import (
+	"math"
 	"strings"
 
 	"peerpack/internal/dataset"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
+	"peerpack/internal/stats"
 )
 
 // Caveats are written where they apply and nowhere else.
@@ -14,9 +17,13 @@ import (
 func (c *composer) groupCaveats(sc *scope) []Sentence {
 	var out []Sentence
 	for _, g := range sc.distinctGroups() {
+		// The caveat keeps common practice's ten (SmallGroup) even when
+		// the brief lowers the floor for printing quarters: a pack that
+		// prints quarters of five values should still say they are
+		// unstable.
 		if n := len(g.Members); n > 0 && n < SmallGroup {
 			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
-			s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers))
+			s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers)).claim(Claimed(Fig(groupKey(g.Name, mMembers)), OpLess, Num(SmallGroup)))
 			s.Thresholds = []float64{SmallGroup}
 			out = append(out, s)
 		}
@@ -71,7 +78,56 @@ func (c *composer) indicatorCaveats(sc *scope, ind dataset.Indicator) []Sentence
 			out = append(out, c.coverage(g, ind, sc.year))
 		}
 	}
+	if s, ok := c.skewed(sc.ref, ind, sc.year); ok {
+		out = append(out, s)
+	}
+	for _, g := range sc.distinctGroups() {
+		if c.choseBy(g, ind.Key) {
+			f := CaveatFact{Seed: g.Name, Focus: c.focus, Indicator: label, Group: c.phrase(g)}
+			out = append(out, c.say(ind.Key, c.w.ByConstruction(f), groupKey(g.Name, mMembers)))
+		}
+	}
 	return out
+}
+
+// choseBy reports whether a nearest-peers group was chosen on the
+// indicator: the focus's closeness to it there is then by construction.
+func (c *composer) choseBy(g *figures.Group, key string) bool {
+	if g.Kind != "nearest" {
+		return false
+	}
+	for _, spec := range c.b.Groups {
+		if spec.Name == g.Spec && spec.Nearest != nil {
+			for _, k := range spec.Nearest.Indicators {
+				if k == key {
+					return true
+				}
+			}
+		}
+	}
+	return false
+}
+
+// skewed cautions on z-scores and means where the reference group's
+// values are strongly skewed: absolute adjusted sample skewness above
+// stats.SkewCaution (2).
+func (c *composer) skewed(g *figures.Group, ind dataset.Indicator, year int) (Sentence, bool) {
+	if g == nil {
+		return Sentence{}, false
+	}
+	d, ok := c.m.Distribution(g.Name, ind.Key, year)
+	if !ok || math.IsNaN(d.Skewness) || math.Abs(d.Skewness) <= stats.SkewCaution {
+		return Sentence{}, false
+	}
+	k := distKey(g.Name, ind.Key, year, "skewness")
+	cl := Claimed(Fig(k), OpGreater, Num(stats.SkewCaution))
+	if d.Skewness < 0 {
+		cl = Claimed(Fig(k), OpLess, Num(-stats.SkewCaution))
+	}
+	f := CaveatFact{Seed: ind.Key, Indicator: c.w.Indicator(ind), Group: c.phrase(g), N: format.Number(d.Skewness, 1)}
+	s := c.say(ind.Key, c.w.Skewed(f), k).claim(cl)
+	s.Thresholds = []float64{stats.SkewCaution}
+	return s, true
 }
 
 func (c *composer) anyGroup(sc *scope) string {
@@ -210,9 +266,13 @@ func (c *composer) condensedCaveats(sc *scope) []Sentence {
 func (c *composer) briefCaveats(sc *scope) []Sentence {
 	var out []Sentence
 	for _, g := range sc.distinctGroups() {
+		// The caveat keeps common practice's ten (SmallGroup) even when
+		// the brief lowers the floor for printing quarters: a pack that
+		// prints quarters of five values should still say they are
+		// unstable.
 		if n := len(g.Members); n > 0 && n < SmallGroup {
 			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
-			s := c.say("", c.w.SmallGroupBrief(f), groupKey(g.Name, mMembers))
+			s := c.say("", c.w.SmallGroupBrief(f), groupKey(g.Name, mMembers)).claim(Claimed(Fig(groupKey(g.Name, mMembers)), OpLess, Num(SmallGroup)))
 			s.Thresholds = []float64{SmallGroup}
 			out = append(out, s)
 		}

@@ -76,14 +76,16 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		f.MedianFrom, f.MedianTo = printValue(ind, d0.Median), printValue(ind, d1.Median)
 		f.MedianDirection = direction(ind, d1.Median-d0.Median, iqr)
 	}
-	if p0.Rank > 0 && p1.Rank > 0 {
+	// Below the small-group floor at either end no percentile is printed.
+	if p0.Rank > 0 && p1.Rank > 0 && !c.small(d0) && !c.small(d1) {
 		cd.hasPct = true
 		f.PctFrom, f.PctTo = printOrdinalPct(p0.Percentile), printOrdinalPct(p1.Percentile)
-		a, b := math.Round(p0.Percentile), math.Round(p1.Percentile)
-		switch {
-		case b-a >= PercentileNoise:
+		// The noise rule on the percentiles themselves, not their
+		// rounded forms, so the claim recorded is the one decided on.
+		switch move := p1.Percentile - p0.Percentile; {
+		case move >= c.noise():
 			f.PctDirection = Above
-		case a-b >= PercentileNoise:
+		case -move >= c.noise():
 			f.PctDirection = Below
 		}
 		f.Resized = figures.SizeChanged(p0.Of, p1.Of)
@@ -138,7 +140,7 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 		cites = append(cites, distKey(g.Name, ind.Key, cd.d1.Year, mIQR))
 	}
 	f.Seed, f.Turn = c.next("change")
-	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...)}
+	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...).claim(c.valueChangeClaims(g, ind, cd)...)}
 	if !cd.hasMed || cd.d1.N < 2 {
 		return out
 	}
@@ -151,11 +153,79 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 	if cd.hasPct && !f.Resized {
 		mc = append(mc, p0k(mPercentile), p1k(mPercentile))
 	}
-	out = append(out, c.say(ind.Key, c.w.ChangeMedian(mf), mc...))
+	mcl := medianChangeClaims(ind, Fig(distKey(g.Name, ind.Key, cd.d0.Year, mMedian)), Fig(distKey(g.Name, ind.Key, cd.d1.Year, mMedian)), mf.MedianDirection)
+	if cd.hasPct && !f.Resized {
+		mcl = append(mcl, c.percentileChangeClaims(g, ind, cd)...)
+	}
+	out = append(out, c.say(ind.Key, c.w.ChangeMedian(mf), mc...).claim(mcl...))
 	if cd.hasPct && f.Resized {
 		out = append(out, c.say(ind.Key, c.w.ChangePercentile(f),
 			distKey(g.Name, ind.Key, cd.d0.Year, mN), distKey(g.Name, ind.Key, cd.d1.Year, mN),
-			p0k(mPercentile), p1k(mPercentile)))
+			p0k(mPercentile), p1k(mPercentile)).claim(c.percentileChangeClaims(g, ind, cd)...))
 	}
 	return out
+}
+
+// valueChangeClaims: a rise or fall compares the two values; "broadly
+// unchanged" says the change prints as zero (less than one unit of the
+// last decimal either way) or is under NoiseIQRShare of the group's
+// interquartile range (the trend's change_per_iqr), which can be checked
+// only over the trend's own years.
+func (c *composer) valueChangeClaims(g *figures.Group, ind dataset.Indicator, cd changeData) []Claim {
+	id := c.m.FocusID
+	v0 := Fig(posKey(g.Name, ind.Key, id, cd.p0.Year, mValue))
+	v1 := Fig(posKey(g.Name, ind.Key, id, cd.p1.Year, mValue))
+	switch cd.f.Direction {
+	case Above:
+		return []Claim{Claimed(v1, OpGreater, v0)}
+	case Below:
+		return []Claim{Claimed(v1, OpLess, v0)}
+	}
+	if !cd.useTrend {
+		return nil
+	}
+	ch := Fig(trendKey(g.Name, ind.Key, id, mChange))
+	if format.Round(cd.t.Change, ind.Decimals) == 0 {
+		return levelClaims(ind, ch)
+	}
+	return []Claim{Claimed(Fig(trendKey(g.Name, ind.Key, id, "change_per_iqr")), OpLess, Num(NoiseIQRShare))}
+}
+
+// medianChangeClaims: the median rose or fell, compared figure with
+// figure; a level median is not claimed (its noise test needs the
+// median's own change per IQR, which the model does not record).
+func medianChangeClaims(ind dataset.Indicator, m0, m1 Operand, dir int) []Claim {
+	switch dir {
+	case Above:
+		return []Claim{Claimed(m1, OpGreater, m0)}
+	case Below:
+		return []Claim{Claimed(m1, OpLess, m0)}
+	}
+	return nil
+}
+
+// percentileChangeClaims: gaining or losing ground means the percentile
+// moved by at least the noise rule; "barely moved" that it moved by less.
+// Over the trend's own years the trend's percentile_change is cited;
+// over a block's years only the direction can be checked figure against
+// figure.
+func (c *composer) percentileChangeClaims(g *figures.Group, ind dataset.Indicator, cd changeData) []Claim {
+	id := c.m.FocusID
+	pc := Fig(trendKey(g.Name, ind.Key, id, mPercentileChange))
+	p0 := Fig(posKey(g.Name, ind.Key, id, cd.p0.Year, mPercentile))
+	p1 := Fig(posKey(g.Name, ind.Key, id, cd.p1.Year, mPercentile))
+	n := c.noise()
+	switch {
+	case cd.useTrend && cd.f.PctDirection == Above:
+		return []Claim{Claimed(pc, OpGreaterEq, Num(n))}
+	case cd.useTrend && cd.f.PctDirection == Below:
+		return []Claim{Claimed(pc, OpLessEq, Num(-n))}
+	case cd.useTrend:
+		return []Claim{Claimed(pc, OpGreater, Num(-n)), Claimed(pc, OpLess, Num(n))}
+	case cd.f.PctDirection == Above:
+		return []Claim{Claimed(p1, OpGreater, p0)}
+	case cd.f.PctDirection == Below:
+		return []Claim{Claimed(p1, OpLess, p0)}
+	}
+	return nil
 }

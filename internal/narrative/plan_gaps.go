@@ -15,7 +15,15 @@ func (c *composer) gap(g *figures.Group, ind dataset.Indicator, year int) []Sent
 		return nil
 	}
 	f.Seed, f.Turn = c.next("gap")
-	return []Sentence{c.say(ind.Key, c.w.Gap(f), cites...)}
+	return []Sentence{c.say(ind.Key, c.w.Gap(f), cites...).claim(c.gapClaims(g, ind, year)...)}
+}
+
+// gapClaims: a gap still to go means the value is short of the
+// top-quarter threshold (vs_better_quartile below zero, gap above zero).
+func (c *composer) gapClaims(g *figures.Group, ind dataset.Indicator, year int) []Claim {
+	id := c.m.FocusID
+	return []Claim{Claimed(Fig(posKey(g.Name, ind.Key, id, year, mVsBetter)), OpLess, Num(0)),
+		Claimed(Fig(posKey(g.Name, ind.Key, id, year, mGapBetter)), OpGreater, Num(0))}
 }
 
 // gapFact gathers the gap to the top-quarter threshold; ok is false when

@@ -51,7 +51,7 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 			f.Median = printValue(ind, d.Median)
 			cites = append(cites, distKey(g.Name, ind.Key, year, mMedian))
 		}
-		return []Sentence{c.say(ind.Key, c.w.FocusMissing(f), cites...)}
+		return []Sentence{c.say(ind.Key, c.w.FocusMissing(f), cites...).claim(Claimed(Fig(cites[0]), OpEqual, Num(0)))}
 	}
 	if d.N == 0 || p.Rank == 0 {
 		f := MissingFact{Seed: seed, Focus: c.focus, Indicator: label, Group: c.phrase(g), Year: printYear(year)}
@@ -59,6 +59,12 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	}
 	f := c.positionFact(g, ind, p, d)
 	f.Seed = seed
+	if c.small(d) {
+		// Below the floor: the rank "of n" only, no quarter.
+		f.Quartile = 0
+	} else {
+		f.Edge = c.edge(p.Percentile)
+	}
 	intro := c.part + "\x00" + g.Name
 	f.Introduced = c.introduced[intro]
 	// The brief's year is said once a part, and the value once an
@@ -67,7 +73,8 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	f.ValueSaid = c.said[c.part+"\x00value\x00"+ind.Key+"\x00"+f.Year]
 	f.Seed, f.Turn = c.next("position")
 	if p.InGroup && d.N == 1 {
-		return []Sentence{c.say(ind.Key, c.w.Alone(f), posKey(g.Name, ind.Key, id, year, mValue), distKey(g.Name, ind.Key, year, mN))}
+		return []Sentence{c.say(ind.Key, c.w.Alone(f), posKey(g.Name, ind.Key, id, year, mValue), distKey(g.Name, ind.Key, year, mN)).
+			claim(Claimed(Fig(distKey(g.Name, ind.Key, year, mN)), OpEqual, Num(1)))}
 	}
 	cites := []figures.Key{posKey(g.Name, ind.Key, id, year, mValue), posKey(g.Name, ind.Key, id, year, mRank),
 		posKey(g.Name, ind.Key, id, year, mOf), posKey(g.Name, ind.Key, id, year, mQuartile)}
@@ -78,7 +85,7 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 		cites = append(cites, distKey(g.Name, ind.Key, year, mN))
 		c.introduced[intro] = true
 	}
-	out := []Sentence{c.say(ind.Key, c.w.Position(f), cites...)}
+	out := []Sentence{c.say(ind.Key, c.w.Position(f), cites...).claim(c.positionClaims(g, ind, p, f)...)}
 	c.said[c.part+"\x00year"+f.Year] = true
 	c.said[c.part+"\x00value\x00"+ind.Key+"\x00"+f.Year] = true
 	dc := []figures.Key{distKey(g.Name, ind.Key, year, mMedian)}
@@ -95,8 +102,92 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 		}
 	}
 	f.Seed, f.Turn = c.next("distance")
-	return append(out, c.say(ind.Key, c.w.Distance(f), dc...))
+	return append(out, c.say(ind.Key, c.w.Distance(f), dc...).claim(c.distanceClaims(g, ind, p, f)...))
 }
+
+// positionClaims are the comparisons a position sentence makes: the rank
+// (or its band) and the number ranked, a shared rank with how many share
+// it, a first or last place, the quarter when one is printed, and
+// membership.
+func (c *composer) positionClaims(g *figures.Group, ind dataset.Indicator, p *figures.Position, f PositionFact) []Claim {
+	k := func(m string) figures.Key { return posKey(g.Name, ind.Key, c.m.FocusID, p.Year, m) }
+	var out []Claim
+	if lo, hi, banded := format.RankBand(p.Rank, c.b.RankBands); banded {
+		out = append(out, Claimed(Fig(k(mRank)), OpGreaterEq, Num(float64(lo))), Claimed(Fig(k(mRank)), OpLessEq, Num(float64(hi))))
+	} else {
+		out = append(out, Claimed(Fig(k(mRank)), OpEqual, Num(float64(p.Rank))))
+	}
+	out = append(out, Claimed(Fig(k(mOf)), OpEqual, Num(float64(p.Of))))
+	if f.Joint {
+		out = append(out, Claimed(Fig(k(mTies)), OpEqual, Num(float64(p.Ties))))
+	}
+	switch {
+	case f.First:
+		out = append(out, Claimed(Fig(k(mRank)), OpEqual, Num(1)))
+	case f.Last:
+		out = append(out, Claimed(Fig(k(mRank)), OpEqual, Fig(k(mOf))))
+	case f.Quartile == 0:
+		out = append(out, Claimed(Fig(distKey(g.Name, ind.Key, p.Year, mN)), OpLess, Num(float64(c.floor()))))
+	case f.Edge != 0:
+		out = append(out, c.edgeClaims(k(mPercentile), f.Edge)...)
+	default:
+		out = append(out, Claimed(Fig(k(mQuartile)), OpEqual, Num(float64(f.Quartile))))
+		out = append(out, quarterClaims(ind, Fig(k(mValue)), g.Name, ind.Key, p.Year, f.Quartile)...)
+	}
+	if !p.InGroup {
+		out = append(out, Claimed(Fig(k("in_group")), OpEqual, Num(0)))
+	}
+	return out
+}
+
+// distanceClaims: the value against the median (above, below, or level:
+// printing the same, so less than one unit of the last printed decimal
+// apart) and against the top-quarter threshold (reached or short of it).
+func (c *composer) distanceClaims(g *figures.Group, ind dataset.Indicator, p *figures.Position, f PositionFact) []Claim {
+	value := Fig(posKey(g.Name, ind.Key, c.m.FocusID, p.Year, mValue))
+	median := Fig(distKey(g.Name, ind.Key, p.Year, mMedian))
+	out := relationClaims(ind, value, median, f.VsMedian, Fig(posKey(g.Name, ind.Key, c.m.FocusID, p.Year, mVsMedian)))
+	if f.Target == "" || !judged(ind) {
+		return out
+	}
+	target := Fig(distKey(g.Name, ind.Key, p.Year, targetMeasure(ind)))
+	vs := Fig(posKey(g.Name, ind.Key, c.m.FocusID, p.Year, mVsBetter))
+	switch {
+	case f.Reached && f.TargetLevel:
+		out = append(out, levelClaims(ind, vs)...)
+	case f.Reached:
+		out = append(out, Claimed(vs, OpGreater, Num(0)))
+	default:
+		out = append(out, Claimed(vs, OpLess, Num(0)), Claimed(Fig(posKey(g.Name, ind.Key, c.m.FocusID, p.Year, mGapBetter)), OpGreater, Num(0)))
+	}
+	_ = target
+	return out
+}
+
+// relationClaims: a value above, below or level with a reference as
+// printed (rel from printedCompare); diff is the signed difference figure
+// used for "level".
+func relationClaims(ind dataset.Indicator, value, ref Operand, rel int, diff Operand) []Claim {
+	switch rel {
+	case Above:
+		return []Claim{Claimed(value, OpGreater, ref)}
+	case Below:
+		return []Claim{Claimed(value, OpLess, ref)}
+	}
+	return levelClaims(ind, diff)
+}
+
+// levelClaims: two values that print the same with the indicator's
+// decimals differ by less than one unit of the last decimal, so their
+// difference lies strictly between minus and plus that unit.
+func levelClaims(ind dataset.Indicator, diff Operand) []Claim {
+	u := unitOf(ind)
+	return []Claim{Claimed(diff, OpGreater, Num(-u)), Claimed(diff, OpLess, Num(u))}
+}
+
+// unitOf is one unit of the last printed decimal of an indicator (values
+// printed in percent are stored in percent).
+func unitOf(ind dataset.Indicator) float64 { return math.Pow(10, -float64(ind.Decimals)) }
 
 // targetMeasure is the top-quarter threshold's measure: the upper quartile
 // when higher is better, the lower quartile when lower is better.

@@ -6,6 +6,7 @@ import (
 
 	"peerpack/internal/dataset"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
 )
 
 // placed is the focus's position on one indicator in the reference group.
@@ -35,23 +36,76 @@ func (c *composer) placements(sc *scope, g *figures.Group) []placed {
 
 // quarters lists the indicators in the best and the worst quarter with
 // their percentiles, the most extreme first, at most OverviewItems of
-// each; MoreTop and MoreBottom count those left out of the lists. named
-// records every indicator of both quarters, listed or counted, so the
+// each; MoreTop and MoreBottom count those left out of the lists. A
+// position within the noise rule of the top or bottom quarter's boundary
+// goes to EdgeTop or EdgeBottom instead ("at the edge of the top
+// quarter"). When every indicator's group is below the small-group floor
+// the fact is Small: the first and last places "of n" instead of quarters.
+// named records every indicator the fact names or counts, so the
 // strengths and risks that follow do not repeat them.
-func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, named map[string]bool, cites []figures.Key) {
-	var hi, lo []placed
+//
+// claims holds the claims that make the sentence true: each listed or
+// counted top (bottom) item is in quartile 1 (4), its value at or beyond
+// the quartile that bounds it; each edge item's percentile within the
+// noise of its boundary; each other item in neither quarter (what "with no
+// indicator in the bottom quarter" and "in the middle half" say); first
+// and last places rank 1 and rank = of.
+func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, named map[string]bool, cites []figures.Key, claims []Claim) {
+	named = map[string]bool{}
+	k := func(x placed, m string) figures.Key { return posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, m) }
+	small := len(ps) > 0
 	for _, x := range ps {
-		switch x.p.Quartile {
-		case 1:
+		small = small && c.small(x.d)
+	}
+	if small {
+		f.Small, f.Floor = true, printCount(c.floor())
+		for _, x := range ps {
+			named[x.ind.Key] = true
+			it := RankedItem{Indicator: c.w.Indicator(x.ind), Rank: format.Ordinal(x.p.Rank) + " of " + printCount(x.p.Of)}
+			switch {
+			case x.p.Rank == 1:
+				f.First = append(f.First, it)
+				claims = append(claims, Claimed(Fig(k(x, mRank)), OpEqual, Num(1)))
+			case x.p.Rank == x.p.Of:
+				f.Last = append(f.Last, it)
+				claims = append(claims, Claimed(Fig(k(x, mRank)), OpEqual, Fig(k(x, mOf))))
+			default:
+				claims = append(claims, Claimed(Fig(k(x, mRank)), OpGreater, Num(1)), Claimed(Fig(k(x, mRank)), OpLess, Fig(k(x, mOf))))
+				continue
+			}
+			cites = append(cites, k(x, mRank), k(x, mOf))
+			claims = append(claims, Claimed(Fig(distKey(g.Name, x.ind.Key, x.p.Year, mN)), OpLess, Num(float64(c.floor()))))
+		}
+		return f, named, cites, claims
+	}
+	var hi, lo, eh, el []placed
+	for _, x := range ps {
+		if c.small(x.d) {
+			continue // too few values for a quarter; its position sentence gives the rank
+		}
+		switch e := c.edge(x.p.Percentile); {
+		case e == 1:
+			eh = append(eh, x)
+			claims = append(claims, c.edgeClaims(k(x, mPercentile), 1)...)
+		case e == 4:
+			el = append(el, x)
+			claims = append(claims, c.edgeClaims(k(x, mPercentile), 4)...)
+		case x.p.Quartile == 1:
 			hi = append(hi, x)
-		case 4:
+			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpEqual, Num(1)))
+			claims = append(claims, quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 1)...)
+		case x.p.Quartile == 4:
 			lo = append(lo, x)
+			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpEqual, Num(4)))
+			claims = append(claims, quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 4)...)
+		default:
+			f.Middle++
+			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpNotEqual, Num(1)), Claimed(Fig(k(x, mQuartile)), OpNotEqual, Num(4)))
 		}
 	}
 	sort.SliceStable(hi, func(i, j int) bool { return hi[i].p.Percentile > hi[j].p.Percentile })
 	sort.SliceStable(lo, func(i, j int) bool { return lo[i].p.Percentile < lo[j].p.Percentile })
-	named = map[string]bool{}
-	for _, x := range append(append([]placed(nil), hi...), lo...) {
+	for _, x := range append(append(append(append([]placed(nil), hi...), lo...), eh...), el...) {
 		// Counted in "and two other indicators" too: never named again.
 		named[x.ind.Key] = true
 	}
@@ -61,13 +115,10 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 		f.MoreTop = len(hi) - OverviewItems
 		hi = hi[:OverviewItems]
 	}
-	if len(lo) > OverviewItems+1 {
-		f.MoreBottom = len(lo) - OverviewItems
-		lo = lo[:OverviewItems]
-	}
+	// The bottom quarter is never cut: every position there is named and
+	// cited, so no bad news is left to a count.
 	item := func(x placed) RankedItem {
-		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mQuartile),
-			posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mPercentile))
+		cites = append(cites, k(x, mQuartile), k(x, mPercentile))
 		return RankedItem{Indicator: c.w.Indicator(x.ind), Percentile: printOrdinalPct(x.p.Percentile), Value: printValue(x.ind, x.p.Value)}
 	}
 	for _, x := range hi {
@@ -76,7 +127,13 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 	for _, x := range lo {
 		f.Bottom = append(f.Bottom, item(x))
 	}
-	return f, named, cites
+	for _, x := range eh {
+		f.EdgeTop = append(f.EdgeTop, item(x))
+	}
+	for _, x := range el {
+		f.EdgeBottom = append(f.EdgeBottom, item(x))
+	}
+	return f, named, cites, claims
 }
 
 // overview says, within the reference group, which indicators are in the
@@ -84,7 +141,29 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 // (nil without a sentence), so the strengths and risks that follow know
 // what it named.
 func (c *composer) overview(sc *scope) ([]Sentence, *OverviewFact) {
-	g := sc.ref
+	return c.overviewOf(sc, sc.ref)
+}
+
+// otherOverviews places the focus in every other group of the scope, one
+// sentence each, so a summary covers each comparison group it is given
+// (competitor systems too, unless the scope's competition topic does).
+func (c *composer) otherOverviews(sc *scope) []Sentence {
+	var out []Sentence
+	gs := sc.groups
+	if !sc.has("competition") && !sameSet(sc.groups, sc.systems) {
+		gs = append(append([]*figures.Group(nil), sc.groups...), sc.systems...)
+	}
+	for _, g := range gs {
+		if g == sc.ref {
+			continue
+		}
+		s, _ := c.overviewOf(sc, g)
+		out = append(out, s...)
+	}
+	return out
+}
+
+func (c *composer) overviewOf(sc *scope, g *figures.Group) ([]Sentence, *OverviewFact) {
 	if g == nil {
 		return nil, nil
 	}
@@ -92,11 +171,45 @@ func (c *composer) overview(sc *scope) ([]Sentence, *OverviewFact) {
 	if len(ps) == 0 {
 		return nil, nil
 	}
-	f, named, cites := c.quarters(g, ps)
+	f, named, cites, claims := c.quarters(g, ps)
 	f.Seed, f.Focus, f.Group, f.named = g.Name, c.focus, c.phrase(g), named
-	s := c.say("", c.w.Overview(f), cites...)
+	s := c.say("", c.w.Overview(f), cites...).claim(claims...)
 	s.Thresholds = listCounts(f.MoreTop, f.MoreBottom)
-	return []Sentence{s}, &f
+	if f.Small {
+		s.Thresholds = append(s.Thresholds, float64(c.floor()))
+	}
+	out := []Sentence{s}
+	if g == sc.ref {
+		out = append(out, c.leftOut(sc, g)...)
+	}
+	return out, &f
+}
+
+// leftOut says which judged indicators of the scope the overview could
+// not place because the focus reports no value for the year, so a
+// summary never passes over them in silence (claim: has_value = 0 each).
+func (c *composer) leftOut(sc *scope, g *figures.Group) []Sentence {
+	var names []string
+	var cites []figures.Key
+	var claims []Claim
+	for _, ind := range sc.inds {
+		if !judged(ind) {
+			continue
+		}
+		p, ok := c.m.Position(g.Name, ind.Key, c.m.Focus, sc.year)
+		if !ok || p.HasValue {
+			continue
+		}
+		k := posKey(g.Name, ind.Key, c.m.FocusID, sc.year, "has_value")
+		names = append(names, c.w.Indicator(ind))
+		cites = append(cites, k)
+		claims = append(claims, Claimed(Fig(k), OpEqual, Num(0)))
+	}
+	if len(names) == 0 {
+		return nil
+	}
+	f := MissingFact{Seed: g.Name, Focus: c.focus, Indicator: c.w.List(names), Year: printYear(sc.year)}
+	return []Sentence{c.say("", c.w.LeftOut(f), cites...).claim(claims...)}
 }
 
 // strengthsAndRisks names the indicators furthest above and below the
@@ -134,18 +247,18 @@ func (c *composer) strengthsAndRisks(sc *scope, ov *OverviewFact) []Sentence {
 			fd.Also, fd.More = len(ov.Bottom) > 0, len(down)-len(fd.Items)
 			cites = append(cites, k...)
 		}
-		s := c.say("", c.w.AboveBelow(fu, fd), cites...)
+		s := c.say("", c.w.AboveBelow(fu, fd), cites...).claim(append(c.rankedClaims(g, up, true), c.rankedClaims(g, down, false)...)...)
 		s.Thresholds = listCounts(fu.More, fd.More)
 		return []Sentence{s}
 	}
 	var out []Sentence
 	if len(up) > 0 {
 		f, cites := c.ranked(g, up)
-		out = append(out, c.say("", c.w.Strengths(f), cites...))
+		out = append(out, c.say("", c.w.Strengths(f), cites...).claim(c.rankedClaims(g, up[:len(f.Items)], true)...))
 	}
 	if len(down) > 0 {
 		f, cites := c.ranked(g, down)
-		out = append(out, c.say("", c.w.Risks(f), cites...))
+		out = append(out, c.say("", c.w.Risks(f), cites...).claim(c.rankedClaims(g, down[:len(f.Items)], false)...))
 	}
 	return out
 }
@@ -206,12 +319,14 @@ func (c *composer) riskGaps(sc *scope, groupNamed bool) []Sentence {
 	}
 	var facts []GapFact
 	var cites []figures.Key
+	var claims []Claim
 	about := ""
 	for _, x := range down {
 		if f, k, ok := c.gapFact(sc.ref, x.ind, sc.year); ok {
 			facts = append(facts, f)
 			about = x.ind.Key
 			cites = append(cites, k...)
+			claims = append(claims, c.gapClaims(sc.ref, x.ind, sc.year)...)
 		}
 	}
 	if len(facts) == 0 {
@@ -223,7 +338,22 @@ func (c *composer) riskGaps(sc *scope, groupNamed bool) []Sentence {
 	// Even one gap goes through GapList: in a summary there is no run-in
 	// heading to name the indicator, so the sentence must.
 	facts[0].GroupNamed = groupNamed
-	return []Sentence{c.say(about, c.w.GapList(facts), cites...)}
+	return []Sentence{c.say(about, c.w.GapList(facts), cites...).claim(claims...)}
+}
+
+// rankedClaims: every indicator of an above-the-middle list (up) has a
+// percentile over 50, every one of a below list under 50, whether named
+// or counted ("and two other indicators").
+func (c *composer) rankedClaims(g *figures.Group, xs []placed, up bool) []Claim {
+	op := OpLess
+	if up {
+		op = OpGreater
+	}
+	var out []Claim
+	for _, x := range xs {
+		out = append(out, Claimed(Fig(posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mPercentile)), op, Num(50)))
+	}
+	return out
 }
 
 func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.Key) {
@@ -234,6 +364,12 @@ func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.
 	var cites []figures.Key
 	for _, x := range xs {
 		f.Seed += x.ind.Key
+		if c.small(x.d) {
+			// Below the floor: the rank "of n", never a percentile.
+			f.Items = append(f.Items, RankedItem{Indicator: c.w.Indicator(x.ind), Rank: format.Ordinal(x.p.Rank) + " of " + printCount(x.p.Of), Value: printValue(x.ind, x.p.Value)})
+			cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mRank), posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mOf))
+			continue
+		}
 		f.Items = append(f.Items, RankedItem{Indicator: c.w.Indicator(x.ind), Percentile: printOrdinalPct(x.p.Percentile), Value: printValue(x.ind, x.p.Value)})
 		cites = append(cites, posKey(g.Name, x.ind.Key, c.m.FocusID, x.p.Year, mPercentile))
 	}
@@ -241,7 +377,11 @@ func (c *composer) ranked(g *figures.Group, xs []placed) (RankedFact, []figures.
 }
 
 // headline names the judged indicator whose percentile in the reference
-// group moved most over the span.
+// group moved most over the span, when that movement is at least the
+// noise rule. It records one claim per other indicator compared (its
+// percentile_move at most the headline's), so "the largest movement"
+// holds over every indicator it was weighed against; only trends over
+// their own years, which have a percentile_move figure, are weighed.
 //
 // groupNamed says an earlier sentence of the paragraph has named the group.
 func (c *composer) headline(sc *scope, groupNamed bool) []Sentence {
@@ -249,26 +389,35 @@ func (c *composer) headline(sc *scope, groupNamed bool) []Sentence {
 	if g == nil {
 		return nil
 	}
-	best, bestMove := changeData{}, 0.0
+	best, bestMove := changeData{}, -1.0
 	var bestInd dataset.Indicator
+	var weighed []dataset.Indicator
 	for _, ind := range sc.inds {
 		if !judged(ind) {
 			continue
 		}
 		cd, ok := c.changeData(sc, g, ind)
-		if !ok || !cd.hasPct || cd.f.PctDirection == Level {
+		if !ok || !cd.hasPct || !cd.useTrend || math.IsNaN(cd.t.PercentileMove) || c.small(cd.d0) || c.small(cd.d1) {
 			continue
 		}
-		move := math.Abs(math.Round(cd.p1.Percentile) - math.Round(cd.p0.Percentile))
-		if move > bestMove {
-			best, bestMove, bestInd = cd, move, ind
+		weighed = append(weighed, ind)
+		if cd.t.PercentileMove > bestMove {
+			best, bestMove, bestInd = cd, cd.t.PercentileMove, ind
 		}
 	}
-	if bestMove == 0 {
+	if bestMove < c.noise() || best.f.PctDirection == Level {
 		return nil
 	}
 	id := c.m.FocusID
 	best.f.GroupNamed = groupNamed
+	mk := func(ind dataset.Indicator) Operand { return Fig(trendKey(g.Name, ind.Key, id, "percentile_move")) }
+	claims := []Claim{Claimed(mk(bestInd), OpGreaterEq, Num(c.noise()))}
+	for _, ind := range weighed {
+		if ind.Key != bestInd.Key {
+			claims = append(claims, Claimed(mk(bestInd), OpGreaterEq, mk(ind)))
+		}
+	}
+	claims = append(claims, c.percentileChangeClaims(g, bestInd, best)...)
 	return []Sentence{c.say(bestInd.Key, c.w.Headline(best.f),
-		posKey(g.Name, bestInd.Key, id, best.p0.Year, mPercentile), posKey(g.Name, bestInd.Key, id, best.p1.Year, mPercentile))}
+		posKey(g.Name, bestInd.Key, id, best.p0.Year, mPercentile), posKey(g.Name, bestInd.Key, id, best.p1.Year, mPercentile)).claim(claims...)}
 }

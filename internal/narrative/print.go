@@ -15,7 +15,7 @@ func printValue(ind dataset.Indicator, v float64) string { return format.Value(i
 
 func printAmount(ind dataset.Indicator, d float64) string { return format.Difference(ind, d) }
 
-func printOrdinalPct(p float64) string { return format.Ordinal(int(format.Round(p, 0))) }
+func printOrdinalPct(p float64) string { return format.Ordinal(format.PercentileRank(p)) }
 
 func printCount(n int) string { return format.Int(n) }
 
@@ -54,7 +54,9 @@ func withinNoise(ind dataset.Indicator, change, iqr float64) bool {
 	if format.Round(change, ind.Decimals) == 0 {
 		return true
 	}
-	return !math.IsNaN(iqr) && iqr > 0 && math.Abs(change) < NoiseIQRShare*iqr
+	// Divided as the figures model's change_per_iqr is, so the claim
+	// recorded compares the very number decided on.
+	return !math.IsNaN(iqr) && iqr > 0 && math.Abs(change)/iqr < NoiseIQRShare
 }
 
 // direction of a change: Above (up), Below (down) or Level (noise).

@@ -27,6 +27,10 @@ type situation struct {
 	Years      []int               `yaml:"years"`
 	Language   string              `yaml:"language"`
 	RankBands  int                 `yaml:"rank_bands"`
+	// SmallGroup and Noise are the brief's small_group and noise settings
+	// (unset: the brief's defaults).
+	SmallGroup int     `yaml:"small_group"`
+	Noise      float64 `yaml:"noise"`
 	// Columns names the value columns as indicator@year.
 	Columns []string `yaml:"columns"`
 	// Institutions: id -> [country, name, values in column order]; a
@@ -51,6 +55,9 @@ type situation struct {
 	International []string  `yaml:"international"`
 	Groups        yaml.Node `yaml:"groups"`
 	Block         yaml.Node `yaml:"block"`
+	// Repeat writes the block this many times (default once), as a brief
+	// asking twice for the same commentary would.
+	Repeat int `yaml:"repeat"`
 	// Expect is the block's text as render prints it; Summary the
 	// executive summary's.
 	Expect  *string `yaml:"expect"`
@@ -169,6 +176,12 @@ func (s *situation) build(t *testing.T) (*figures.Model, *brief.Brief) {
 	if s.Language != "" {
 		fmt.Fprintf(&fm, "language: %s\n", s.Language)
 	}
+	if s.SmallGroup > 0 {
+		fmt.Fprintf(&fm, "small_group: %d\n", s.SmallGroup)
+	}
+	if s.Noise > 0 {
+		fmt.Fprintf(&fm, "noise: %v\n", s.Noise)
+	}
 	if s.RankBands > 0 {
 		fmt.Fprintf(&fm, "rank_bands: %d\n", s.RankBands)
 	}
@@ -176,9 +189,12 @@ func (s *situation) build(t *testing.T) (*figures.Model, *brief.Brief) {
 	for _, line := range strings.Split(strings.TrimRight(nodeYAML(t, &s.Groups), "\n"), "\n") {
 		fm.WriteString("  " + line + "\n")
 	}
-	fm.WriteString("---\n\n# Situation\n\n```commentary\n")
-	fm.WriteString(nodeYAML(t, &s.Block))
-	fm.WriteString("```\n")
+	fm.WriteString("---\n\n# Situation\n")
+	for range max(s.Repeat, 1) {
+		fm.WriteString("\n```commentary\n")
+		fm.WriteString(nodeYAML(t, &s.Block))
+		fm.WriteString("```\n")
+	}
 	b, err := brief.Parse("brief.md", []byte(fm.String()))
 	if err != nil {
 		t.Fatalf("brief: %v\n%s", err, fm.String())

@@ -1,5 +1,7 @@
 package narrative
 
+import "peerpack/internal/brief"
+
 // The rules that decide when a caveat is written or a change is called
 // "broadly unchanged". They are printed in the pack where they apply, so a
 // reader can see the rule behind the words.
@@ -7,7 +9,9 @@ const (
 	// SmallGroup: a group with fewer members reporting an indicator than
 	// this gets a small-group caveat; quartiles of fewer than ten values
 	// move a lot when one member changes (common practice, no source).
-	SmallGroup = 10
+	// It is the default of the brief's small_group setting, the floor below
+	// which quarters and percentiles are not printed.
+	SmallGroup = brief.DefaultSmallGroup
 	// MinCoverage: a group where fewer than this percentage of members
 	// report an indicator gets a coverage caveat (common practice, no
 	// source).
@@ -25,7 +29,8 @@ const (
 	// losing ground; in a group of a hundred that is four or five places,
 	// which a revision or one institution entering can shift (common
 	// practice, no source). Both percentiles are still printed.
-	PercentileNoise = 5.0
+	// It is the default of the brief's noise setting.
+	PercentileNoise = brief.DefaultNoise
 	// When the number of members reporting changed between the two ends
 	// of a span, changes are stated in percentiles by the figures model's
 	// own rule (figures.SizeChanged), so tables and sentences agree.

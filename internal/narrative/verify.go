@@ -20,7 +20,8 @@ import (
 // ordinal or its band, a count, a percentile as an ordinal, a year of a
 // cited figure), or one of the method thresholds the sentence declares.
 // Digits inside names (groups, institutions, countries, indicator labels,
-// judgement notes) are not numbers. It returns every problem found.
+// judgement notes) are not numbers. Every claim a sentence records must
+// hold in the model (claims.go). It returns every problem found.
 func Verify(m *figures.Model, c *Commentary) error {
 	if m == nil || c == nil {
 		return fmt.Errorf("internal error: nothing to verify")
@@ -51,6 +52,9 @@ func Verify(m *figures.Model, c *Commentary) error {
 		sort.SliceStable(forms, func(i, j int) bool { return len(forms[i]) > len(forms[j]) })
 		for _, f := range forms {
 			text = removeNumber(text, f)
+		}
+		for _, err := range verifyClaims(m, s) {
+			probs.Add(err)
 		}
 		if n := firstNumber(text); n != "" {
 			probs.Add(fmt.Errorf("commentary (%s): the sentence %q prints %q, which none of its cited figures (%s) gives", s.Part, s.Text, n, keyList(s.Cites)))
@@ -129,6 +133,9 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	if r.Year != 0 {
 		out = append(out, strconv.Itoa(r.Year))
 	}
+	if r.Section == figures.SectionPeers {
+		return append(out, peersRenderings(m, r)...)
+	}
 	v := r.Value
 	ind, hasInd := m.Indicator(r.Indicator)
 	whole := int(math.Round(v))
@@ -144,6 +151,8 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	case "ties":
 		// "joint 4th with 2 others": the others, or all who share.
 		out = append(out, format.Int(whole-1), format.Int(whole))
+	case "skewness":
+		out = append(out, format.Number(v, 1), format.Number(math.Abs(v), 1))
 	case "pearson", "spearman":
 		out = append(out, format.Number(v, 2), format.Number(math.Abs(v), 2))
 	case "rank":
@@ -151,7 +160,7 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n":
 		out = append(out, format.Int(whole))
 	case "percentile":
-		p := int(format.Round(v, 0))
+		p := format.PercentileRank(v)
 		out = append(out, format.Ordinal(p), format.Int(p))
 	case "percentile_change", "rank_change":
 		out = append(out, format.Int(int(math.Abs(format.Round(v, 0)))))

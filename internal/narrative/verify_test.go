@@ -76,7 +76,7 @@ func TestCitingAMissingFigureFails(t *testing.T) {
 func TestCommentaryRows(t *testing.T) {
 	c, m, _ := parseSituation(t, traceSituation).compose(t)
 	seen := map[figures.Key]bool{}
-	sentences, cites := 0, 0
+	sentences, cites, claims := 0, 0, 0
 	for r := range m.Rows() {
 		if r.Section != figures.SectionCommentary {
 			continue
@@ -93,16 +93,19 @@ func TestCommentaryRows(t *testing.T) {
 			if _, ok := m.Lookup(parseKey(t, r.Text)); !ok {
 				t.Errorf("row %s cites %s, which is not in the model", r.Key, r.Text)
 			}
+		case strings.HasPrefix(r.Measure, "claim."):
+			claims++
 		default:
 			t.Errorf("unexpected commentary measure %q", r.Measure)
 		}
 	}
-	want := 0
+	want, wantClaims := 0, 0
 	for _, s := range c.Sentences {
 		want += len(s.Cites)
+		wantClaims += len(s.Claims)
 	}
-	if sentences != len(c.Sentences) || cites != want {
-		t.Fatalf("rows: %d sentences and %d cites, want %d and %d", sentences, cites, len(c.Sentences), want)
+	if sentences != len(c.Sentences) || cites != want || claims != wantClaims || claims == 0 {
+		t.Fatalf("rows: %d sentences, %d cites and %d claims, want %d, %d and %d (more than none)", sentences, cites, claims, len(c.Sentences), want, wantClaims)
 	}
 	first := c.Sentences[0]
 	k := figures.Key{Section: figures.SectionCommentary, Group: "summary", Indicator: first.About, Institution: "#0001", Measure: "sentence"}

@@ -31,6 +31,9 @@ type Wording interface {
 	Position(f PositionFact) string
 	Distance(f PositionFact) string
 	FocusMissing(f MissingFact) string
+	// LeftOut: the indicators (f.Indicator, a list) a summary cannot
+	// place because the focus reports no value for the year.
+	LeftOut(f MissingFact) string
 	GroupMissing(f MissingFact) string
 	AllMissing(f MissingFact) string
 	Alone(f PositionFact) string
@@ -65,6 +68,12 @@ type Wording interface {
 	PPP(f CaveatFact) string
 	Judgement(f CaveatFact) string
 	OneCountry(f CaveatFact) string
+	// Skewed: the values are strongly skewed (f.N is the printed
+	// skewness), so z-scores and means describe positions poorly.
+	Skewed(f CaveatFact) string
+	// ByConstruction: a nearest-peers group chosen on this indicator, so
+	// the focus's similarity to it there is by construction.
+	ByConstruction(f CaveatFact) string
 	// SmallGroupBrief, PPPBrief and Direction are the executive
 	// summary's short caveats: a group too small for stable quartiles,
 	// the indicators in international dollars, and which indicators
@@ -119,8 +128,12 @@ type PositionFact struct {
 	Last  bool
 	First bool
 	Of    string
-	// Quartile is 1 (best quarter) to 4.
+	// Quartile is 1 (best quarter) to 4, 0 when the group is below the
+	// small-group floor (no quarter is printed). Edge is 1 or 4 when the
+	// percentile lies within the noise rule of the top or bottom
+	// quarter's boundary: "at the edge of the top quarter".
 	Quartile int
+	Edge     int
 	InGroup  bool
 	// Members is the number of members with a value (outside groups).
 	Members string
@@ -208,6 +221,18 @@ type OverviewFact struct {
 	Group  string
 	Top    []RankedItem
 	Bottom []RankedItem
+	// EdgeTop and EdgeBottom are the indicators within the noise rule of
+	// the top or bottom quarter's boundary, whichever side: "at the edge
+	// of" the quarter, not in or out of it.
+	EdgeTop, EdgeBottom []RankedItem
+	// Middle counts the indicators in neither quarter nor at an edge.
+	Middle int
+	// Small is set when the group is below the small-group floor: First
+	// and Last list the indicators where the focus ranks first or last
+	// ("1st of 5"), and no quarters are named; Floor is the printed floor.
+	Small       bool
+	First, Last []RankedItem
+	Floor       string
 	// MoreTop and MoreBottom count the indicators of each quarter left
 	// out of lists cut to OverviewItems.
 	MoreTop, MoreBottom int
@@ -215,10 +240,13 @@ type OverviewFact struct {
 	named map[string]bool
 }
 
-// RankedItem is one strength or risk: an indicator and its percentile.
+// RankedItem is one strength or risk: an indicator and its percentile,
+// or, in a group below the small-group floor, its rank "of n" (Rank, with
+// Percentile empty).
 type RankedItem struct {
 	Indicator  string
 	Percentile string
+	Rank       string
 	Value      string
 }
 
@@ -249,6 +277,14 @@ type CompetitionFact struct {
 	Bottom   []string
 	// MoreTop and MoreBottom count indicators left out of Top and Bottom.
 	MoreTop, MoreBottom int
+	// EdgeTop and EdgeBottom name the indicators within the noise rule
+	// of the top or bottom quarter's boundary (see OverviewFact).
+	EdgeTop, EdgeBottom []string
+	// Small: the system is below the small-group floor; First and Last
+	// then list first and last places "of n" (see OverviewFact).
+	Small       bool
+	First, Last []RankedItem
+	Floor       string
 	// Systems and Shared, for CompetitionShared: how many systems, and
 	// the indicators on which every one of their medians leads.
 	Systems int
@@ -260,6 +296,9 @@ type CompetitionFact struct {
 	// Ahead lists the indicators where the system's median is better
 	// than the focus, with both printed values.
 	Ahead []AheadItem
+	// Level lists the indicators where the system's median is ahead by
+	// less than the data carries (the noise rule): level, not a lead.
+	Level []AheadItem
 }
 
 // AheadItem is one indicator where a competitor median leads.

@@ -164,6 +164,25 @@ func (english) quarter(better dataset.Polarity, q int) string {
 	if q < 1 || q > 4 {
 		return ""
 	}
+	return quarterWord(better, q)
+}
+
+// edgeWord: a position within the noise rule of a quarter boundary.
+func edgeWord(better dataset.Polarity, edge int) string {
+	switch {
+	case better == dataset.Neutral && edge == 1:
+		return "at the edge of the highest quarter of values"
+	case better == dataset.Neutral && edge == 4:
+		return "at the edge of the lowest quarter of values"
+	case edge == 1:
+		return "at the edge of the top quarter"
+	case edge == 4:
+		return "at the edge of the bottom quarter"
+	}
+	return ""
+}
+
+func quarterWord(better dataset.Polarity, q int) string {
 	if better == dataset.Neutral {
 		return neutralQuarter[q]
 	}
@@ -180,6 +199,9 @@ func (e english) Position(f PositionFact) string {
 	if !f.Last && !f.First {
 		if w := e.quarter(f.Better, f.Quartile); w != "" {
 			q = ", " + w
+		}
+		if f.Quartile != 0 && f.Edge != 0 {
+			q = ", " + edgeWord(f.Better, f.Edge)
 		}
 	}
 	inYear := " in " + f.Year
@@ -292,6 +314,12 @@ func (e english) FocusMissing(f MissingFact) string {
 		"With no {ind} reported for {year}, {focus} has no place {in}; the group median is {median}.",
 	}
 	return e.fill(tmpl[variant(f.Seed, len(tmpl))], kv...)
+}
+
+// LeftOut: what a summary cannot place, and why.
+func (e english) LeftOut(f MissingFact) string {
+	return e.fill("The positions above leave out {ind}, for which {focus} reports no {year} figure.",
+		"focus", f.Focus, "year", f.Year, "ind", f.Indicator)
 }
 
 // GroupMissing: no member of the group reports the indicator.
@@ -419,18 +447,59 @@ func (e english) ChangePercentile(f ChangeFact) string {
 // Overview: which indicators are in the best and worst quarter, with
 // their percentiles; a list cut short ends "and two other indicators".
 func (e english) Overview(f OverviewFact) string {
+	if f.Small {
+		return e.smallOverview(f)
+	}
 	top := e.rankedMore(f.Top, f.MoreTop, true)
 	bottom := e.rankedMore(f.Bottom, f.MoreBottom, len(f.Top) == 0)
 	kv := []string{"focus", f.Focus, "group", f.Group, "top", top, "bottom", bottom}
+	edge := ""
+	if len(f.EdgeTop) > 0 || len(f.EdgeBottom) > 0 {
+		var parts []string
+		word := len(f.Top) == 0 && len(f.Bottom) == 0
+		if len(f.EdgeTop) > 0 {
+			parts = append(parts, "of the top quarter on "+e.rankedMore(f.EdgeTop, 0, word))
+			word = false
+		}
+		if len(f.EdgeBottom) > 0 {
+			parts = append(parts, "of the bottom quarter on "+e.rankedMore(f.EdgeBottom, 0, word))
+		}
+		edge = "; it is at the edge " + strings.Join(parts, " and at the edge ") + ", within the noise of the data"
+	}
+	noTop, noBottom := len(f.EdgeTop) == 0, len(f.EdgeBottom) == 0
 	switch {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
-		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, and in the bottom quarter on {bottom}"+edge+".", kv...)
+	case len(f.Top) > 0 && noBottom:
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}, with no indicator in the bottom quarter"+edge+".", kv...)
 	case len(f.Top) > 0:
-		return e.fill("Within {group}, {focus} is in the top quarter on {top}, with no indicator in the bottom quarter.", kv...)
+		return e.fill("Within {group}, {focus} is in the top quarter on {top}"+edge+".", kv...)
+	case len(f.Bottom) > 0 && noTop:
+		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, with no indicator in the top quarter"+edge+".", kv...)
 	case len(f.Bottom) > 0:
-		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}, with no indicator in the top quarter.", kv...)
+		return e.fill("Within {group}, {focus} is in the bottom quarter on {bottom}"+edge+".", kv...)
+	case edge != "" && f.Middle > 0:
+		return e.fill("Within {group}, {focus} is"+strings.TrimPrefix(edge, "; it is")+", and in the middle half on every other indicator.", kv...)
+	case edge != "":
+		return e.fill("Within {group}, {focus} is"+strings.TrimPrefix(edge, "; it is")+".", kv...)
 	}
 	return e.fill("Within {group}, {focus} sits in the middle half on every indicator, in neither the top nor the bottom quarter.", kv...)
+}
+
+// smallOverview: a group below the small-group floor gets first and last
+// places "of n", no quarters.
+func (e english) smallOverview(f OverviewFact) string {
+	kv := []string{"focus", f.Focus, "group", f.Group, "in", e.in(f.Group), "first", e.rankedMore(f.First, 0, false),
+		"last", e.rankedMore(f.Last, 0, false), "floor", f.Floor}
+	switch {
+	case len(f.First) > 0 && len(f.Last) > 0:
+		return e.fill("{in}, {focus} ranks first on {first}, and last on {last}; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
+	case len(f.First) > 0:
+		return e.fill("{in}, {focus} ranks first on {first}, and last on none; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
+	case len(f.Last) > 0:
+		return e.fill("{in}, {focus} ranks last on {last}, and first on none; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
+	}
+	return e.fill("{in}, {focus} ranks neither first nor last on any indicator; with fewer than {floor} members reporting, no quarters or percentiles are given.", kv...)
 }
 
 // listMore lists items and, when a list was cut, how many it left out:
@@ -447,6 +516,10 @@ func (e english) listMore(items []string, more int) string {
 func (e english) rankedMore(items []RankedItem, more int, word bool) string {
 	parts := make([]string, len(items))
 	for i, it := range items {
+		if it.Rank != "" {
+			parts[i] = it.Indicator + " (" + it.Rank + ")"
+			continue
+		}
 		if i == 0 && word {
 			parts[i] = it.Indicator + " (" + it.Percentile + " percentile)"
 		} else {
@@ -536,6 +609,41 @@ func (e english) CompetitionPlace(f CompetitionFact) string {
 	if f.InSystem {
 		lead, be, sit = "Among the institutions of {system}, {focus}", " is", " sits"
 	}
+	if f.Small {
+		rank := " rank"
+		if f.InSystem {
+			rank = " ranks"
+		}
+		kv = append(kv, "first", e.rankedMore(f.First, 0, false), "last", e.rankedMore(f.Last, 0, false), "floor", f.Floor)
+		tail := "; with fewer than {floor} members reporting, no quarters are given."
+		switch {
+		case len(f.First) > 0 && len(f.Last) > 0:
+			return e.fill(lead+rank+" first on {first}, and last on {last}"+tail, kv...)
+		case len(f.First) > 0:
+			return e.fill(lead+rank+" first on {first}, and last on none"+tail, kv...)
+		case len(f.Last) > 0:
+			return e.fill(lead+rank+" last on {last}, and first on none"+tail, kv...)
+		}
+		return e.fill(lead+rank+" neither first nor last on any indicator here"+tail, kv...)
+	}
+	if len(f.EdgeTop) > 0 || len(f.EdgeBottom) > 0 {
+		// Positions within the noise rule of a boundary are named as
+		// such, and no quarter is said to be empty while one may hold them.
+		var parts []string
+		if len(f.Top) > 0 {
+			parts = append(parts, "in the top quarter on {top}")
+		}
+		if len(f.Bottom) > 0 {
+			parts = append(parts, "in the bottom quarter on {bottom}")
+		}
+		if len(f.EdgeTop) > 0 {
+			parts = append(parts, "at the edge of the top quarter on "+e.List(f.EdgeTop))
+		}
+		if len(f.EdgeBottom) > 0 {
+			parts = append(parts, "at the edge of the bottom quarter on "+e.List(f.EdgeBottom))
+		}
+		return e.fill(lead+be+" "+strings.Join(parts, ", ")+".", kv...)
+	}
 	switch {
 	case len(f.Top) > 0 && len(f.Bottom) > 0:
 		return e.fill(lead+be+" in the top quarter on {top}, and in the bottom quarter on {bottom}.", kv...)
@@ -558,8 +666,21 @@ func (e english) CompetitionAhead(f CompetitionFact) string {
 		"The median of {system} is ahead on {items}.",
 		"{system's} median leads {focus} on {items}.",
 	}
-	return e.fill(tmpl[variant(f.Seed+"/ahead", len(tmpl))],
+	level := ""
+	if len(f.Level) > 0 {
+		level = ", and level with it, within year-to-year noise, on " + e.aheadItems(f.Level)
+	}
+	return e.fill(strings.TrimSuffix(tmpl[variant(f.Seed+"/ahead", len(tmpl))], ".")+level+".",
 		"system", f.System, "system's", possessive(f.System), "focus", f.Focus, "items", e.List(parts))
+}
+
+// aheadItems lists indicators with the median and the focus's value.
+func (e english) aheadItems(items []AheadItem) string {
+	parts := make([]string, len(items))
+	for i, a := range items {
+		parts[i] = a.Indicator + " (" + a.Median + " against " + a.Value + ")"
+	}
+	return e.List(parts)
 }
 
 // CompetitionShared: a lead every system shares, said once.
@@ -574,6 +695,14 @@ func (e english) CompetitionShared(f CompetitionFact) string {
 
 // CompetitionBehind: the competitor's median leads nowhere.
 func (e english) CompetitionBehind(f CompetitionFact) string {
+	if len(f.Level) > 0 {
+		rest := "any other indicator here"
+		if f.Others {
+			rest = "any of the remaining indicators here"
+		}
+		return e.fill("{system's} median is level with {focus}, within year-to-year noise, on {items}, and not ahead on "+rest+".",
+			"system's", possessive(f.System), "focus", f.Focus, "items", e.aheadItems(f.Level))
+	}
 	if f.Others {
 		return e.fill("{system's} median is not ahead of {focus} on any other indicator here.",
 			"system's", possessive(f.System), "focus", f.Focus)
@@ -626,6 +755,18 @@ func (e english) GapList(fs []GapFact) string {
 		}
 	}
 	return e.fill(tmpl, "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
+}
+
+// ByConstruction: peers chosen for closeness on an indicator.
+func (e english) ByConstruction(f CaveatFact) string {
+	return e.fill("{group} were chosen as the institutions closest to {focus} on {ind}, among other indicators, so {focus's} likeness to them there is by construction, not a finding.",
+		"group", f.Group, "focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator)
+}
+
+// Skewed: z-scores assume a roughly symmetric spread.
+func (e english) Skewed(f CaveatFact) string {
+	return e.fill("Values of {ind} {in} are strongly skewed (sample skewness {skew}, beyond 2 either way), so a z-score or a mean describes positions there poorly; ranks, percentiles and the median are the safer reading.",
+		"ind", f.Indicator, "in", e.in(f.Group), "skew", f.N)
 }
 
 // SmallGroup: fewer members than quartiles can bear.

@@ -55,8 +55,9 @@ func TestListAndOrdinalsAndPlurals(t *testing.T) {
 		t.Errorf("two items = %q", got)
 	}
 	// Ordinals come from package format; these are the forms the
-	// sentences rely on (English ordinal suffixes, from memory).
-	for p, want := range map[float64]string{1: "1st", 2: "2nd", 3: "3rd", 11: "11th", 12.4: "12th", 13: "13th", 21: "21st", 22: "22nd", 62.5: "63rd", 99.6: "100th"} {
+	// sentences rely on (English ordinal suffixes, from memory); a
+	// percentile prints within 1st to 99th, never "100th" or "0th".
+	for p, want := range map[float64]string{1: "1st", 2: "2nd", 3: "3rd", 11: "11th", 12.4: "12th", 13: "13th", 21: "21st", 22: "22nd", 62.5: "63rd", 99.6: "99th", 0.3: "1st"} {
 		if got := printOrdinalPct(p); got != want {
 			t.Errorf("ordinal of %v = %q, want %q", p, got, want)
 		}

@@ -37,6 +37,11 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 	if sc.has("change") {
 		main = append(main, c.headline(sc, len(main) > 0)...)
 	}
+	if sc.has("position") {
+		// Every other comparison group of the scope, after the
+		// reference group's sentences so "the group" there stays clear.
+		main = append(main, c.otherOverviews(sc)...)
+	}
 	var out []Paragraph
 	if len(main) > 0 {
 		// No run-in heading: the section it opens already names it.

@@ -64,3 +64,36 @@ func Z(v, mean, sd float64) float64 {
 	}
 	return (v - mean) / sd
 }
+
+// Skewness is the adjusted Fisher-Pearson sample skewness
+// G1 = sqrt(n(n-1)) / (n-2) x m3 / m2^(3/2), with m2 and m3 the second and
+// third central moments (divisor n), as SciPy's skew(bias=False) and
+// Joanes and Gill (1998) type 2; NaN for fewer than three values or no
+// spread. Packs caution on z-scores where its absolute value exceeds
+// SkewCaution.
+func Skewness(x []float64) float64 {
+	n := len(x)
+	if n < 3 {
+		return math.NaN()
+	}
+	m := Mean(x)
+	var m2, m3 float64
+	for _, v := range x {
+		d := v - m
+		m2 += d * d
+		m3 += d * d * d
+	}
+	m2 /= float64(n)
+	m3 /= float64(n)
+	if m2 == 0 {
+		return math.NaN()
+	}
+	g1 := m3 / math.Pow(m2, 1.5)
+	nf := float64(n)
+	return math.Sqrt(nf*(nf-1)) / (nf - 2) * g1
+}
+
+// SkewCaution: an absolute sample skewness above 2 makes z-scores and
+// means poor summaries of an indicator (a threshold commonly used in
+// composite-indicator audits, from memory).
+const SkewCaution = 2.0

@@ -101,6 +101,41 @@ func QuartileOf(p float64) int {
 	return 4
 }
 
+// QuartileByValue places a value in a quarter of a distribution by the
+// distribution's own quartiles, 1 the best quarter. Higher first: 1 when
+// v >= Q3, 2 when median <= v < Q3, 3 when Q1 <= v < median, else 4;
+// lower first, mirrored (1 when v <= Q1). A value on a quartile belongs to
+// the better quarter, so tied values share a quarter, a joint-best value
+// (the maximum, never below Q3) is always in the top quarter, and "in the
+// top quarter" always goes with "at or above the upper quartile": the one
+// boundary rule for tables and text, whatever the quantile definition
+// (common practice, no source). NaN values give 0.
+func QuartileByValue(v float64, b Box, lowerFirst bool) int {
+	if math.IsNaN(v) || b.N == 0 {
+		return 0
+	}
+	if lowerFirst {
+		switch {
+		case v <= b.Q1:
+			return 1
+		case v <= b.Median:
+			return 2
+		case v <= b.Q3:
+			return 3
+		}
+		return 4
+	}
+	switch {
+	case v >= b.Q3:
+		return 1
+	case v >= b.Median:
+		return 2
+	case v >= b.Q1:
+		return 3
+	}
+	return 4
+}
+
 // AverageRanks returns the ascending ranks of x (1 = smallest), tied values
 // sharing the mean of the ranks they span (R's rank(ties.method =
 // "average")). x must have no missing values.

@@ -12,8 +12,8 @@ import (
 // TestSample200AgainstSciPy checks the percentile-rank convention against
 // SciPy 1.10.1's percentileofscore(kind="mean") (Debian python3-scipy,
 // computed by testdata/reference/sample200_scipy.py), a definition
-// published independently of ours, plus SciPy's spearmanr, pearsonr and
-// std(ddof=1); agreement to 1e-9.
+// published independently of ours, plus SciPy's spearmanr, pearsonr,
+// std(ddof=1) and skew(bias=False); agreement to 1e-9.
 func TestSample200AgainstSciPy(t *testing.T) {
 	f, err := os.Open(referenceDir + "/sample200_scipy.csv")
 	if err != nil {
@@ -57,4 +57,7 @@ func TestSample200AgainstSciPy(t *testing.T) {
 	near(t, "spearman", Spearman(x, y), want("spearman_xy"), 1e-9)
 	near(t, "pearson", Pearson(x, y), want("pearson_xy"), 1e-9)
 	near(t, "sd", SD(x), want("sd_x"), 1e-9)
+	// SciPy skew(bias=False): the adjusted Fisher-Pearson estimator.
+	near(t, "skewness x", Skewness(x), want("skew_x"), 1e-9)
+	near(t, "skewness y", Skewness(y), want("skew_y"), 1e-9)
 }

@@ -231,7 +231,13 @@ func TestTrendMeasures(t *testing.T) {
 	// years is +21, +21%, a compound 10% a year.
 	near(t, "change", Change(100, 121), 21, 0)
 	near(t, "change pct", ChangePct(100, 121), 21, 1e-12)
-	near(t, "change pct from a negative start", ChangePct(-10, -5), 50, 1e-12)
+	// No percentage change from, across or below zero.
+	for _, se := range [][2]float64{{-10, -5}, {-2, 3}, {4, -1}, {0, 3}} {
+		if !math.IsNaN(ChangePct(se[0], se[1])) {
+			t.Errorf("ChangePct(%v, %v) = %v, want NaN", se[0], se[1], ChangePct(se[0], se[1]))
+		}
+	}
+	near(t, "change pct to zero", ChangePct(8, 0), -100, 1e-12)
 	near(t, "cagr", CAGR(100, 121, 2), 10, 1e-12)
 	if !math.IsNaN(CAGR(0, 5, 3)) || !math.IsNaN(CAGR(-1, 5, 3)) || !math.IsNaN(ChangePct(0, 3)) {
 		t.Error("CAGR and change pct need a positive / non-zero start")
@@ -308,5 +314,24 @@ func TestWhiskerInsideTheBox(t *testing.T) {
 	}
 	if len(b.OutlierValues) != 1 || b.OutlierValues[0] != 100 {
 		t.Errorf("outliers %v", b.OutlierValues)
+	}
+}
+
+// Adjusted Fisher-Pearson skewness, worked by hand: 1, 2, 3, 4, 10 have
+// mean 4, m2 = 50/5 = 10, m3 = 180/5 = 36, g1 = 36 / 10^1.5 and
+// G1 = sqrt(5 x 4) / 3 x g1 = 1.2 x sqrt(2) (SciPy skew(bias=False) gives
+// the same, from memory); symmetric data give 0; under three values or no
+// spread, NaN.
+func TestSkewness(t *testing.T) {
+	if got, want := Skewness([]float64{1, 2, 3, 4, 10}), 1.2*math.Sqrt(2); math.Abs(got-want) > 1e-12 {
+		t.Errorf("Skewness = %v, want %v", got, want)
+	}
+	if got := Skewness([]float64{1, 2, 3, 4, 5}); math.Abs(got) > 1e-12 {
+		t.Errorf("symmetric: %v", got)
+	}
+	for _, x := range [][]float64{{1, 2}, {3, 3, 3}} {
+		if got := Skewness(x); !math.IsNaN(got) {
+			t.Errorf("Skewness(%v) = %v, want NaN", x, got)
+		}
 	}
 }

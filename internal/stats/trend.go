@@ -5,14 +5,17 @@ import "math"
 // Change is end - start.
 func Change(start, end float64) float64 { return end - start }
 
-// ChangePct is the percentage change 100 x (end - start) / |start|; NaN
-// when start is zero. Dividing by |start| keeps the sign of the change
-// when the start is negative.
+// ChangePct is the percentage change 100 x (end - start) / start, defined
+// only for a positive start and an end at or above zero: a percentage
+// change from or across zero or below it (an operating deficit turning to
+// a surplus, -2 to +3 "+250 %") reads as a size it does not have, so it is
+// withheld (NaN) and the absolute change stands alone (common practice,
+// no source).
 func ChangePct(start, end float64) float64 {
-	if start == 0 {
+	if !(start > 0) || !(end >= 0) {
 		return math.NaN()
 	}
-	return 100 * (end - start) / math.Abs(start)
+	return 100 * (end - start) / start
 }
 
 // CAGR is the compound annual growth rate in percent a year,

@@ -335,7 +335,12 @@ func typeError(file string, node *yaml.Node, err error) error {
 		return ye
 	}
 	msg := err.Error()
-	var line int
+	var line, col int
+	if n, _ := fmt.Sscanf(msg, "line %d column %d:", &line, &col); n == 2 {
+		if i := strings.Index(msg, ":"); i >= 0 {
+			return &Error{File: file, Line: line, Column: col, Msg: strings.TrimSpace(msg[i+1:])}
+		}
+	}
 	if n, _ := fmt.Sscanf(msg, "line %d:", &line); n == 1 {
 		if i := strings.Index(msg, ":"); i >= 0 {
 			return &Error{File: file, Line: line, Msg: strings.TrimSpace(msg[i+1:])}

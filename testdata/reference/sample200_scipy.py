@@ -30,6 +30,9 @@ for v in (50, 61.3, 10):
 out.append(("spearman_xy", stats.spearmanr(x, y).correlation))
 out.append(("pearson_xy", stats.pearsonr(x, y)[0]))
 out.append(("sd_x", float(np.std(x, ddof=1))))
+# Adjusted Fisher-Pearson sample skewness (the z-score caution's statistic).
+out.append(("skew_x", stats.skew(x, bias=False)))
+out.append(("skew_y", stats.skew(y, bias=False)))
 with open("testdata/reference/sample200_scipy.csv", "w") as f:
     f.write(f"# SciPy version: {scipy.__version__}\n")
     f.write("# Produced by testdata/reference/sample200_scipy.py; do not edit by hand.\n")

@@ -1,0 +1,241 @@
+package narrative
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"peerpack/internal/figures"
+	"peerpack/internal/format"
+	"peerpack/internal/peers"
+)
+
+// The peer-group text of a clusters block: how the clusters were made,
+// how clear the structure is (silhouette, Kaufman and Rousseeuw 1990),
+// which cluster the focus falls in and what marks it, how stable that is
+// (bootstrap Jaccard, Hennig 2007), the nearest profiles, and what the
+// clusters do not say. Each sentence cites the peers rows it prints.
+
+// pct prints a share (0..1) as a whole percentage, as Verify reads the
+// shares of section peers.
+func pct(v float64) string { return format.Int(int(math.Round(v*100))) + "%" }
+
+// peersParagraphs writes the text of one clusters block.
+func (c *composer) peersParagraphs(part string) []Paragraph {
+	pm := c.m.Peers
+	if pm == nil {
+		return nil
+	}
+	a := pm.Analysis
+	key := func(group, ind, inst, measure string) figures.Key { return pm.Key(group, ind, inst, measure) }
+	top := func(measure string) figures.Key { return key("", "", "", measure) }
+	say := func(text string, cites ...figures.Key) Sentence {
+		return Sentence{Text: text, Cites: cites, Part: part}
+	}
+	var method []Sentence
+	how := "k-means over standardised profiles"
+	if pm.Spec.Method == peers.MethodWard {
+		how = "Ward's hierarchical clustering of standardised profiles"
+	}
+	if !pm.Standardised {
+		how = strings.Replace(how, "standardised", "raw", 1)
+	}
+	labels := make([]string, len(pm.Indicators))
+	for j, ind := range pm.Indicators {
+		labels[j] = ind.RunningLabel()
+	}
+	s := say(fmt.Sprintf("Institutions were grouped by %s on %s in %d: %s institutions in %s clusters, numbered from the largest.",
+		how, joinAnd(labels), pm.Year, format.Int(len(pm.Rows)), format.Int(a.K)), top("n_clustered"), top("k"))
+	if pm.LeftOut > 0 {
+		s.Text = strings.TrimSuffix(s.Text, ".") + fmt.Sprintf("; %s of the ranked population lacked a value and were left out.", format.Int(pm.LeftOut))
+		s.Cites = append(s.Cites, top("n_left_out"))
+	}
+	method = append(method, s)
+	var weighted []string
+	for j, w := range pm.Weights {
+		if w != 1 {
+			weighted = append(weighted, fmt.Sprintf("%s counts %s times", labels[j], strconv.FormatFloat(w, 'f', -1, 64)))
+		}
+	}
+	if len(weighted) > 0 {
+		ws := say("Weights are a value judgement of the brief: " + joinAnd(weighted) + ".")
+		for j, w := range pm.Weights {
+			if w != 1 {
+				ws.Cites = append(ws.Cites, key("", pm.Indicators[j].Key, "", "weight"))
+			}
+		}
+		method = append(method, ws)
+	}
+	structure := "a reasonable structure"
+	switch {
+	case a.Silhouette.Mean < figures.WeakSilhouette:
+		structure = "no substantial structure: the clusters cut a continuum into parts rather than find separate groups"
+	case a.Silhouette.Mean < figures.ReasonableSilhouette:
+		structure = "a weak structure, which the method may partly have imposed"
+	}
+	if pm.Spec.K.Auto() {
+		method = append(method, say(fmt.Sprintf("The number of clusters gives the widest average silhouette width of those tried (%s), which indicates %s.",
+			format.Number(a.Silhouette.Mean, 2), structure), top("silhouette")))
+	} else {
+		method = append(method, say(fmt.Sprintf("The brief sets the number of clusters; their average silhouette width is %s, which indicates %s.",
+			format.Number(a.Silhouette.Mean, 2), structure), top("silhouette")))
+	}
+	if a.Silhouette.Sampled {
+		method = append(method, say(fmt.Sprintf("Silhouette widths are estimated from a random sample of %s institutions.", format.Int(len(a.Silhouette.Rows))), top("silhouette_rows")))
+	}
+	out := []Paragraph{{Sentences: method}}
+
+	var focus []Sentence
+	fid := c.m.FocusID
+	if pm.FocusCluster < 0 {
+		focus = append(focus, say(fmt.Sprintf("%s is not in any cluster: it is outside the ranked population or lacks a value of one of these indicators in %d.", c.focus, pm.Year)))
+	} else {
+		k := pm.Clusters[pm.FocusCluster]
+		g := figures.ClusterGroup(k.Number)
+		typ := c.m.Data.Register.Institutions[k.Typical].Name
+		s := say(fmt.Sprintf("%s falls in cluster %s, \u201c%s\u201d, with %s members; the member whose profile is nearest the cluster's centre is %s.",
+			c.focus, format.Int(k.Number), k.Name, format.Int(k.Size), typ),
+			key("", "", fid, "focus_cluster"), key(g, "", "", "name"), key(g, "", "", "size"), key(g, "", c.m.InstitutionID(k.Typical), "typical"))
+		if k.Typical == c.m.Focus {
+			s.Text = fmt.Sprintf("%s falls in cluster %s, \u201c%s\u201d, with %s members, and is itself the member nearest the cluster's centre.", c.focus, format.Int(k.Number), k.Name, format.Int(k.Size))
+		}
+		focus = append(focus, s)
+		if d := c.traitSentence(pm, k, part); d.Text != "" {
+			focus = append(focus, d)
+		}
+		if len(k.Countries) > 0 {
+			var cs []string
+			var cites []figures.Key
+			for _, cc := range k.Countries {
+				cs = append(cs, fmt.Sprintf("%s (%s)", cc.Country, format.Int(cc.N)))
+				cites = append(cites, key(g, "", "", figures.CountryMeasure(cc.Country)))
+			}
+			focus = append(focus, say("Its members come mostly from "+joinAnd(cs)+".", cites...))
+		}
+		if st := a.Stability; st != nil {
+			comp := pm.FocusCompanions
+			word := "a stable grouping"
+			if k.Fragile() {
+				word = "a fragile grouping: read membership of this cluster as tentative"
+			} else if k.Jaccard < peers.StableJaccard {
+				word = "a grouping of middling stability"
+			}
+			focus = append(focus, say(fmt.Sprintf("Clustered again on %s bootstrap resamples, %s kept most of the same companions (at least three quarters in common) in %s of them; the cluster itself has a mean Jaccard similarity of %s across resamples, %s.",
+				format.Int(st.Resamples), c.focus, pct(comp), format.Number(k.Jaccard, 2), word),
+				top("resamples"), key("", "", fid, "companions"), key(g, "", "", "jaccard")))
+		}
+	}
+	if len(focus) > 0 {
+		out = append(out, Paragraph{Sentences: focus})
+	}
+	if st := a.Stability; st != nil {
+		var fragile []string
+		var cites []figures.Key
+		for _, k := range pm.Clusters {
+			if k.Fragile() {
+				fragile = append(fragile, fmt.Sprintf("%s (%s)", format.Int(k.Number), format.Number(k.Jaccard, 2)))
+				cites = append(cites, key(figures.ClusterGroup(k.Number), "", "", "jaccard"))
+			}
+		}
+		if len(fragile) > 0 {
+			word := "Cluster " + fragile[0] + " is"
+			if len(fragile) > 1 {
+				word = "Clusters " + joinAnd(fragile) + " are"
+			}
+			cites = append(cites, top("jaccard_fragile"))
+			out = append(out, Paragraph{Sentences: []Sentence{say(word+fmt.Sprintf(" fragile: mean Jaccard similarity under %s across resamples (in brackets), so they may not exist as groups at all.", format.Number(peers.FragileJaccard, 2)), cites...)}})
+		}
+	}
+	if len(pm.Nearest) > 0 {
+		var items []string
+		var cites []figures.Key
+		for _, nb := range pm.Nearest {
+			id := c.m.InstitutionID(nb.Institution)
+			name := c.m.Data.Register.Institutions[nb.Institution].Name
+			var diffs []string
+			for _, j := range nb.Differs {
+				ind := pm.Indicators[j]
+				r, _ := c.m.Lookup(key(figures.NearestGroup, ind.Key, id, "difference"))
+				dir := "higher"
+				if r.Value < 0 {
+					dir = "lower"
+				}
+				if format.Round(r.Value, ind.Decimals) == 0 {
+					continue
+				}
+				diffs = append(diffs, fmt.Sprintf("%s %s on %s", format.Difference(ind, r.Value), dir, ind.RunningLabel()))
+				cites = append(cites, key(figures.NearestGroup, ind.Key, id, "difference"))
+			}
+			item := name
+			if len(diffs) > 0 {
+				item += " (" + strings.Join(diffs, ", ") + ")"
+			}
+			items = append(items, item)
+			cites = append(cites, key(figures.NearestGroup, "", id, "order"))
+		}
+		out = append(out, Paragraph{Sentences: []Sentence{say(fmt.Sprintf("The profiles nearest %s's, nearest first, with where each differs most: %s.", c.focus, strings.Join(items, "; ")), cites...)}})
+	}
+	out = append(out, Paragraph{Sentences: []Sentence{say("Clusters describe resemblance on the chosen indicators and weights, not quality; other indicators, weights or another number of clusters would draw other groups, and the names are generated from the figures, not given by anyone.")}})
+	return out
+}
+
+// traitSentence says on which indicators the cluster's centre stands
+// furthest above and below the population, in standard deviations.
+func (c *composer) traitSentence(pm *figures.Peers, k figures.Cluster, part string) Sentence {
+	g := figures.ClusterGroup(k.Number)
+	var cites []figures.Key
+	side := func(js []int) string {
+		var items []string
+		for _, j := range js {
+			ind := pm.Indicators[j]
+			items = append(items, fmt.Sprintf("%s (centre %s against %s overall)", ind.RunningLabel(), format.Value(ind, k.Centroid[j]), format.Value(ind, pm.Means[j])))
+			cites = append(cites, pm.Key(g, ind.Key, "", "centroid"), pm.Key("", ind.Key, "", "mean"))
+		}
+		return joinAnd(items)
+	}
+	var parts []string
+	if len(k.Above) > 0 {
+		parts = append(parts, "high on "+side(k.Above))
+	}
+	if len(k.Below) > 0 {
+		parts = append(parts, "low on "+side(k.Below))
+	}
+	if len(parts) == 0 {
+		return Sentence{Text: "Its centre lies within half a standard deviation of the population mean on every indicator.", Part: part, Cites: []figures.Key{pm.Key(g, "", "", "size")}}
+	}
+	return Sentence{Text: "What sets the cluster apart is that it is " + strings.Join(parts, ", and ") + ".", Cites: cites, Part: part}
+}
+
+// joinAnd joins items as running text: "a, b and c".
+func joinAnd(items []string) string {
+	switch len(items) {
+	case 0:
+		return ""
+	case 1:
+		return items[0]
+	}
+	return strings.Join(items[:len(items)-1], ", ") + " and " + items[len(items)-1]
+}
+
+// peersRenderings are the printed forms of a peers row Verify accepts.
+func peersRenderings(m *figures.Model, r figures.Row) []string {
+	v := r.Value
+	whole := int(math.Round(v))
+	ind, hasInd := m.Indicator(r.Indicator)
+	switch {
+	case r.Measure == "companions" || r.Measure == "recovered" || strings.HasSuffix(r.Measure, "_explained"):
+		return []string{pct(v), format.Int(int(math.Round(v * 100)))}
+	case r.Measure == "silhouette" || strings.HasPrefix(r.Measure, "jaccard") || strings.HasPrefix(r.Measure, "silhouette_k"):
+		return []string{format.Number(v, 2)}
+	case r.Measure == "difference" && hasInd:
+		return []string{format.Difference(ind, v), format.Number(math.Abs(v), ind.Decimals), format.Value(ind, math.Abs(v))}
+	case (r.Measure == "centroid" || r.Measure == "mean" || r.Measure == "value") && hasInd:
+		return []string{format.Value(ind, v), format.Number(v, ind.Decimals)}
+	case r.Measure == "weight":
+		return []string{strconv.FormatFloat(v, 'f', -1, 64)}
+	case r.Measure == "distance":
+		return []string{format.Number(v, 2)}
+	}
+	return []string{format.Int(whole)}
+}

@@ -18,6 +18,7 @@ func runBatch(ctx context.Context, e *env, args []string) int {
 	group := fs.String("group", "", "build one pack per member of this group of the brief")
 	out := fs.String("out", "", "folder to write the packs into (required)")
 	jobs := fs.Int("jobs", 0, "packs built at once (default: one per core)")
+	charts := fs.String("charts", "", "also write each pack's figures as SVG and 300-dpi PNG into a sub-folder of this folder named after the pack")
 	useDemo := fs.Bool("demo", false, "use the embedded demo brief and data")
 	root := fs.String("root", "", "folder that every input path must stay inside (default: the brief's folder)")
 	pos, code, ok := parseArgs(c, e, fs, args)
@@ -68,7 +69,7 @@ func runBatch(ctx context.Context, e *env, args []string) int {
 	if !e.quiet {
 		prog = batch.NewProgress(e.stderr)
 	}
-	outs := batch.Run(ctx, base, list, batch.Options{OutDir: *out, Workers: *jobs, Created: created, Version: version, Progress: prog})
+	outs := batch.Run(ctx, base, list, batch.Options{OutDir: *out, Workers: *jobs, Created: created, Version: version, Charts: *charts, Progress: prog})
 	if failed := batch.WriteSummary(e.stdout, outs); failed > 0 {
 		return exitInput
 	}

@@ -19,7 +19,7 @@ import (
 func init() {
 	commands = []*command{
 		{name: "build", summary: "build a pack from a brief", run: runBuild, usage: `Usage:
-  peerpack build BRIEF.md -o pack.pdf [--figures figures.csv] [--root DIR]
+  peerpack build BRIEF.md -o pack.pdf [--figures figures.csv] [--charts DIR] [--root DIR]
 
 Reads the brief and the data files it names (paths relative to the brief),
 computes the figures, writes the commentary and lays out the PDF. The PDF is
@@ -30,6 +30,7 @@ byte-identical.
 Examples:
   peerpack build briefs/board-2025.md -o board-2025.pdf
   peerpack build client/brief.md -o client.pdf --figures client-figures.csv
+  peerpack build brief.md -o pack.pdf --charts slides/charts
   peerpack build brief.md -o pack.pdf --watch
   SOURCE_DATE_EPOCH=1764547200 peerpack build brief.md -o pack.pdf`},
 		{name: "check", summary: "validate a brief and its data, and summarise coverage", run: runCheck, usage: `Usage:
@@ -48,7 +49,7 @@ Examples:
   peerpack check --json brief.md > check.json
   peerpack check --root ../shared briefs/brief.md`},
 		{name: "demo", summary: "build the demo pack from the embedded demo scenario", run: runDemo, usage: `Usage:
-  peerpack demo [-o demo.pdf] [--figures figures.csv]
+  peerpack demo [-o demo.pdf] [--figures figures.csv] [--charts DIR]
   peerpack demo --write DIR
 
 Builds the full demo pack from an invented higher-education scenario
@@ -70,8 +71,8 @@ Examples:
   peerpack new --template governing-body board
   peerpack new --template country-competition intl-office`},
 		{name: "batch", summary: "build one pack per row of a plan or per member of a group", run: runBatch, usage: `Usage:
-  peerpack batch BRIEF.md --plan plan.csv --out DIR [--jobs N]
-  peerpack batch BRIEF.md --group "Home sector" --out DIR [--jobs N]
+  peerpack batch BRIEF.md --plan plan.csv --out DIR [--jobs N] [--charts DIR]
+  peerpack batch BRIEF.md --group "Home sector" --out DIR [--jobs N] [--charts DIR]
   peerpack batch --demo --group "Home sector" --out DIR
 
 Reads the brief and its data once, then builds one pack per plan row (CSV
@@ -94,6 +95,7 @@ func runBuild(ctx context.Context, e *env, args []string) int {
 	out := fs.String("o", "", "the PDF to write (required)")
 	figs := fs.String("figures", "", "also write the figures file (CSV) here")
 	wb := fs.String("workbook", "", "also write the figures as an XLSX workbook here, one sheet per section")
+	fs.StringVar(&e.charts, "charts", "", "also write every figure into this folder as SVG and 300-dpi PNG")
 	root := fs.String("root", "", "folder that every input path must stay inside (default: the brief's folder)")
 	watchFlag := fs.Bool("watch", false, "after building, rebuild whenever the brief or its data change")
 	pos, code, ok := parseArgs(c, e, fs, args)
@@ -130,7 +132,7 @@ func buildOnce(ctx context.Context, e *env, src build.Source, out, figs, wb stri
 		return exitUsage, nil
 	}
 	e.debugf("reading %s\n", src.Display)
-	res, err := build.Build(ctx, src, build.Options{Output: out, Figures: figs, Workbook: wb, Created: created, Version: version, Limits: e.limits})
+	res, err := build.Build(ctx, src, build.Options{Output: out, Figures: figs, Workbook: wb, Charts: e.charts, Created: created, Version: version, Limits: e.limits})
 	if err != nil {
 		return reportError(e, err), nil
 	}
@@ -196,6 +198,7 @@ func runDemo(ctx context.Context, e *env, args []string) int {
 	out := fs.String("o", "demo.pdf", "the PDF to write")
 	figs := fs.String("figures", "", "also write the figures file (CSV) here")
 	wb := fs.String("workbook", "", "also write the figures as an XLSX workbook here")
+	fs.StringVar(&e.charts, "charts", "", "also write every figure into this folder as SVG and 300-dpi PNG")
 	write := fs.String("write", "", "write the demo scenario's files into this folder instead of building")
 	pos, code, ok := parseArgs(c, e, fs, args)
 	if !ok {

@@ -38,6 +38,8 @@ type env struct {
 	stdout, stderr io.Writer
 	quiet, verbose bool
 	limits         limits.Limits
+	// charts is the --charts folder of build and demo, empty for none.
+	charts string
 }
 
 // limitFlag collects repeated --limit name=value[,name=value] flags.
@@ -74,6 +76,14 @@ var commands []*command
 
 func main() {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	// The first SIGINT or SIGTERM asks the build to stop at the next
+	// stage and keep the previous pack; from then on the default action
+	// is restored, so a second one ends the process at once, whatever it
+	// is reading (common practice, no source: Ctrl-C twice).
+	go func() {
+		<-ctx.Done()
+		stop()
+	}()
 	code := run(ctx, &env{stdout: os.Stdout, stderr: os.Stderr}, os.Args[1:])
 	stop()
 	os.Exit(code)

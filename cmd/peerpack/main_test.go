@@ -7,6 +7,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"peerpack/internal/pdfcheck"
 )
 
 func runArgs(args ...string) (code int, stdout, stderr string) {
@@ -96,6 +98,18 @@ func TestDemoAndTemplatesFromTheCommandLine(t *testing.T) {
 		}
 		if code, _, errs := runArgs("build", filepath.Join(d, "brief.md"), "-o", filepath.Join(d, "pack.pdf"), "--quiet"); code != 0 {
 			t.Errorf("build %s: exit %d\n%s", name, code, errs)
+			continue
 		}
+		// Every template's pack passes pdfcpu's strict ISO 32000-1 checks.
+		if raw, err := os.ReadFile(filepath.Join(d, "pack.pdf")); err != nil {
+			t.Error(err)
+		} else if err := pdfcheck.Strict(raw); err != nil {
+			t.Errorf("%s: %v", name, err)
+		}
+	}
+	if raw, err := os.ReadFile(pdf); err != nil {
+		t.Error(err)
+	} else if err := pdfcheck.Strict(raw); err != nil {
+		t.Errorf("demo: %v", err)
 	}
 }

@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io/fs"
 	"strings"
@@ -39,6 +40,17 @@ func fingerprint(fsys fs.FS, files []string) string {
 	return b.String()
 }
 
+// missing lists the watched files that are not there.
+func missing(fsys fs.FS, files []string) []string {
+	var gone []string
+	for _, f := range files {
+		if _, err := fs.Stat(fsys, f); errors.Is(err, fs.ErrNotExist) {
+			gone = append(gone, f)
+		}
+	}
+	return gone
+}
+
 // watch rebuilds whenever the brief or one of its data files changes,
 // until interrupted. A failed rebuild prints why and keeps the last good
 // pack, then waits for the next change. The files watched are those the
@@ -58,6 +70,13 @@ func watch(ctx context.Context, e *env, src build.Source, res *build.Result, out
 		}
 		now := fingerprint(src.FS, files)
 		if now == last {
+			continue
+		}
+		if gone := missing(src.FS, files); len(gone) > 0 {
+			// Saved by an editor that writes a new file and renames it, or
+			// deleted: either way a rebuild now can only fail.
+			e.infof("%s changed: %s is gone (deleted or renamed); keeping the last pack and waiting for it to come back\n", time.Now().Format("15:04:05"), strings.Join(gone, ", "))
+			last = now
 			continue
 		}
 		e.infof("%s changed; rebuilding\n", time.Now().Format("15:04:05"))

@@ -21,6 +21,7 @@ import (
 	"peerpack/internal/atomicfile"
 	"peerpack/internal/brief"
 	"peerpack/internal/build"
+	"peerpack/internal/chartfiles"
 	"peerpack/internal/diag"
 	"peerpack/internal/format"
 	"peerpack/internal/tabular"
@@ -184,6 +185,9 @@ type Options struct {
 	Workers int // 0: one per core
 	Created time.Time
 	Version string
+	// Charts, when set, is a folder that receives each pack's figures as
+	// SVG and PNG in a sub-folder named after the pack's file.
+	Charts string
 	// Progress receives a line or a bar as packs finish; nil for none.
 	Progress Progress
 }
@@ -290,6 +294,13 @@ func runOne(ctx context.Context, base *build.Inputs, j Job, opt Options) (o Outc
 		return o
 	}
 	o.Bytes = len(pdf)
+	if opt.Charts != "" {
+		sub := strings.TrimSuffix(j.Output, filepath.Ext(j.Output))
+		if _, err := chartfiles.Write(ctx, filepath.Join(opt.Charts, sub), packed.Figures); err != nil {
+			o.Err = err
+			return o
+		}
+	}
 	return o
 }
 

@@ -242,6 +242,28 @@ func TestBarRedrawsInPlace(t *testing.T) {
 	b.Finish()
 }
 
+// --charts in a batch: each pack's figures go to a sub-folder named after
+// the pack's file, so two packs never overwrite each other's charts.
+func TestBatchChartsPerPack(t *testing.T) {
+	in := loadDemo(t)
+	g := in.Figures.Groups[0]
+	jobs := []Job{{Focus: in.Figures.InstitutionID(g.Members[0]), Output: "first.pdf"}, {Focus: in.Figures.InstitutionID(g.Members[1]), Output: "second.pdf"}}
+	dir, charts := t.TempDir(), t.TempDir()
+	outs := Run(context.Background(), in, jobs, Options{OutDir: dir, Workers: 1, Created: created, Version: "test", Charts: charts})
+	for _, o := range outs {
+		if o.Err != nil {
+			t.Fatalf("%s: %v", o.Job.Output, o.Err)
+		}
+	}
+	for _, sub := range []string{"first", "second"} {
+		svg, _ := filepath.Glob(filepath.Join(charts, sub, "figure-01-*.svg"))
+		pngs, _ := filepath.Glob(filepath.Join(charts, sub, "figure-*.png"))
+		if len(svg) != 1 || len(pngs) < 3 {
+			t.Errorf("%s: %d first-figure SVG, %d PNG files", sub, len(svg), len(pngs))
+		}
+	}
+}
+
 // Ids that make the same file name each get their own file (common
 // practice, no source: a batch must never report a pack built that a
 // later pack overwrote), in a way that does not depend on their order.

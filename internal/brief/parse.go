@@ -73,7 +73,10 @@ func ParseWith(file string, src []byte, lim yamlx.Limits) (*Brief, error) {
 		return nil, diag.At(file, line, 0, "the brief is not valid UTF-8 (first bad byte on this line); save it as UTF-8")
 	}
 	src = bytes.TrimPrefix(src, []byte("\xef\xbb\xbf"))
+	// Line endings as CommonMark 0.31 section 2.1 defines them: LF, CRLF,
+	// or a CR alone (as classic Mac OS saved text).
 	src = bytes.ReplaceAll(src, []byte("\r\n"), []byte("\n"))
+	src = bytes.ReplaceAll(src, []byte("\r"), []byte("\n"))
 	fm, body, bodyLine, err := splitFrontMatter(file, src)
 	if err != nil {
 		return nil, err

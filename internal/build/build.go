@@ -9,6 +9,7 @@ package build
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
 	"io/fs"
@@ -23,9 +24,11 @@ import (
 
 	"peerpack/internal/atomicfile"
 	"peerpack/internal/brief"
+	"peerpack/internal/chartfiles"
 	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
 	"peerpack/internal/layout"
 	"peerpack/internal/limits"
 	"peerpack/internal/narrative"
@@ -104,12 +107,9 @@ func Load(src Source, override func(*brief.Brief)) (*Inputs, error) {
 // LoadWith is Load with the given limits on every input.
 func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inputs, error) {
 	lim = lim.Or()
-	raw, err := fs.ReadFile(src.FS, src.Brief)
+	raw, err := readBrief(src)
 	if err != nil {
-		return nil, diag.At(src.Display, 0, 0, "cannot read the brief: %v", unwrap(err))
-	}
-	if len(raw) > brief.MaxBriefBytes {
-		return nil, diag.At(src.Display, 0, 0, "brief is %d bytes, over the limit of %d bytes", len(raw), brief.MaxBriefBytes)
+		return nil, err
 	}
 	var probs diag.List
 	b, err := brief.ParseWith(src.Display, raw, lim.YAML())
@@ -144,11 +144,51 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		probs.Add(err)
 		return nil, probs.Err()
 	}
+	if err := checkNames(m); err != nil {
+		probs.Add(err)
+		return nil, probs.Err()
+	}
 	if err := layout.CheckPlaceholders(b, m); err != nil {
 		probs.Add(err)
 		return nil, probs.Err()
 	}
 	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS, Sources: rec.Files(), Rebuild: src.Rebuild}, nil
+}
+
+// readBrief checks the brief's kind and size before reading it (a named
+// pipe would block the open, /dev/zero would never end, a 2 GB file would
+// be read whole before its size was seen), then reads it through a limit
+// in case it grows meanwhile.
+func readBrief(src Source) ([]byte, error) {
+	fi, err := fs.Stat(src.FS, src.Brief)
+	if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
+			return nil, diag.At(src.Display, 0, 0, "cannot read the brief: there is no such file; check the path")
+		}
+		return nil, diag.At(src.Display, 0, 0, "the brief %s", dataset.OpenProblem(err))
+	}
+	if kind := dataset.NotAFile(fi.Mode()); kind != "" {
+		return nil, diag.At(src.Display, 0, 0, "the brief is %s, not a file; name a Markdown file, e.g. brief.md", kind)
+	}
+	tooBig := func(n int64) error {
+		return diag.At(src.Display, 0, 0, "the brief is %s, over the limit of %s for a brief; keep data in the data files it names", format.Bytes(int(n)), format.Bytes(brief.MaxBriefBytes))
+	}
+	if fi.Size() > brief.MaxBriefBytes {
+		return nil, tooBig(fi.Size())
+	}
+	f, err := src.FS.Open(src.Brief)
+	if err != nil {
+		return nil, diag.At(src.Display, 0, 0, "the brief %s", dataset.OpenProblem(err))
+	}
+	defer f.Close()
+	raw, err := io.ReadAll(io.LimitReader(f, brief.MaxBriefBytes+1))
+	if err != nil {
+		return nil, diag.At(src.Display, 0, 0, "the brief %s", dataset.OpenProblem(err))
+	}
+	if len(raw) > brief.MaxBriefBytes {
+		return nil, tooBig(int64(len(raw)))
+	}
+	return raw, nil
 }
 
 // checkBlockCounts refuses a brief with more charts or blocks than the
@@ -223,6 +263,9 @@ type Options struct {
 	Output   string // PDF path
 	Figures  string // figures CSV path, optional
 	Workbook string // figures XLSX path, optional
+	// Charts, when set, is a folder that receives every figure of the
+	// pack as SVG and 300-dpi PNG (internal/chartfiles).
+	Charts   string
 	Created  time.Time
 	Version  string
 	Override func(*brief.Brief)
@@ -248,6 +291,8 @@ type Result struct {
 type Packed struct {
 	PDF        []byte
 	Commentary *narrative.Commentary
+	// Figures are the charts as set in the pack, in figure order.
+	Figures []layout.Figure
 }
 
 // Pack writes the commentary and lays out the PDF of loaded inputs. It
@@ -263,14 +308,14 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 	if err != nil {
 		return nil, err
 	}
-	pdf, err := layout.Render(layout.Input{
+	pdf, figs, err := layout.RenderFigures(layout.Input{
 		Brief: in.Brief, Model: in.Figures, Commentary: com, FS: in.FS,
 		Created: created, Version: version, Sources: in.Sources, Rebuild: in.Rebuild,
 	})
 	if err != nil {
 		return nil, err
 	}
-	return &Packed{PDF: pdf, Commentary: com}, nil
+	return &Packed{PDF: pdf, Commentary: com, Figures: figs}, nil
 }
 
 // Build runs the whole pipeline for one brief and writes the outputs.
@@ -329,6 +374,13 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	after("written")
 	if err := set.Commit(ctx); err != nil {
 		return nil, err
+	}
+	// The charts are a folder of many files, each written atomically,
+	// after the pack itself is in place.
+	if opt.Charts != "" {
+		if _, err := chartfiles.Write(ctx, opt.Charts, packed.Figures); err != nil {
+			return nil, err
+		}
 	}
 	return &Result{Output: opt.Output, Bytes: len(pdf), Inputs: in}, nil
 }

@@ -14,6 +14,7 @@ import (
 	"peerpack/internal/demo"
 	"peerpack/internal/figures"
 	"peerpack/internal/narrative"
+	"peerpack/internal/pdfcheck"
 )
 
 // demoCreated is a fixed creation time, as SOURCE_DATE_EPOCH would give.
@@ -121,6 +122,11 @@ func TestDemoPDFChecks(t *testing.T) {
 	path := filepath.Join(t.TempDir(), "demo.pdf")
 	if err := os.WriteFile(path, pdf, 0o644); err != nil {
 		t.Fatal(err)
+	}
+	// pdfcpu's strict mode checks ISO 32000-1 rules that qpdf does not
+	// (outline counts, the document language, dictionary value types).
+	if err := pdfcheck.Strict(pdf); err != nil {
+		t.Errorf("%v", err)
 	}
 	if out, err := exec.Command(tool(t, "qpdf"), "--check", path).CombinedOutput(); err != nil {
 		t.Errorf("qpdf --check: %v\n%s", err, out)

@@ -7,6 +7,16 @@ import (
 	"peerpack/internal/workbook"
 )
 
+// inIndicatorUnits are the measures stated in their indicator's unit,
+// which the workbook shows with the indicator's decimals; ranks, counts,
+// percentiles, z-scores and shares of change keep the general format.
+var inIndicatorUnits = map[string]bool{
+	"value": true, "min": true, "max": true, "mean": true, "median": true, "q1": true, "q3": true,
+	"iqr": true, "sd": true, "whisker_low": true, "whisker_high": true, "outlier": true,
+	"gap_median": true, "gap_better_quartile": true,
+	"start_value": true, "end_value": true, "change": true, "median_start": true, "median_end": true,
+}
+
 // WriteWorkbook writes the figures model as an XLSX workbook with one
 // sheet per section of the figures file and the same rows, so the
 // workbook and the CSV never disagree.
@@ -27,6 +37,10 @@ func WriteWorkbook(w io.Writer, m *figures.Model) error {
 		var value any = r.Value
 		if r.IsText {
 			value = r.Text
+		} else if ind, ok := m.Indicator(r.Indicator); ok && inIndicatorUnits[r.Measure] {
+			// Shown with the indicator's decimals, as in the pack; the
+			// cell keeps the unrounded value.
+			value = workbook.Number{Value: r.Value, Decimals: ind.Decimals}
 		}
 		sheets[i].Rows = append(sheets[i].Rows, []any{r.Group, r.Indicator, r.Institution, year, r.Measure, value})
 	}

@@ -2,6 +2,7 @@ package dataset
 
 import (
 	"errors"
+	"fmt"
 	"io/fs"
 	"path"
 	"strings"
@@ -45,13 +46,18 @@ func checkPath(b *brief.Brief, key, p string) error {
 // names it, suggesting the nearest file name in the same folder.
 func checkExists(fsys fs.FS, b *brief.Brief, key, p string) error {
 	file, _, _ := strings.Cut(p, "#")
-	_, err := fs.Stat(fsys, file)
+	fi, err := fs.Stat(fsys, file)
+	pos := b.PosOf(key)
 	if err == nil {
+		// Checked before anything opens the file: opening a pipe blocks
+		// until a writer comes, and a device such as /dev/zero never ends.
+		if kind := NotAFile(fi.Mode()); kind != "" {
+			return diag.At(b.File, pos.Line, pos.Column, "%s %q is %s, not a file; name a data file (CSV, XLSX or YAML) in the brief's folder", key, p, kind)
+		}
 		return nil
 	}
-	pos := b.PosOf(key)
 	if !errors.Is(err, fs.ErrNotExist) {
-		return diag.At(b.File, pos.Line, pos.Column, "%s %q cannot be read: %v", key, p, err)
+		return diag.At(b.File, pos.Line, pos.Column, "%s %q %s", key, p, OpenProblem(err))
 	}
 	dir := path.Dir(file)
 	var names []string
@@ -62,7 +68,9 @@ func checkExists(fsys fs.FS, b *brief.Brief, key, p string) error {
 			}
 		}
 	}
-	msg := "is not in the brief's folder"
+	// "does not exist" rather than "is not in the folder": a file deleted
+	// or renamed since the last build (under --watch) is not elsewhere.
+	msg := "does not exist in the brief's folder"
 	if dir != "." {
 		msg = "does not exist below the brief's folder"
 	}
@@ -91,4 +99,42 @@ func tidyPath(p string) string {
 		clean += "#" + sheet
 	}
 	return clean
+}
+
+// NotAFile names what a file mode is when it is not a regular file ("a
+// folder", "a device", "a named pipe", "a socket"), or "" for a regular
+// file.
+func NotAFile(m fs.FileMode) string {
+	switch {
+	case m.IsRegular():
+		return ""
+	case m.IsDir():
+		return "a folder"
+	case m&fs.ModeDevice != 0 || m&fs.ModeCharDevice != 0:
+		return "a device"
+	case m&fs.ModeNamedPipe != 0:
+		return "a named pipe"
+	case m&fs.ModeSocket != 0:
+		return "a socket"
+	}
+	return "not a regular file"
+}
+
+// OpenProblem words why an input that exists cannot be opened, for the
+// messages of every input (brief, data files, images): os.Root's refusal
+// of a symbolic link that leads out of the folder ("path escapes from
+// parent", which os does not export as a value) and permission problems
+// get their cause and remedy instead of the raw system text.
+func OpenProblem(err error) string {
+	switch {
+	case strings.Contains(err.Error(), "path escapes from parent"):
+		return "is a symbolic link (or lies behind one) that leads out of the brief's folder, and peerpack reads only files inside it; copy the file into the folder, or pass --root with a folder that holds both"
+	case errors.Is(err, fs.ErrPermission):
+		return "cannot be read: permission denied; check the file's permissions"
+	}
+	var pe *fs.PathError
+	if errors.As(err, &pe) {
+		err = pe.Err
+	}
+	return fmt.Sprintf("cannot be read: %v", err)
 }

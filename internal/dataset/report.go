@@ -67,6 +67,7 @@ const (
 	SuspectLowCoverage = "low coverage year"
 	SuspectOutOfRange  = "derived value out of range"
 	SuspectJump        = "jump from the institution's other years"
+	SuspectMagnitude   = "implausible magnitude"
 	JumpFactor         = 10.0 // a value this many times its own other years' median (or a tenth of it)
 	FarOutIQRs         = 10.0 // how many interquartile ranges from the median is "far"
 	// FarOutLogIQRs is the same distance on a log scale, for counts and
@@ -263,7 +264,7 @@ func (r *Report) Write(w io.Writer) {
 		for _, s := range r.Suspicious {
 			listed[s.Kind]++
 		}
-		for _, k := range []string{SuspectFarOut, SuspectJump, SuspectOutOfRange, SuspectLowCoverage} {
+		for _, k := range []string{SuspectMagnitude, SuspectFarOut, SuspectJump, SuspectOutOfRange, SuspectLowCoverage} {
 			if n := r.SuspiciousCount[k] - listed[k]; n > 0 {
 				p("  ... and %s more %s\n", thousands(n), k)
 			}

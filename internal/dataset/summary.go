@@ -137,6 +137,10 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 					a.score, a.worstYear, a.worstValue, a.worstMedian = iqrs, year, v, farOutUnscale(med, logScale)
 				}
 			}
+			if a := math.Abs(v); a >= ImplausibleMagnitude {
+				note(Suspicion{Kind: SuspectMagnitude, Indicator: in.Key, Institution: id, Year: year, Value: v,
+					Msg: magnitudeText(in.Key, year, id, v, in.Decimals), Where: l.placeText(year, ind, inst)}, a)
+			}
 			if in.Derive != "" {
 				if msg := unitViolation(&d.Dictionary.Indicators[ind], v); msg != "" {
 					note(Suspicion{Kind: SuspectOutOfRange, Indicator: in.Key, Institution: id, Year: year, Value: v,
@@ -169,7 +173,7 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 	for _, inst := range farOrder {
 		a := far[inst]
 		id := d.Register.Institutions[inst].ID
-		worst := fmt.Sprintf("at most %.0f: %s in %d against %s", a.score, fmtVal(a.worstValue, in.Decimals), a.worstYear, fmtVal(a.worstMedian, in.Decimals))
+		worst := fmt.Sprintf("at most %s: %s in %d against %s", wholeText(a.score), fmtVal(a.worstValue, in.Decimals), a.worstYear, fmtVal(a.worstMedian, in.Decimals))
 		if logScale {
 			worst = fmt.Sprintf("%s in %d, %s", fmtVal(a.worstValue, in.Decimals), a.worstYear, timesMedian(a.worstValue, a.worstMedian, in.Decimals))
 		}
@@ -337,7 +341,7 @@ func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Su
 				dir = "above"
 			}
 			s := Suspicion{Kind: SuspectJump, Indicator: in.Key, Institution: id, Year: j.year, Value: j.v,
-				Msg: fmt.Sprintf("%s %d of %s is %s, %.0f times %s its median %s in the other years; check the unit and the digits", in.Key, j.year, id, fmtVal(j.v, in.Decimals), j.ratio, dir, fmtVal(j.med, in.Decimals))}
+				Msg: fmt.Sprintf("%s %d of %s is %s, %s %s its median %s in the other years; check the unit and the digits", in.Key, j.year, id, fmtVal(j.v, in.Decimals), timesText(j.ratio), dir, fmtVal(j.med, in.Decimals))}
 			if f, line, col := l.st.placeOf(j.year, ind, j.inst); f != "" {
 				s.Where = fmt.Sprintf("%s:%d:%d", f, line, col)
 			}
@@ -347,8 +351,66 @@ func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Su
 	return found - len(top)
 }
 
+// fmtVal prints a value for the check report: with its decimals up to
+// ImplausibleMagnitude, beyond it in scientific form with four significant
+// digits, so a slip of 1e308 reads as 1.000e+308, not as 309 digits.
 func fmtVal(v float64, decimals int) string {
+	switch {
+	case math.IsNaN(v):
+		return "missing"
+	case math.IsInf(v, 0):
+		return "infinite"
+	case math.Abs(v) >= ImplausibleMagnitude:
+		return strconv.FormatFloat(v, 'e', 3, 64)
+	}
 	return strconv.FormatFloat(v, 'f', decimals, 64)
+}
+
+// ImplausibleMagnitude is a size no institution's indicator reaches: a
+// thousand million million (10^15) of anything, beyond the budget of any
+// country in its own currency units (common practice, no source).
+const ImplausibleMagnitude = 1e15
+
+// MaxExactInteger is 2^53, beyond which an IEEE 754 double (the values'
+// type) no longer holds every whole number: 2^53 + 1 reads as 2^53
+// (IEEE 754-2008, binary64's 53-bit significand).
+const MaxExactInteger = 1 << 53
+
+// magnitudeText words an implausibly large value.
+func magnitudeText(key string, year int, id string, v float64, decimals int) string {
+	msg := fmt.Sprintf("%s %d of %s is %s, over a thousand million million (10^15), more than any institution's figure; check the unit and the digits", key, year, id, fmtVal(v, decimals))
+	if math.Abs(v) >= MaxExactInteger {
+		msg += " (whole numbers beyond 2^53, about 9.007e+15, are not even held exactly)"
+	}
+	return msg
+}
+
+// timesText says how many times larger one value is than another, in
+// words once the ratio stops being a readable count.
+func timesText(r float64) string {
+	if math.IsInf(r, 0) || math.IsNaN(r) || r >= 1e6 {
+		return "over a million times"
+	}
+	return wholeText(r) + " times"
+}
+
+// wholeText rounds to a whole number with thousands separators, or says
+// "over a million" when larger.
+func wholeText(v float64) string {
+	if math.IsInf(v, 0) || math.IsNaN(v) || v >= 1e6 {
+		return "over a million"
+	}
+	return thousands(int(math.Round(v)))
+}
+
+func (l *loader) placeText(year, ind, inst int) string {
+	if l.st == nil {
+		return ""
+	}
+	if f, line, col := l.st.placeOf(year, ind, inst); f != "" {
+		return fmt.Sprintf("%s:%d:%d", f, line, col)
+	}
+	return ""
 }
 
 // medianWithout is the median of sorted (ascending, at least two values)
@@ -400,7 +462,10 @@ func farOutUnscale(t float64, logScale bool) float64 {
 // median 450", "a 1000th of the median 450").
 func timesMedian(v, med float64, decimals int) string {
 	if v >= med {
-		return fmt.Sprintf("%.0f times the median %s", v/med, fmtVal(med, decimals))
+		return fmt.Sprintf("%s the median %s", timesText(v/med), fmtVal(med, decimals))
 	}
-	return fmt.Sprintf("1/%.0f of the median %s", med/v, fmtVal(med, decimals))
+	if r := med / v; math.IsInf(r, 0) || r >= 1e6 {
+		return fmt.Sprintf("under a millionth of the median %s", fmtVal(med, decimals))
+	}
+	return fmt.Sprintf("1/%s of the median %s", wholeText(med/v), fmtVal(med, decimals))
 }

@@ -8,6 +8,7 @@ import (
 	"errors"
 	"fmt"
 	"strings"
+	"unicode/utf8"
 )
 
 // Problem is one thing wrong with an input.
@@ -34,9 +35,88 @@ func (p *Problem) Error() string {
 	return b.String()
 }
 
-// At makes a Problem.
+// At makes a Problem. Text echoed from an input (a 50 MB cell, a runaway
+// id) is never repeated whole: see Tidy.
 func At(file string, line, col int, format string, args ...any) *Problem {
-	return &Problem{File: file, Line: line, Column: col, Msg: fmt.Sprintf(format, args...)}
+	return &Problem{File: file, Line: line, Column: col, Msg: Tidy(fmt.Sprintf(format, args...))}
+}
+
+// MaxWord is the longest run without spaces a message repeats whole, and
+// MaxMsg the longest message.
+const (
+	MaxWord = 200
+	MaxMsg  = 2000
+)
+
+// Tidy shortens what no reader can take in: a run of more than MaxWord
+// bytes without a space becomes its first 60 characters, an ellipsis and
+// its size; a message still over MaxMsg bytes keeps its start and its end
+// (where the advice is) around a note of what was left out.
+func Tidy(msg string) string {
+	if len(msg) <= MaxWord {
+		return msg
+	}
+	var b strings.Builder
+	start := 0
+	flush := func(end int) {
+		if w := msg[start:end]; len(w) > MaxWord {
+			b.WriteString(clip(w))
+		} else {
+			b.WriteString(w)
+		}
+	}
+	for i, r := range msg {
+		if r == ' ' || r == '\n' {
+			flush(i)
+			b.WriteRune(r)
+			start = i + 1
+		}
+	}
+	flush(len(msg))
+	out := b.String()
+	if len(out) > MaxMsg {
+		head, tail := validCut(out, 1200), validCutFromEnd(out, 600)
+		out = fmt.Sprintf("%s … [%s bytes left out] … %s", head, group(len(out)-len(head)-len(tail)), tail)
+	}
+	return out
+}
+
+func clip(s string) string {
+	head := validCut(s, 60)
+	if len(head) == len(s) {
+		return s
+	}
+	return fmt.Sprintf("%s… (%s bytes)", head, group(len(s)))
+}
+
+// validCut is s cut to at most n bytes at a character boundary.
+func validCut(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	for n > 0 && !utf8.RuneStart(s[n]) {
+		n--
+	}
+	return s[:n]
+}
+
+func validCutFromEnd(s string, n int) string {
+	if len(s) <= n {
+		return s
+	}
+	i := len(s) - n
+	for i < len(s) && !utf8.RuneStart(s[i]) {
+		i++
+	}
+	return s[i:]
+}
+
+func group(n int) string {
+	s := fmt.Sprint(n)
+	for i := len(s) - 3; i > 0; i -= 3 {
+		s = s[:i] + "," + s[i:]
+	}
+	return s
 }
 
 // List gathers problems; its zero value is ready to use.

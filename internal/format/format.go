@@ -93,6 +93,9 @@ func Number(v float64, decimals int) string {
 	if math.IsInf(v, 0) {
 		return "–"
 	}
+	if math.Abs(v) >= MaxExact {
+		return scientific(v)
+	}
 	r := Round(v, decimals)
 	s := roundString(math.Abs(r), clampDecimals(decimals))
 	intPart, frac := s, ""
@@ -111,6 +114,27 @@ func Number(v float64, decimals int) string {
 	}
 	b.WriteString(frac)
 	return b.String()
+}
+
+// MaxExact is 2^53: up to it every whole number is held exactly by a
+// float64 (IEEE 754-2008 binary64, 53-bit significand) and printed digit
+// for digit; from it on Number prints four significant digits in
+// scientific form, since the further digits are not in the data
+// (123456789012345678 is stored as 123456789012345680).
+const MaxExact = 1 << 53
+
+// scientific prints v as "1.235 × 10^17" (four significant digits, no-break
+// spaces around the sign so it never breaks across lines; the
+// exponent after a caret: the embedded fonts lack superscript 0 and 9).
+func scientific(v float64) string {
+	s := strconv.FormatFloat(math.Abs(v), 'e', 3, 64) // "1.235e+17"
+	mant, exp, _ := strings.Cut(s, "e")
+	e, _ := strconv.Atoi(exp)
+	sign := ""
+	if v < 0 {
+		sign = "−"
+	}
+	return sign + mant + "\u00a0×\u00a010^" + strconv.Itoa(e)
 }
 
 // Int prints a whole number with thousands separators.

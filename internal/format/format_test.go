@@ -98,3 +98,32 @@ func TestPercentileRankNeverZeroOrHundred(t *testing.T) {
 		}
 	}
 }
+
+// Large magnitudes: whole numbers print exactly up to 2^53 =
+// 9,007,199,254,740,992 (IEEE 754-2008 binary64, 53-bit significand; the
+// value from memory, and 1<<53 in Go), beyond it in scientific form with
+// four significant digits, the digits Python's format(v, ".3e") gives
+// (Python 3.11: format(123456789012345678, ".3e") == "1.235e+17").
+func TestNumberLargeMagnitudes(t *testing.T) {
+	cases := []struct {
+		v    float64
+		d    int
+		want string
+	}{
+		{9007199254740991, 0, "9,007,199,254,740,991"},
+		{9007199254740992, 0, "9.007\u00a0×\u00a010^15"},
+		{123456789012345678, 2, "1.235\u00a0×\u00a010^17"},
+		{-123456789012345678, 0, "−1.235\u00a0×\u00a010^17"},
+		{1e308, 2, "1.000\u00a0×\u00a010^308"},
+		{math.MaxFloat64, 0, "1.798\u00a0×\u00a010^308"},
+		{math.Inf(1), 0, "–"},
+	}
+	for _, c := range cases {
+		if got := Number(c.v, c.d); got != c.want {
+			t.Errorf("Number(%v, %d) = %q, want %q", c.v, c.d, got, c.want)
+		}
+	}
+	if got := Percentile(math.Inf(-1)); got != "–" {
+		t.Errorf("Percentile(-Inf) = %q, want an en dash", got)
+	}
+}

@@ -115,8 +115,10 @@ func (w *writer) setCharts(row []placed, half bool) {
 	heights := make([]float64, len(row))
 	texts := make([]chartText, len(row))
 	titleH := 0.0
+	numbers := make([]int, len(row))
 	for i, p := range row {
 		w.figureNo++
+		numbers[i] = w.figureNo
 		texts[i] = w.chartTexts(p.spec, w.figureNo, width)
 		titleH = math.Max(titleH, texts[i].titleH)
 	}
@@ -177,6 +179,7 @@ func (w *writer) setCharts(row []placed, half bool) {
 			if err := w.drawChart(p, x, y, width, heights[i]); err != nil {
 				w.chartProblem(p.spec, err)
 			}
+			w.figures = append(w.figures, Figure{Number: numbers[i], Title: figureTitle(p.spec), Chart: p.ch, Width: width, Height: heights[i]})
 		}
 		y += heights[i] + captionGap
 		for _, ln := range texts[i].caption {
@@ -269,4 +272,25 @@ func squeezeToFit(room float64, row []placed, heights []float64, texts []chartTe
 		return 0
 	}
 	return s
+}
+
+// Figure is a chart as set in the pack: its figure number, a title (the
+// block's title, else its caption, else its kind), the chart and the
+// size it was drawn at in millimetres. Render's callers draw it again on
+// other canvases (SVG, PNG) with the same code.
+type Figure struct {
+	Number        int
+	Title         string
+	Chart         charts.Chart
+	Width, Height float64
+}
+
+func figureTitle(spec *brief.ChartBlock) string {
+	switch {
+	case spec.Title != "":
+		return spec.Title
+	case spec.Caption != "":
+		return spec.Caption
+	}
+	return spec.Type
 }

@@ -13,6 +13,7 @@ import (
 
 	"peerpack/internal/diag"
 	"peerpack/internal/narrative"
+	"peerpack/internal/pdfcheck"
 )
 
 func renderFixture(t testing.TB) []byte {
@@ -30,6 +31,10 @@ func renderFixture(t testing.TB) []byte {
 // with its diacritics, and table values equal to R's quartiles).
 func TestPackPassesPDFTools(t *testing.T) {
 	out := renderFixture(t)
+	// pdfcpu's strict mode (ISO 32000-1) beside qpdf's structural check.
+	if err := pdfcheck.Strict(out); err != nil {
+		t.Errorf("%v", err)
+	}
 	runTool(t, out, "qpdf", "--check")
 
 	fonts := runTool(t, out, "pdffonts")
@@ -213,5 +218,26 @@ func TestCheckPlaceholders(t *testing.T) {
 	in := fixtureInput(t, 60)
 	if err := CheckPlaceholders(in.Brief, in.Model); err != nil {
 		t.Fatalf("fixture placeholders: %v", err)
+	}
+}
+
+// An undefined group in a placeholder is reported once, at its position
+// (the brief's check), not a second time by the model's.
+func TestPlaceholderUnknownGroupOnce(t *testing.T) {
+	base := fixtureInput(t, 60)
+	key := base.Model.Data.Dictionary.Indicators[0].Key
+	src, err := os.ReadFile(filepath.Join(fixtureDir, "brief.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	src = append(src, []byte("\n\nIt reads {=median "+key+" in Nowhere}.\n")...)
+	in := fixtureInputFrom(t, 60, src)
+	err = CheckPlaceholders(in.Brief, in.Model)
+	var l *diag.List
+	if !errors.As(err, &l) || len(l.Items) != 1 {
+		t.Fatalf("want exactly one problem, got %v", err)
+	}
+	if !strings.Contains(err.Error(), `names group "Nowhere", which the front matter does not define`) {
+		t.Errorf("message: %v", err)
 	}
 }

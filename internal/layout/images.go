@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"io/fs"
@@ -11,6 +12,7 @@ import (
 	"github.com/yuin/goldmark/ast"
 
 	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
 	"peerpack/internal/pdf"
 )
 
@@ -105,6 +107,14 @@ func (w *writer) loadImage(p string) (*pdf.ImageInfo, error) {
 	clean := path.Clean(strings.TrimPrefix(p, "./"))
 	if !fs.ValidPath(clean) {
 		return nil, fmt.Errorf("image path %q must be relative to the brief and stay inside its folder", p)
+	}
+	// Kind first: opening a named pipe would block, a device never end.
+	if fi, err := fs.Stat(w.in.FS, clean); err == nil {
+		if kind := dataset.NotAFile(fi.Mode()); kind != "" {
+			return nil, fmt.Errorf("image %q is %s, not a file; name a PNG or JPEG file", p, kind)
+		}
+	} else if !errors.Is(err, fs.ErrNotExist) {
+		return nil, fmt.Errorf("image %q %s", p, dataset.OpenProblem(err))
 	}
 	f, err := w.in.FS.Open(clean)
 	if err != nil {

@@ -50,17 +50,24 @@ type Input struct {
 // found while laying out (an unknown placeholder figure, nesting too deep,
 // a chart that cannot be drawn) are returned together as a *diag.List.
 func Render(in Input) (out []byte, err error) {
+	out, _, err = RenderFigures(in)
+	return out, err
+}
+
+// RenderFigures is Render that also returns the charts as set in the
+// pack, in figure order, for writing them as separate files.
+func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	defer func() {
 		if r := recover(); r != nil {
-			out, err = nil, fmt.Errorf("internal error while laying out the pack (please report it with the brief): %v", r)
+			out, figs, err = nil, nil, fmt.Errorf("internal error while laying out the pack (please report it with the brief): %v", r)
 		}
 	}()
 	if in.Brief == nil || in.Model == nil {
-		return nil, fmt.Errorf("internal error: layout needs a brief and a figures model")
+		return nil, nil, fmt.Errorf("internal error: layout needs a brief and a figures model")
 	}
 	first, err := pass(in, nil, nil)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	// A section ending on a runt page is set again a little tighter; the
 	// tighter plan is kept only when it saves the page.
@@ -98,12 +105,16 @@ func Render(in Input) (out []byte, err error) {
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
 	second, err := pass(in, rec, plan)
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	if want := rec.pages + rec.contentsPages - 1; second.doc.PageNo() != want {
-		return nil, fmt.Errorf("internal error: the two layout passes disagree on the page count (%d, then %d)", want, second.doc.PageNo())
+		return nil, nil, fmt.Errorf("internal error: the two layout passes disagree on the page count (%d, then %d)", want, second.doc.PageNo())
 	}
-	return second.doc.Bytes()
+	out, err = second.doc.Bytes()
+	if err != nil {
+		return nil, nil, err
+	}
+	return out, second.figures, nil
 }
 
 // pass runs one layout pass; known is nil in the first. plan, which may

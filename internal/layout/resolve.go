@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"errors"
 	"fmt"
 	"strings"
 
@@ -19,7 +20,19 @@ func CheckPlaceholders(b *brief.Brief, m *figures.Model) error {
 	ps, err := brief.Placeholders(b)
 	var l diag.List
 	l.Add(err)
+	// A placeholder the brief already refused (an undefined group) is
+	// reported once, by the brief, not again by the model.
+	reported := map[brief.Pos]bool{}
+	for _, e := range l.Items {
+		var pr *diag.Problem
+		if errors.As(e, &pr) {
+			reported[brief.Pos{Line: pr.Line, Column: pr.Column}] = true
+		}
+	}
 	for _, p := range ps {
+		if reported[p.Pos] {
+			continue
+		}
 		if _, e := resolvePlaceholder(b, m, p); e != nil {
 			l.Addf(b.File, p.Pos.Line, p.Pos.Column, "%v", e)
 		}

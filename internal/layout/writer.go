@@ -67,13 +67,15 @@ type writer struct {
 
 	// Numbering and records.
 	figureNo, tableNo int
-	headings          []headingRec
-	known             *passRecord // from the first pass; nil in it
-	pendingHalf       *halfChart
-	problems          diag.List
-	funcs             map[ast.NodeKind]nodeFunc
-	blockAt           map[int]brief.Block
-	imageCache        map[string]*pdf.ImageInfo
+	// figures are the charts drawn, in order (not in the measuring pass).
+	figures     []Figure
+	headings    []headingRec
+	known       *passRecord // from the first pass; nil in it
+	pendingHalf *halfChart
+	problems    diag.List
+	funcs       map[ast.NodeKind]nodeFunc
+	blockAt     map[int]brief.Block
+	imageCache  map[string]*pdf.ImageInfo
 	// own is the brief's own cautions section, nil when it has none; the
 	// closing section then states only what it leaves out.
 	own *ownCautions

@@ -10,6 +10,7 @@
 package limits
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -252,6 +253,10 @@ func parseValue(v string, bytes bool) (int64, error) {
 		return 0, fmt.Errorf("unknown suffix %q; use K, M or G", v[len(num):])
 	}
 	n, err := strconv.ParseInt(num, 10, 64)
+	if errors.Is(err, strconv.ErrRange) && num != "" && strings.Trim(num, "0123456789") == "" {
+		// Digits, only too many of them for any count or size.
+		return 0, fmt.Errorf("%s is larger than any input peerpack can hold; the most is %s", v, Group(maxValue))
+	}
 	if err != nil {
 		return 0, fmt.Errorf("%q is not a whole number; write digits with an optional K, M or G, e.g. 20M", v)
 	}

@@ -85,6 +85,10 @@ func TestParseErrors(t *testing.T) {
 		{"rows=5T", `limit rows=5T: "5T" is not a whole number`},
 		{"file=5iB", `limit file=5iB: unknown suffix "iB"`},
 		{"file=99999999G", `limit file=99999999G: 99999999G is larger than any input peerpack can hold`},
+		// More digits than an int64 holds (2^63 - 1 = 9,223,372,036,854,775,807,
+		// from memory) is too large, not "not a whole number".
+		{"file=99999999999999999999G", `limit file=99999999999999999999G: 99999999999999999999G is larger than any input peerpack can hold; the most is 1,099,511,627,776`},
+		{"rows=99999999999999999999", `limit rows=99999999999999999999: 99999999999999999999 is larger than any input peerpack can hold`},
 	}
 	for _, c := range cases {
 		_, err := Parse(c.spec)

@@ -176,5 +176,9 @@ func (d *Doc) Bytes() ([]byte, error) {
 	if err := d.f.Output(&buf); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
-	return tagSubsets(buf.Bytes()), nil
+	out, err := finishStructure(tagSubsets(buf.Bytes()))
+	if err != nil {
+		return nil, fmt.Errorf("the PDF's structure could not be completed: %w", err)
+	}
+	return out, nil
 }

@@ -1,34 +1,44 @@
 // Package workbook writes the figures model as an XLSX workbook, one sheet
 // per section of the figures file, for analysts who audit a pack in a
-// spreadsheet. It writes the minimal SpreadsheetML package of ECMA-376
-// (Office Open XML, Part 1: the workbook, worksheets, relationships and
-// content types) with inline strings, using only archive/zip and
-// encoding/xml, and it is deterministic: entries are written in a fixed
-// order with a fixed timestamp.
+// spreadsheet. The workbook is written with github.com/xuri/excelize/v2's
+// stream writer (rows go to the file as they come, not held as cells):
+// each sheet has its header row frozen and bold, an autofilter over its
+// rows, column widths from its content and number formats from each
+// figure's decimals.
 package workbook
 
 import (
 	"archive/zip"
 	"bytes"
-	"encoding/xml"
 	"fmt"
 	"io"
-	"strconv"
+	"math"
+	"sort"
 	"strings"
 	"time"
+	"unicode/utf8"
+
+	"github.com/xuri/excelize/v2"
 )
 
-// Sheet is one worksheet: a header row and data rows. A cell is a string
-// or a float64; NaN floats are left empty.
+// MaxRows is the most rows one sheet holds, header included: 1,048,576
+// (ECMA-376 Part 1, 18.3.1.73, and the spreadsheet applications' limit).
+const MaxRows = excelize.TotalRows
+
+// Sheet is one worksheet: a header row and data rows. A cell is a string,
+// an int, a float64 or a Number; NaN floats are left empty.
 type Sheet struct {
 	Name   string
 	Header []string
 	Rows   [][]any
 }
 
-// fixedTime is the timestamp of every zip entry (the zip format's earliest
-// date), so identical content gives identical bytes.
-var fixedTime = time.Date(1980, 1, 1, 0, 0, 0, 0, time.UTC)
+// Number is a figure with the decimals it is shown with: the cell keeps
+// the full value and displays it rounded ("0.00" for 2 decimals).
+type Number struct {
+	Value    float64
+	Decimals int
+}
 
 // Write writes the sheets as an XLSX workbook.
 func Write(w io.Writer, sheets []Sheet) error {
@@ -38,42 +48,223 @@ func Write(w io.Writer, sheets []Sheet) error {
 	names := make([]string, len(sheets))
 	seen := map[string]bool{}
 	for i, s := range sheets {
+		if n := len(s.Rows) + 1; n > MaxRows {
+			return fmt.Errorf("the %q sheet would have %d rows, over the %d rows a spreadsheet sheet can hold; write the figures file as CSV instead (--figures)", s.Name, n, MaxRows)
+		}
 		n := sheetName(s.Name)
 		base := n
-		for k := 2; seen[n]; k++ {
+		for k := 2; seen[strings.ToLower(n)]; k++ {
 			suffix := fmt.Sprintf(" (%d)", k)
 			n = truncate(base, 31-len(suffix)) + suffix
 		}
-		seen[n] = true
+		seen[strings.ToLower(n)] = true
 		names[i] = n
 	}
-	zw := zip.NewWriter(w)
-	add := func(name string, body []byte) error {
-		f, err := zw.CreateHeader(&zip.FileHeader{Name: name, Method: zip.Deflate, Modified: fixedTime})
-		if err != nil {
-			return err
-		}
-		_, err = f.Write(body)
-		return err
-	}
-	if err := add("[Content_Types].xml", contentTypes(len(sheets))); err != nil {
-		return err
-	}
-	if err := add("_rels/.rels", []byte(xml.Header+`<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships"><Relationship Id="rId1" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/officeDocument" Target="xl/workbook.xml"/></Relationships>`)); err != nil {
-		return err
-	}
-	if err := add("xl/workbook.xml", workbookXML(names)); err != nil {
-		return err
-	}
-	if err := add("xl/_rels/workbook.xml.rels", workbookRels(len(sheets))); err != nil {
+	f := excelize.NewFile()
+	defer f.Close()
+	st, err := newStyles(f)
+	if err != nil {
 		return err
 	}
 	for i, s := range sheets {
-		if err := add(fmt.Sprintf("xl/worksheets/sheet%d.xml", i+1), sheetXML(s)); err != nil {
+		if i == 0 {
+			if err := f.SetSheetName("Sheet1", names[0]); err != nil {
+				return err
+			}
+		} else if _, err := f.NewSheet(names[i]); err != nil {
+			return err
+		}
+		if err := writeSheet(f, names[i], s, st); err != nil {
+			return fmt.Errorf("the %q sheet: %w", s.Name, err)
+		}
+	}
+	f.SetActiveSheet(0)
+	var buf bytes.Buffer
+	if err := f.Write(&buf); err != nil {
+		return err
+	}
+	return reorder(w, buf.Bytes())
+}
+
+// reorder copies the package with its parts in a fixed order
+// ([Content_Types].xml first, then by name) and a fixed time: excelize
+// writes parts in the order of an internal map, and the figures workbook
+// must be byte-identical from build to build. Parts are copied
+// compressed, not inflated again.
+func reorder(w io.Writer, pkg []byte) error {
+	zr, err := zip.NewReader(bytes.NewReader(pkg), int64(len(pkg)))
+	if err != nil {
+		return err
+	}
+	files := append([]*zip.File(nil), zr.File...)
+	sort.Slice(files, func(i, j int) bool {
+		a, b := files[i].Name, files[j].Name
+		if (a == "[Content_Types].xml") != (b == "[Content_Types].xml") {
+			return a == "[Content_Types].xml"
+		}
+		return a < b
+	})
+	zw := zip.NewWriter(w)
+	for _, f := range files {
+		h := f.FileHeader
+		h.Modified = fixedTime
+		h.Extra = nil
+		raw, err := f.OpenRaw()
+		if err != nil {
+			return err
+		}
+		dst, err := zw.CreateRaw(&h)
+		if err != nil {
+			return err
+		}
+		if _, err := io.Copy(dst, raw); err != nil {
 			return err
 		}
 	}
 	return zw.Close()
+}
+
+// fixedTime is the timestamp of every part (the zip format's earliest
+// date), so identical content gives identical bytes.
+var fixedTime = time.Date(1980, 1, 1, 0, 0, 0, 0, time.UTC)
+
+type styles struct {
+	header int
+	number map[int]int // decimals -> style
+	f      *excelize.File
+}
+
+func newStyles(f *excelize.File) (*styles, error) {
+	h, err := f.NewStyle(&excelize.Style{Font: &excelize.Font{Bold: true}})
+	if err != nil {
+		return nil, err
+	}
+	return &styles{header: h, number: map[int]int{}, f: f}, nil
+}
+
+// numberStyle is the style showing d decimals ("0", "0.0", "0.00", ...).
+func (st *styles) numberStyle(d int) (int, error) {
+	d = max(0, min(d, 10))
+	if id, ok := st.number[d]; ok {
+		return id, nil
+	}
+	code := "0"
+	if d > 0 {
+		code += "." + strings.Repeat("0", d)
+	}
+	id, err := st.f.NewStyle(&excelize.Style{CustomNumFmt: &code})
+	if err != nil {
+		return 0, err
+	}
+	st.number[d] = id
+	return id, nil
+}
+
+func writeSheet(f *excelize.File, name string, s Sheet, st *styles) error {
+	cols := len(s.Header)
+	for _, r := range s.Rows {
+		cols = max(cols, len(r))
+	}
+	if cols == 0 {
+		cols = 1
+	}
+	last := ColumnName(cols-1) + fmt.Sprint(len(s.Rows)+1)
+	// The filter is set on the worksheet before streaming, so the stream
+	// writer carries it into the sheet it writes.
+	if err := f.AutoFilter(name, "A1:"+last, nil); err != nil {
+		return err
+	}
+	sw, err := f.NewStreamWriter(name)
+	if err != nil {
+		return err
+	}
+	// Widths: the longest text of each column in characters, plus room
+	// for the filter button, between 8 and 60 (common practice, no source).
+	widths := make([]int, cols)
+	for i, h := range s.Header {
+		widths[i] = utf8.RuneCountInString(h) + 3
+	}
+	for _, r := range s.Rows {
+		for i, c := range r {
+			widths[i] = max(widths[i], len(cellText(c)))
+		}
+	}
+	// Set last to first: the stream writer puts each new <col> before
+	// the ones it has, and spreadsheet applications expect them in
+	// ascending order (ECMA-376 Part 1, 18.3.1.13).
+	for i := len(widths) - 1; i >= 0; i-- {
+		if err := sw.SetColWidth(i+1, i+1, float64(max(8, min(widths[i]+1, 60)))); err != nil {
+			return err
+		}
+	}
+	if err := sw.SetPanes(&excelize.Panes{Freeze: true, YSplit: 1, TopLeftCell: "A2", ActivePane: "bottomLeft",
+		Selection: []excelize.Selection{{SQRef: "A2", ActiveCell: "A2", Pane: "bottomLeft"}}}); err != nil {
+		return err
+	}
+	hdr := make([]any, len(s.Header))
+	for i, h := range s.Header {
+		hdr[i] = excelize.Cell{StyleID: st.header, Value: h}
+	}
+	if err := sw.SetRow("A1", hdr); err != nil {
+		return err
+	}
+	vals := make([]any, cols)
+	for ri, r := range s.Rows {
+		for i := range vals {
+			vals[i] = nil
+		}
+		for i, c := range r {
+			switch v := c.(type) {
+			case float64:
+				if !math.IsNaN(v) && !math.IsInf(v, 0) {
+					vals[i] = v
+				}
+			case Number:
+				if math.IsNaN(v.Value) || math.IsInf(v.Value, 0) {
+					continue
+				}
+				id, err := st.numberStyle(v.Decimals)
+				if err != nil {
+					return err
+				}
+				vals[i] = excelize.Cell{StyleID: id, Value: v.Value}
+			case string:
+				if v != "" {
+					vals[i] = clean(v)
+				}
+			case int:
+				vals[i] = v
+			default:
+				vals[i] = clean(fmt.Sprint(v))
+			}
+		}
+		if err := sw.SetRow(fmt.Sprintf("A%d", ri+2), vals); err != nil {
+			return err
+		}
+	}
+	return sw.Flush()
+}
+
+func cellText(c any) string {
+	switch v := c.(type) {
+	case string:
+		return v
+	case Number:
+		return fmt.Sprintf("%.*f", max(0, min(v.Decimals, 10)), v.Value)
+	case float64:
+		return fmt.Sprint(v)
+	}
+	return fmt.Sprint(c)
+}
+
+// clean drops the control characters XML 1.0 does not allow.
+func clean(s string) string {
+	return strings.Map(func(r rune) rune {
+		if r < 0x20 && r != '\t' && r != '\n' && r != '\r' {
+			return -1
+		}
+		return r
+	}, s)
 }
 
 // sheetName makes a valid sheet name: at most 31 characters, none of
@@ -85,6 +276,7 @@ func sheetName(s string) string {
 		}
 		return r
 	}, s)
+	s = strings.Trim(s, "'")
 	if s == "" {
 		s = "Sheet"
 	}
@@ -99,83 +291,6 @@ func truncate(s string, n int) string {
 	return s
 }
 
-func contentTypes(n int) []byte {
-	var b bytes.Buffer
-	b.WriteString(xml.Header)
-	b.WriteString(`<Types xmlns="http://schemas.openxmlformats.org/package/2006/content-types">`)
-	b.WriteString(`<Default Extension="rels" ContentType="application/vnd.openxmlformats-package.relationships+xml"/>`)
-	b.WriteString(`<Default Extension="xml" ContentType="application/xml"/>`)
-	b.WriteString(`<Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/>`)
-	for i := 1; i <= n; i++ {
-		fmt.Fprintf(&b, `<Override PartName="/xl/worksheets/sheet%d.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.worksheet+xml"/>`, i)
-	}
-	b.WriteString(`</Types>`)
-	return b.Bytes()
-}
-
-func workbookXML(names []string) []byte {
-	var b bytes.Buffer
-	b.WriteString(xml.Header)
-	b.WriteString(`<workbook xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main" xmlns:r="http://schemas.openxmlformats.org/officeDocument/2006/relationships"><sheets>`)
-	for i, n := range names {
-		fmt.Fprintf(&b, `<sheet name="%s" sheetId="%d" r:id="rId%d"/>`, esc(n), i+1, i+1)
-	}
-	b.WriteString(`</sheets></workbook>`)
-	return b.Bytes()
-}
-
-func workbookRels(n int) []byte {
-	var b bytes.Buffer
-	b.WriteString(xml.Header)
-	b.WriteString(`<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships">`)
-	for i := 1; i <= n; i++ {
-		fmt.Fprintf(&b, `<Relationship Id="rId%d" Type="http://schemas.openxmlformats.org/officeDocument/2006/relationships/worksheet" Target="worksheets/sheet%d.xml"/>`, i, i)
-	}
-	b.WriteString(`</Relationships>`)
-	return b.Bytes()
-}
-
-func sheetXML(s Sheet) []byte {
-	var b bytes.Buffer
-	b.WriteString(xml.Header)
-	b.WriteString(`<worksheet xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"><sheetData>`)
-	row := 1
-	writeRow := func(cells []any) {
-		fmt.Fprintf(&b, `<row r="%d">`, row)
-		for i, c := range cells {
-			ref := ColumnName(i) + strconv.Itoa(row)
-			switch v := c.(type) {
-			case float64:
-				if v != v { // NaN: leave the cell out
-					continue
-				}
-				fmt.Fprintf(&b, `<c r="%s"><v>%s</v></c>`, ref, strconv.FormatFloat(v, 'g', -1, 64))
-			case int:
-				fmt.Fprintf(&b, `<c r="%s"><v>%d</v></c>`, ref, v)
-			case string:
-				if v == "" {
-					continue
-				}
-				fmt.Fprintf(&b, `<c r="%s" t="inlineStr"><is><t xml:space="preserve">%s</t></is></c>`, ref, esc(v))
-			default:
-				fmt.Fprintf(&b, `<c r="%s" t="inlineStr"><is><t>%s</t></is></c>`, ref, esc(fmt.Sprint(v)))
-			}
-		}
-		b.WriteString(`</row>`)
-		row++
-	}
-	hdr := make([]any, len(s.Header))
-	for i, h := range s.Header {
-		hdr[i] = h
-	}
-	writeRow(hdr)
-	for _, r := range s.Rows {
-		writeRow(r)
-	}
-	b.WriteString(`</sheetData></worksheet>`)
-	return b.Bytes()
-}
-
 // ColumnName is the spreadsheet column letter of a 0-based index: 0 is A,
 // 25 is Z, 26 is AA, 701 is ZZ, 702 is AAA (bijective base 26).
 func ColumnName(i int) string {
@@ -184,27 +299,4 @@ func ColumnName(i int) string {
 		out = append([]byte{byte('A' + (i-1)%26)}, out...)
 	}
 	return string(out)
-}
-
-func esc(s string) string {
-	var b strings.Builder
-	for _, r := range s {
-		// XML 1.0 allows only these control characters.
-		if r < 0x20 && r != '\t' && r != '\n' && r != '\r' {
-			continue
-		}
-		switch r {
-		case '&':
-			b.WriteString("&amp;")
-		case '<':
-			b.WriteString("&lt;")
-		case '>':
-			b.WriteString("&gt;")
-		case '"':
-			b.WriteString("&quot;")
-		default:
-			b.WriteRune(r)
-		}
-	}
-	return b.String()
 }

@@ -1,7 +1,9 @@
 package workbook
 
 import (
+	"archive/zip"
 	"bytes"
+	"io"
 	"math"
 	"os"
 	"os/exec"
@@ -78,5 +80,76 @@ for ws in wb.worksheets:
 	}, "\n") + "\n"
 	if string(out) != want {
 		t.Errorf("openpyxl read\n%s\nwant\n%s", out, want)
+	}
+}
+
+// The sheet's furniture as openpyxl (python3-openpyxl, Debian) reads it:
+// the header row frozen (freeze_panes "A2"), an autofilter over the
+// header and rows, bold headers, column widths from the content, and
+// number formats from each figure's decimals ("0.00" for 2, ECMA-376
+// Part 1, 18.8.30 number format codes).
+func TestSheetFurnitureWithOpenpyxl(t *testing.T) {
+	py := "/usr/bin/python3"
+	if err := exec.Command(py, "-c", "import openpyxl").Run(); err != nil {
+		t.Skip("python3-openpyxl is not installed (apt-get install python3-openpyxl)")
+	}
+	sheets := []Sheet{{Name: "position", Header: []string{"indicator", "value"}, Rows: [][]any{
+		{"citation_impact", Number{Value: 1.23456, Decimals: 2}},
+		{"a much longer indicator name for the width", Number{Value: 12.5, Decimals: 0}},
+		{"students", 1200},
+	}}}
+	var buf bytes.Buffer
+	if err := Write(&buf, sheets); err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(t.TempDir(), "f.xlsx")
+	os.WriteFile(path, buf.Bytes(), 0o644)
+	script := `
+import sys, openpyxl
+ws = openpyxl.load_workbook(sys.argv[1]).active
+print(ws.title, ws.freeze_panes, ws.auto_filter.ref.replace("$", ""), ws["A1"].font.b)
+print(ws["B2"].value, ws["B2"].number_format, ws["B3"].value, ws["B3"].number_format, ws["B4"].value)
+print(ws.column_dimensions["A"].width > ws.column_dimensions["B"].width >= 8)
+`
+	out, err := exec.Command(py, "-c", script, path).CombinedOutput()
+	if err != nil {
+		t.Fatalf("openpyxl: %v\n%s", err, out)
+	}
+	want := "position A2 A1:B4 True\n1.23456 0.00 12.5 0 1200\nTrue\n"
+	if string(out) != want {
+		t.Errorf("openpyxl read\n%s\nwant\n%s", out, want)
+	}
+	zr, err := zip.NewReader(bytes.NewReader(buf.Bytes()), int64(buf.Len()))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, zf := range zr.File {
+		if zf.Name != "xl/worksheets/sheet1.xml" {
+			continue
+		}
+		rc, _ := zf.Open()
+		body, _ := io.ReadAll(rc)
+		rc.Close()
+		if i, j := bytes.Index(body, []byte(`<col min="1"`)), bytes.Index(body, []byte(`<col min="2"`)); i < 0 || j < i {
+			t.Errorf("<col> elements not in ascending order: %s", body[bytes.Index(body, []byte("<cols>")):bytes.Index(body, []byte("</cols>"))])
+		}
+	}
+}
+
+// A sheet of more rows than a sheet holds (1,048,576 with the header,
+// ECMA-376 Part 1, 18.3.1.73, from memory) is refused before anything is
+// written, with a message that names the sheet and the way out.
+func TestRowLimit(t *testing.T) {
+	rows := make([][]any, MaxRows) // with the header, one row too many
+	var buf bytes.Buffer
+	err := Write(&buf, []Sheet{{Name: "distribution", Header: []string{"v"}, Rows: rows}})
+	if err == nil || !strings.Contains(err.Error(), `"distribution" sheet would have 1048577 rows`) || !strings.Contains(err.Error(), "--figures") {
+		t.Errorf("want a row-limit error, got %v", err)
+	}
+	if buf.Len() != 0 {
+		t.Errorf("%d bytes written before the error", buf.Len())
+	}
+	if err := Write(&buf, []Sheet{{Name: "ok", Header: []string{"v"}, Rows: rows[:10]}}); err != nil {
+		t.Errorf("a small sheet: %v", err)
 	}
 }

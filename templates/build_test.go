@@ -14,6 +14,7 @@ import (
 
 	"peerpack/internal/build"
 	"peerpack/internal/demo"
+	"peerpack/internal/layout"
 )
 
 // pageObject matches a page object of the PDF (not the /Pages tree).
@@ -65,6 +66,10 @@ func TestEveryTemplateBuilds(t *testing.T) {
 				t.Errorf("the figures file never mentions the focus %s", res.Inputs.Brief.Focus)
 			}
 			checkText(t, name, opt.Output)
+			// No written caption states a count its block does not show.
+			if ws := layout.CaptionWarnings(res.Inputs.Brief, res.Inputs.Figures); len(ws) > 0 {
+				t.Errorf("captions disagree with their blocks:\n%s", strings.Join(ws, "\n"))
+			}
 			// A governing body gets 6-10 pages of content; the pack adds a
 			// cover, the contents and the closing notes on the figures.
 			pages := len(pageObject.FindAll(pdf, -1))

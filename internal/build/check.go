@@ -52,6 +52,12 @@ func WriteCheckReport(w io.Writer, in *Inputs) {
 		}
 		fmt.Fprintln(w)
 	}
+	if ws := layout.CaptionWarnings(in.Brief, m); len(ws) > 0 {
+		fmt.Fprintf(w, "\nCaptions that state a count the figures do not show:\n")
+		for _, s := range ws {
+			fmt.Fprintf(w, "  %s\n", s)
+		}
+	}
 	fmt.Fprintf(w, "\nThe brief would build.\n")
 }
 

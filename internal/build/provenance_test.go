@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"peerpack/internal/demo"
+	"peerpack/internal/layout"
 )
 
 // The closing section names every data file the demo was built from with
@@ -43,5 +44,14 @@ func TestDemoNamesItsSources(t *testing.T) {
 		if !strings.Contains(text, name) || !strings.Contains(text, sum) {
 			t.Errorf("closing does not list %s with checksum %s", name, sum)
 		}
+	}
+}
+
+// The demo's written captions state no count their blocks do not show
+// (a pack review saw "the fifteen highest" over fourteen bars).
+func TestDemoCaptionsAgreeWithBlocks(t *testing.T) {
+	in, _ := demoPack(t)
+	if ws := layout.CaptionWarnings(in.Brief, in.Figures); len(ws) > 0 {
+		t.Errorf("captions disagree with their blocks:\n%s", strings.Join(ws, "\n"))
 	}
 }

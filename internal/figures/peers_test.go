@@ -9,7 +9,7 @@ import (
 	"peerpack/internal/stats"
 )
 
-const peersFront = "focus: KE02\nyear: 2025\npeers:\n  indicators: [fwci, students_per_academic, intl_share]\n  k: 3\n  resamples: 10\n  nearest: 3\ngroups:\n  - name: Our cluster\n    cluster: focus\n  - name: Second\n    cluster: 2\n"
+const peersFront = "focus: KE02\nyear: 2025\npeers:\n  indicators: [fnci, students_per_academic, intl_share]\n  k: 3\n  resamples: 10\n  nearest: 3\ngroups:\n  - name: Our cluster\n    cluster: focus\n  - name: Second\n    cluster: 2\n"
 
 // The cluster groups hold exactly the institutions the peers rows place
 // in that cluster; clusters are numbered largest first; the standardising
@@ -119,7 +119,7 @@ func TestClustersComputedOncePerDataset(t *testing.T) {
 func TestPeersProblems(t *testing.T) {
 	d, _ := loadFixture(t)
 	cases := []struct{ name, front, want string }{
-		{"unknown indicator", "focus: KE02\nyear: 2025\npeers:\n  indicators: [fwci, intl_shar]\n",
+		{"unknown indicator", "focus: KE02\nyear: 2025\npeers:\n  indicators: [fnci, intl_shar]\n",
 			`b.md:10:3: peers: indicator "intl_shar" is not in the dictionary indicators.yaml; did you mean "intl_share"?`},
 		{"cluster out of range", strings.Replace(peersFront, "cluster: 2", "cluster: 7", 1),
 			`group "Second": cluster 7 does not exist; the peers section found 3 clusters (1 to 3, largest first)`},

@@ -120,7 +120,7 @@ func TestMethodologyAppendixFromTheBrief(t *testing.T) {
 	}
 	ref := appendixReference(t)
 	out, m := scenarioPack(t, demo.Files())
-	flat := flatText(t, out)
+	flat := bodyText(t, out)
 	annex := flat[strings.LastIndex(flat, "This annex is written from the brief"):]
 	for _, s := range []string{
 		"Indicators and sources", "Comparison groups", "Who is counted", "Money and purchasing-power parity",
@@ -371,4 +371,34 @@ func TestRuleExclusions(t *testing.T) {
 	if want[1] == 0 {
 		t.Error("the max_value rule excludes nobody; pick a threshold that tests it")
 	}
+}
+
+// bodyText is flatText without the running header and footer, so that a
+// sentence broken over a page reads whole: each page's first two lines
+// (the header's two sides) and its footer, the lines from the one ending
+// in a bullet to "Page n of N", are dropped.
+func bodyText(t *testing.T, pdf []byte) string {
+	var keep []string
+	for _, page := range strings.Split(runTool(t, pdf, "pdftotext"), "\f") {
+		var lines []string
+		for _, l := range strings.Split(page, "\n") {
+			if strings.TrimSpace(l) != "" {
+				lines = append(lines, l)
+			}
+		}
+		if len(lines) > 2 {
+			lines = lines[2:]
+		}
+		for len(lines) > 0 {
+			last := lines[len(lines)-1]
+			lines = lines[:len(lines)-1]
+			if !strings.HasPrefix(last, "Page ") && !strings.Contains(last, "figures for") && !strings.Contains(last, " · ") {
+				// Reached the body: the footer's lines are gone.
+				lines = append(lines, last)
+				break
+			}
+		}
+		keep = append(keep, lines...)
+	}
+	return strings.Join(strings.Fields(strings.Join(keep, "\n")), " ")
 }

@@ -68,7 +68,7 @@ type PaperResult struct {
 // paperColumns locates the columns of a papers file.
 type paperColumns struct {
 	paper, year, typ, field, citations, inst, country, affType int
-	pairs                                                     bool
+	pairs                                                      bool
 }
 
 func findPaperColumns(src source) (paperColumns, error) {

@@ -288,3 +288,73 @@ func affType(industry bool) string {
 	}
 	return "university"
 }
+
+// voteFields are the fields a generated survey asks about: the six
+// Frascati broad fields by short name.
+var voteFields = []string{"natural", "engineering", "health", "agriculture", "social", "humanities"}
+
+// SampleVotes writes an invented peer survey: votes (one row per vote) and
+// target shares of researchers by country. Respondents over-represent
+// some countries, so weighting matters; they favour large institutions
+// and their own country.
+func SampleVotes(votes, targets io.Writer, o SampleOptions) error {
+	o.defaults()
+	if o.Respondents <= 0 {
+		o.Respondents = 2000
+	}
+	if o.VotesEach <= 0 {
+		o.VotesEach = 5
+	}
+	r := rand.New(rand.NewPCG(o.Seed, 0x2545f4914f6cdd1d))
+	w := newSampleWorld(o, r)
+	// Researchers by country: the sum of the institutions' sizes.
+	research := make([]float64, len(w.countries))
+	prev := 0.0
+	byCountry := make([][]int, len(w.countries))
+	for i, c := range w.instCtry {
+		research[c] += w.cumInst[i] - prev
+		prev = w.cumInst[i]
+		byCountry[c] = append(byCountry[c], i)
+	}
+	// Response rates differ by country (invented), so the sample's
+	// shares differ from the targets.
+	resp := make([]float64, len(research))
+	for c := range resp {
+		resp[c] = research[c] * math.Exp(0.8*r.NormFloat64())
+	}
+	bt := bufio.NewWriter(targets)
+	bt.WriteString("country,share\n")
+	total := 0.0
+	for _, v := range research {
+		total += v
+	}
+	for c, v := range research {
+		if v > 0 {
+			fmt.Fprintf(bt, "%s,%s\n", w.countries[c], strconv.FormatFloat(100*v/total, 'f', 4, 64))
+		}
+	}
+	if err := bt.Flush(); err != nil {
+		return err
+	}
+	bv := bufio.NewWriter(votes)
+	bv.WriteString("respondent,respondent_country,field,institution\n")
+	for p := 0; p < o.Respondents; p++ {
+		c := pickIndex(r, resp)
+		f := pickIndex(r, []float64{0.3, 0.22, 0.26, 0.05, 0.12, 0.05})
+		chosen := map[int]bool{}
+		for try := 0; len(chosen) < o.VotesEach && try < 20*o.VotesEach; try++ {
+			var j int
+			if r.Float64() < 0.4 && len(byCountry[c]) > 0 {
+				j = byCountry[c][r.IntN(len(byCountry[c]))]
+			} else {
+				j = pickCum(r, w.cumInst)
+			}
+			if chosen[j] {
+				continue
+			}
+			chosen[j] = true
+			fmt.Fprintf(bv, "S%06d,%s,%s,%s\n", p+1, w.countries[c], voteFields[f], w.instIDs[j])
+		}
+	}
+	return bv.Flush()
+}

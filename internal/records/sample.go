@@ -208,7 +208,7 @@ func SamplePapers(out io.Writer, o SampleOptions) error {
 		for len(insts) < n {
 			j := pickCum(r, w.cumInst)
 			// Most co-authors share the lead's country.
-			if w.instCtry[j] != w.instCtry[lead] && r.Float64() < 0.55 {
+			if w.instCtry[j] != w.instCtry[lead] && r.Float64() < 0.85 {
 				continue
 			}
 			dup := false

@@ -207,7 +207,7 @@ func TestTop10Ties(t *testing.T) {
 // Waltman et al. 2011), checked on a generated world.
 func TestWorldAverageIsOne(t *testing.T) {
 	var buf bytes.Buffer
-	if err := SamplePapers(&buf, SampleOptions{Papers: 6000, Fields: 8, Institutions: 60, Seed: 7}); err != nil {
+	if err := SamplePapers(&buf, SampleOptions{Papers: 8000, Fields: 4, Institutions: 60, Seed: 7}); err != nil {
 		t.Fatal(err)
 	}
 	res := run(t, map[string]string{"p.csv": buf.String()}, "p.csv", PaperOptions{})

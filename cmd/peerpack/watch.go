@@ -24,7 +24,7 @@ func watchFiles(src build.Source, b *brief.Brief) []string {
 		return files
 	}
 	d := b.Data
-	files = append(files, d.Register, d.Dictionary, d.PPP, d.Papers, d.Votes, b.Theme.Logo)
+	files = append(files, d.Register, d.Dictionary, d.PPP, d.Papers.File, d.Papers.Baselines, d.Votes.File, d.Votes.Targets, b.Theme.Logo)
 	files = append(files, d.Values...)
 	out := files[:0]
 	for _, f := range files {

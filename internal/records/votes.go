@@ -505,3 +505,13 @@ func normalise(v []float64) {
 		v[i] /= t
 	}
 }
+
+// IsPercent tells whether an indicator from records is on the 0..100
+// scale (shares and most-voted = 100 scores).
+func IsPercent(key string) bool {
+	switch key {
+	case KeyTop10Share, KeyIntlCoauthorship, KeyIndustryCoauthorship, KeyHomeShare, KeyEsteem, KeyEsteemUnweighted:
+		return true
+	}
+	return strings.HasPrefix(key, "field_") || strings.HasPrefix(key, KeyEsteem+"_")
+}

@@ -4,10 +4,10 @@ go 1.26.8
 
 require (
 	codeberg.org/go-fonts/liberation v0.5.0
-	github.com/go-pdf/fpdf v0.9.0
+	codeberg.org/go-pdf/fpdf v0.12.0
 	github.com/parquet-go/parquet-go v0.32.0
 	github.com/yuin/goldmark v1.8.7
-	golang.org/x/image v0.30.0
+	golang.org/x/image v0.40.0
 	gonum.org/v1/gonum v0.17.0
 	gonum.org/v1/plot v0.17.0
 	gopkg.in/yaml.v3 v3.0.1
@@ -15,7 +15,6 @@ require (
 
 require (
 	codeberg.org/go-latex/latex v0.2.0 // indirect
-	codeberg.org/go-pdf/fpdf v0.11.1 // indirect
 	git.sr.ht/~sbinet/gg v0.7.0 // indirect
 	github.com/ajstarks/svgo v0.0.0-20211024235047-1546f124cd8b // indirect
 	github.com/andybalholm/brotli v1.1.1 // indirect
@@ -27,6 +26,6 @@ require (
 	github.com/pierrec/lz4/v4 v4.1.21 // indirect
 	github.com/twpayne/go-geom v1.6.1 // indirect
 	golang.org/x/sys v0.38.0 // indirect
-	golang.org/x/text v0.28.0 // indirect
+	golang.org/x/text v0.37.0 // indirect
 	google.golang.org/protobuf v1.34.2 // indirect
 )

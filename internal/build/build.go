@@ -8,7 +8,6 @@
 package build
 
 import (
-	"bytes"
 	"context"
 	"fmt"
 	"io"
@@ -229,17 +228,18 @@ type Result struct {
 	Inputs *Inputs
 }
 
-// Packed is a laid-out pack: the PDF, the figures file and the commentary
-// written for it.
+// Packed is a laid-out pack: the PDF and the commentary written for it.
+// The figures file is not part of it: it is written from the figures
+// model (figures.WriteCSV, WriteWorkbook) only when one is asked for,
+// streamed to the file.
 type Packed struct {
 	PDF        []byte
-	FiguresCSV []byte
 	Commentary *narrative.Commentary
 }
 
-// Pack writes the commentary, lays out the PDF and renders the figures file
-// of loaded inputs. It composes the commentary into in.Figures, so it runs
-// once per figures model.
+// Pack writes the commentary and lays out the PDF of loaded inputs. It
+// composes the commentary into in.Figures, so it runs once per figures
+// model; the figures file written afterwards carries the commentary rows.
 func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) {
 	defer func() {
 		if r := recover(); r != nil {
@@ -257,11 +257,7 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 	if err != nil {
 		return nil, err
 	}
-	var buf bytes.Buffer
-	if err := figures.WriteCSV(&buf, in.Figures); err != nil {
-		return nil, err
-	}
-	return &Packed{PDF: pdf, FiguresCSV: buf.Bytes(), Commentary: com}, nil
+	return &Packed{PDF: pdf, Commentary: com}, nil
 }
 
 // Build runs the whole pipeline for one brief and writes the outputs.
@@ -288,7 +284,7 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	if err != nil {
 		return nil, err
 	}
-	pdf, figs := packed.PDF, packed.FiguresCSV
+	pdf := packed.PDF
 	after("pack")
 	if err := ctx.Err(); err != nil {
 		return nil, interrupted(opt.Output)
@@ -297,7 +293,8 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 		return nil, err
 	}
 	if opt.Figures != "" {
-		if err := atomicfile.WriteFile(ctx, opt.Figures, figs, 0o644); err != nil {
+		err := atomicfile.Write(ctx, opt.Figures, 0o644, func(w io.Writer) error { return figures.WriteCSV(w, in.Figures) })
+		if err != nil {
 			return nil, err
 		}
 	}

@@ -12,6 +12,7 @@ import (
 	"time"
 
 	"peerpack/internal/demo"
+	"peerpack/internal/figures"
 	"peerpack/internal/narrative"
 )
 
@@ -45,6 +46,17 @@ func demoPack(t *testing.T) (*Inputs, *Packed) {
 	return demoIn, demoPack1
 }
 
+// figuresCSV writes the figures file of packed inputs, as a build asked
+// for one writes it.
+func figuresCSV(t *testing.T, in *Inputs) []byte {
+	t.Helper()
+	var buf bytes.Buffer
+	if err := figures.WriteCSV(&buf, in.Figures); err != nil {
+		t.Fatal(err)
+	}
+	return buf.Bytes()
+}
+
 func TestDemoDeterministic(t *testing.T) {
 	_, p1 := demoPack(t)
 	in2, err := Load(demoSource(), nil)
@@ -55,7 +67,8 @@ func TestDemoDeterministic(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	pdf1, pdf2, figs1, figs2 := p1.PDF, p2.PDF, p1.FiguresCSV, p2.FiguresCSV
+	in1, _ := demoPack(t)
+	pdf1, pdf2, figs1, figs2 := p1.PDF, p2.PDF, figuresCSV(t, in1), figuresCSV(t, in2)
 	if !bytes.Equal(pdf1, pdf2) {
 		t.Error("two builds of the demo with the same creation time differ (SOURCE_DATE_EPOCH reproducibility)")
 	}
@@ -78,8 +91,8 @@ func TestDemoCommentaryTraceable(t *testing.T) {
 }
 
 func TestDemoFiguresFile(t *testing.T) {
-	_, p := demoPack(t)
-	figs := p.FiguresCSV
+	in, _ := demoPack(t)
+	figs := figuresCSV(t, in)
 	first, _, _ := bytes.Cut(figs, []byte("\n"))
 	if string(first) != "section,group,indicator,institution,year,measure,value" {
 		t.Fatalf("figures header %q", first)
@@ -227,5 +240,34 @@ func TestCreatedTime(t *testing.T) {
 	t.Setenv("SOURCE_DATE_EPOCH", "yesterday")
 	if _, err := CreatedTime(); err == nil {
 		t.Error("a malformed SOURCE_DATE_EPOCH must be refused")
+	}
+}
+
+// A build writes the figures file only when asked, and then the same bytes
+// as the golden figures file of the demo (streamed from the model, not
+// held as a copy).
+func TestBuildWritesFiguresOnlyWhenAsked(t *testing.T) {
+	dir := t.TempDir()
+	pdf := filepath.Join(dir, "pack.pdf")
+	if _, err := Build(context.Background(), demoSource(), Options{Output: pdf, Created: demoCreated, Version: "test"}); err != nil {
+		t.Fatal(err)
+	}
+	if ents, _ := os.ReadDir(dir); len(ents) != 1 {
+		t.Errorf("a build without --figures left %d files, want the PDF alone", len(ents))
+	}
+	figs := filepath.Join(dir, "figures.csv")
+	if _, err := Build(context.Background(), demoSource(), Options{Output: pdf, Figures: figs, Created: demoCreated, Version: "test"}); err != nil {
+		t.Fatal(err)
+	}
+	got, err := os.ReadFile(figs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, err := os.ReadFile(goldenFigures)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Errorf("the figures file written by Build (%d bytes) differs from %s (%d bytes)", len(got), goldenFigures, len(want))
 	}
 }

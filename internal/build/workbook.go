@@ -13,7 +13,7 @@ import (
 func WriteWorkbook(w io.Writer, m *figures.Model) error {
 	var sheets []workbook.Sheet
 	index := map[string]int{}
-	for _, r := range m.Rows() {
+	for r := range m.Rows() {
 		i, ok := index[r.Section]
 		if !ok {
 			i = len(sheets)

@@ -55,6 +55,12 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		gtrend:  map[gtrendKey]*GroupTrend{},
 		corr:    map[corrKey]int{},
 	}
+	m.groupIndex = make(map[string]int, len(groups))
+	for i, g := range groups {
+		if _, dup := m.groupIndex[g.Name]; !dup {
+			m.groupIndex[g.Name] = i
+		}
+	}
 	for _, y := range d.Years {
 		if y >= m.First && y <= m.Last {
 			m.Years = append(m.Years, y)

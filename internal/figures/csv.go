@@ -11,7 +11,7 @@ var CSVHeader = []string{"section", "group", "indicator", "institution", "year",
 
 // WriteCSV writes the figures file: RFC 4180 CSV in UTF-8 with the header
 // section,group,indicator,institution,year,measure,value and the model's
-// rows in Rows order. Numbers are written unrounded in their shortest exact
+// rows in Rows order, written as they are produced. Numbers are written unrounded in their shortest exact
 // form (strconv 'g', -1), so a spreadsheet reads back the very float64 the
 // pack used; text rows carry their sentence in the value column.
 func WriteCSV(w io.Writer, m *Model) error {
@@ -20,7 +20,7 @@ func WriteCSV(w io.Writer, m *Model) error {
 		return err
 	}
 	rec := make([]string, len(CSVHeader))
-	for _, r := range m.Rows() {
+	for r := range m.Rows() {
 		rec[0], rec[1], rec[2], rec[3] = r.Section, r.Group, r.Indicator, r.Institution
 		rec[4] = ""
 		if r.Year != 0 {

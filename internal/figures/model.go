@@ -91,9 +91,12 @@ type Model struct {
 	// positions sorted by value in the brief year.
 	yearOrder [][]int32
 	// Extra holds rows from later stages (composite, peers, records,
-	// commentary), appended through Add.
-	extra []Row
-	index map[Key]Row
+	// commentary), appended through Add; extraIndex finds the last row
+	// added with a key.
+	extra      []Row
+	extraIndex map[Key]int
+	// groupIndex finds a group by name (the first with it).
+	groupIndex map[string]int
 }
 
 // Group is a resolved comparison group.
@@ -301,6 +304,12 @@ func (m *Model) Trend(group, indicator string, inst int) (*Trend, bool) {
 
 // Group returns the resolved group with the name.
 func (m *Model) Group(name string) (*Group, bool) {
+	if m.groupIndex != nil {
+		if i, ok := m.groupIndex[name]; ok {
+			return m.Groups[i], true
+		}
+		return nil, false
+	}
 	for _, g := range m.Groups {
 		if g.Name == name {
 			return g, true
@@ -321,10 +330,11 @@ func (m *Model) InstitutionID(inst int) string {
 
 // Add appends rows from a later stage (commentary, composite, ...).
 func (m *Model) Add(rows ...Row) {
-	m.extra = append(m.extra, rows...)
-	if m.index != nil {
-		for _, r := range rows {
-			m.index[r.Key] = r
-		}
+	if m.extraIndex == nil {
+		m.extraIndex = make(map[Key]int, len(rows))
+	}
+	for _, r := range rows {
+		m.extraIndex[r.Key] = len(m.extra)
+		m.extra = append(m.extra, r)
 	}
 }

@@ -135,15 +135,24 @@ func (w *writer) setHeading(title string, level int, spans []span) {
 	if level <= 2 && w.cols > 1 {
 		w.setColumns(1)
 	}
+	joined := false
 	if level == 1 && !(w.atFrameTop() && w.cols <= 1) {
-		w.newPage()
+		if w.plan.joins(w.section+1) && w.cols <= 1 {
+			joined = true
+		} else {
+			w.newPage()
+		}
 	}
 	if level == 1 {
 		w.section++
+		w.headed[w.section] = true
 	}
 	size := headingSize(level)
 	lh := w.st.lineHeight(size) * 0.9
 	before := map[int]float64{1: 0, 2: 6, 3: 4.5}[min(level, 3)]
+	if joined {
+		before = joinedSectionGap
+	}
 	if level > 3 {
 		before = 3.5
 	}

@@ -59,7 +59,7 @@ func (w *writer) fencedBlock(n ast.Node, entering bool) ast.WalkStatus {
 	case *brief.AppendixBlock:
 		w.appendix(v)
 	case *brief.PageBreakBlock:
-		if !w.atFrameTop() || w.cols > 1 && w.col > 0 {
+		if (!w.atFrameTop() || w.cols > 1 && w.col > 0) && !(w.plan.joins(w.section+1) && w.cols <= 1) {
 			w.cols = 1
 			w.newPage()
 		}

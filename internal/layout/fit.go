@@ -15,6 +15,11 @@ import (
 type fitPlan struct {
 	scale map[int]float64 // chart height factor per section
 	table map[int]int     // first entry of tableSizes per section
+	// join holds the sections whose opening heading continues on the
+	// page the section before them ended on, when tightening could not
+	// pull that page's few lines back: the page is given enough to carry
+	// rather than left nearly empty.
+	join map[int]bool
 }
 
 // Runt pages and how far a section may be tightened (common practice, no
@@ -25,6 +30,11 @@ const (
 	minFitScale   = 0.8
 	fitHeadroom   = 4.0  // mm more than the runt's content, for rounding
 	fitChartSlack = 1.15 // charts give back less than their lost height
+
+	// joinedSectionGap is the space above a section heading that opens
+	// part-way down a page, enough to read as a new section.
+	joinedSectionGap = 12.0 // mm
+	maxJoinRounds    = 4
 )
 
 func (p *fitPlan) chartScale(section int) float64 {
@@ -35,6 +45,12 @@ func (p *fitPlan) chartScale(section int) float64 {
 		return s
 	}
 	return 1
+}
+
+// joins reports whether the section opens on the page the previous one
+// ended on instead of a fresh page.
+func (p *fitPlan) joins(section int) bool {
+	return p != nil && p.join[section]
 }
 
 func (p *fitPlan) tableStep(section int) int {
@@ -140,4 +156,54 @@ func (p *fitPlan) sections() []int {
 	return out
 }
 
-func (p *fitPlan) empty() bool { return len(p.scale) == 0 && len(p.table) == 0 }
+func (p *fitPlan) empty() bool {
+	return len(p.scale) == 0 && len(p.table) == 0 && len(p.join) == 0
+}
+
+// runtEnds lists the runt pages of a measured pass that end a section and
+// are followed by a section opening with a level-1 heading on a fresh page,
+// as spans of sections: the runt's section and the headed one after it
+// (with any empty page-break section between, a break that only made
+// room for the heading). The pack's last page is left as it is: a pack
+// may end short.
+func (w *writer) runtEnds() [][2]int {
+	top := w.doc.ContentTop()
+	area := w.doc.ContentBottom() - top
+	var out [][2]int
+	for i, pg := range w.pages {
+		if i == 0 || i+1 >= len(w.pages) || pg.section < 0 {
+			continue
+		}
+		next := w.pages[i+1].section
+		if next <= pg.section || !w.headed[next] {
+			continue
+		}
+		if used := pg.fill - top; used > 0 && used <= area*runtShare {
+			out = append(out, [2]int{pg.section, next})
+		}
+	}
+	return out
+}
+
+// withJoins returns a copy of the plan that also lets the section after
+// each of the given ones open on the same page.
+func (p *fitPlan) withJoins(ends [][2]int) *fitPlan {
+	q := &fitPlan{scale: map[int]float64{}, table: map[int]int{}, join: map[int]bool{}}
+	if p != nil {
+		for k, v := range p.scale {
+			q.scale[k] = v
+		}
+		for k, v := range p.table {
+			q.table[k] = v
+		}
+		for k, v := range p.join {
+			q.join[k] = v
+		}
+	}
+	for _, e := range ends {
+		for s := e[0] + 1; s <= e[1]; s++ {
+			q.join[s] = true
+		}
+	}
+	return q
+}

@@ -152,6 +152,30 @@ func TestShippedPacksReadWell(t *testing.T) {
 				}
 			}
 
+			// No runt page: every page but the cover, the contents and the
+			// last holds at least a third of the type area (the share fit.go
+			// works to; common practice, no source). The type area is read
+			// between the running header and footer.
+			for i, pg := range pageBoxes.FindAllStringSubmatch(html, -1) {
+				n := i + 1
+				if n <= 2 || n == len(pages) {
+					continue
+				}
+				h, _ := strconv.ParseFloat(pg[1], 64)
+				top, bottom := 0.085*h, 0.91*h
+				low := top
+				for _, m := range wordBox.FindAllStringSubmatch(pg[2], -1) {
+					y0, _ := strconv.ParseFloat(m[2], 64)
+					y1, _ := strconv.ParseFloat(m[4], 64)
+					if y0 > top && y1 < bottom && y1 > low {
+						low = y1
+					}
+				}
+				if fill := (low - top) / (bottom - top); fill < runtShare {
+					t.Errorf("page %d is a runt: %.0f %% of the type area used", n, 100*fill)
+				}
+			}
+
 			flat := strings.Join(strings.Fields(text), " ")
 			for _, lead := range []string{"Only what is measured.", "Choices are judgements.", "Uncertainty. Small differences between institutions"} {
 				if strings.Contains(flat, lead) {

@@ -9,6 +9,9 @@ import (
 
 var wordBox = regexp.MustCompile(`<word xMin="([0-9.]+)" yMin="([0-9.]+)" xMax="([0-9.]+)" yMax="([0-9.]+)">([^<]*)</word>`)
 
+// pageBoxes splits pdftotext -bbox output into pages: height, then the words.
+var pageBoxes = regexp.MustCompile(`(?s)<page width="[0-9.]+" height="([0-9.]+)">(.*?)</page>`)
+
 // TestNothingRunsOffThePage reads every word's box back with poppler's
 // pdftotext -bbox and checks that all text of the 30-page pack lies inside
 // the side margins (20 mm = 56.69 pt on A4, 595.28 pt wide) and on the

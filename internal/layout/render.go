@@ -72,6 +72,22 @@ func Render(in Input) (out []byte, err error) {
 			}
 		}
 	}
+	// A runt that tightening could not pull back is given enough to carry:
+	// the next section opens on that page. Joining moves every later page
+	// break, so the check runs again on the joined layout, a few times at
+	// most (each round only adds joins, so it settles).
+	for range maxJoinRounds {
+		ends := first.runtEnds()
+		if len(ends) == 0 {
+			break
+		}
+		p := plan.withJoins(ends)
+		alt, err := pass(in, nil, p)
+		if err != nil {
+			break
+		}
+		first, plan = alt, p
+	}
 	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
 	second, err := pass(in, rec, plan)
@@ -113,7 +129,7 @@ func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 		in: in, b: b, m: in.Model, com: in.Commentary, doc: doc, st: newStyle(b.Theme.Font, b.Theme.Accent),
 		src: b.Body, known: known, measuring: known == nil, colGap: 8, cols: 1,
 		consumed: map[ast.Node]bool{}, plan: plan,
-		chartHeight: map[int]float64{}, tableCount: map[int]int{},
+		chartHeight: map[int]float64{}, tableCount: map[int]int{}, headed: map[int]bool{},
 	}
 	w.register()
 	w.indexBlocks()
@@ -177,6 +193,8 @@ func focusName(m *figures.Model) string {
 // configuration the brief package checks it with.
 func (w *writer) body() {
 	doc := brief.Markdown().Parser().Parse(text.NewReader(w.src))
-	w.newPage()
+	if !w.plan.joins(w.section + 1) {
+		w.newPage()
+	}
 	w.walk(doc)
 }

@@ -86,6 +86,7 @@ type writer struct {
 	section     int
 	pages       []pageRecord
 	chartHeight map[int]float64
+	headed      map[int]bool // sections that open with a level-1 heading
 	tableCount  map[int]int
 }
 

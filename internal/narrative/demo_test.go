@@ -57,7 +57,7 @@ func TestDemoTraceable(t *testing.T) {
 		}
 	}
 	rows := 0
-	for _, r := range m.Rows() {
+	for r := range m.Rows() {
 		if r.Section == figures.SectionCommentary && r.Measure == "sentence" {
 			rows++
 		}

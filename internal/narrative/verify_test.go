@@ -77,7 +77,7 @@ func TestCommentaryRows(t *testing.T) {
 	c, m, _ := parseSituation(t, traceSituation).compose(t)
 	seen := map[figures.Key]bool{}
 	sentences, cites := 0, 0
-	for _, r := range m.Rows() {
+	for r := range m.Rows() {
 		if r.Section != figures.SectionCommentary {
 			continue
 		}

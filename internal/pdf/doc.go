@@ -16,7 +16,7 @@ import (
 	"strings"
 	"time"
 
-	"github.com/go-pdf/fpdf"
+	"codeberg.org/go-pdf/fpdf"
 )
 
 // PointsPerMM converts millimetres to PostScript points (72 to the inch,

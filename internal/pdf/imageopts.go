@@ -1,6 +1,6 @@
 package pdf
 
-import "github.com/go-pdf/fpdf"
+import "codeberg.org/go-pdf/fpdf"
 
 func imageOptions(format string) fpdf.ImageOptions {
 	t := "png"

@@ -4,7 +4,7 @@ import (
 	"image/color"
 	"math"
 
-	"github.com/go-pdf/fpdf"
+	"codeberg.org/go-pdf/fpdf"
 )
 
 // SetFont selects a face, registering its TrueType file in the document on

@@ -47,7 +47,8 @@ func openSource(fsys fs.FS, name string, lim limits.Limits) (source, io.Closer, 
 		f.Close()
 		return nil, nil, err
 	}
-	return src, f, nil
+	pf := newPrefetch(src)
+	return pf, prefetchCloser{pf, f}, nil
 }
 
 // parquetSource reads the rows of a flat Parquet file, each value printed

@@ -184,6 +184,10 @@ type paperReader struct {
 	pendBuf     [][]byte
 	eof         bool
 	p           paper
+	lastType    int32
+	// ctry holds the distinct countries of a paper in the per-paper shape,
+	// compared as bytes (a handful per paper: cheaper than interning).
+	ctry [][]byte
 }
 
 func (r *paperReader) keyLimit(line, col int, kind string) error {
@@ -252,9 +256,12 @@ func (r *paperReader) start(row [][]byte, line int) error {
 	if len(t) == 0 {
 		return fieldError(r.src, line, r.c.typ, "the document type is empty; write article, review, conference paper, ... (baselines are per field, year and type)")
 	}
-	if p.typ, ok = r.types.id(t); !ok {
+	if r.lastType >= 0 && string(t) == r.types.list[r.lastType] {
+		p.typ = r.lastType
+	} else if p.typ, ok = r.types.id(t); !ok {
 		return r.keyLimit(line, r.c.typ, "too many document types")
 	}
+	r.lastType = p.typ
 	c, ok := parseInt(row[r.c.citations])
 	if !ok {
 		return fieldError(r.src, line, r.c.citations, "citations %q is not a whole number of zero or more", row[r.c.citations])
@@ -311,7 +318,22 @@ func (r *paperReader) affiliations(row [][]byte, line int) error {
 	if n == 0 && !r.c.pairs {
 		return fieldError(r.src, line, r.c.inst, "the paper lists no institution; list its institutions separated by ;")
 	}
-	if r.c.country >= 0 {
+	if r.c.country >= 0 && !r.c.pairs {
+		r.ctry = r.ctry[:0]
+		_ = eachItem(row[r.c.country], func(b []byte) error {
+			for _, c := range r.ctry {
+				if bytes.Equal(c, b) {
+					return nil
+				}
+			}
+			r.ctry = append(r.ctry, b)
+			return nil
+		})
+		// Only the number of distinct countries is used.
+		for i := range r.ctry {
+			p.countries = append(p.countries, int32(i))
+		}
+	} else if r.c.country >= 0 {
 		if err := eachItem(row[r.c.country], func(b []byte) error {
 			id, ok := r.countries.id(b)
 			if !ok {
@@ -444,7 +466,7 @@ func baselinePass(open Opener, opt PaperOptions, res *PaperResult) (*Baselines, 
 	if err != nil {
 		return nil, err
 	}
-	r := &paperReader{src: src, c: c, lim: opt.Limits,
+	r := &paperReader{src: src, c: c, lim: opt.Limits, lastType: -1,
 		fields: newNames("field", opt.Limits.RecordKeys), types: newNames("type", opt.Limits.RecordKeys)}
 	groups := map[groupKey]*groupAcc{}
 	for {
@@ -554,7 +576,7 @@ func institutionPass(open Opener, opt PaperOptions, base *Baselines, res *PaperR
 		return err
 	}
 	res.HasCountries, res.HasIndustry = c.country >= 0, c.affType >= 0
-	r := &paperReader{src: src, c: c, lim: opt.Limits, withInsts: true,
+	r := &paperReader{src: src, c: c, lim: opt.Limits, withInsts: true, lastType: -1,
 		fields: base.fields.clone(), types: base.types.clone(),
 		insts: newNames("institution", opt.Limits.RecordKeys), countries: newNames("country", opt.Limits.RecordKeys)}
 	var accs []instAcc

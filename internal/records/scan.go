@@ -38,6 +38,8 @@ type csvSource struct {
 	file    string
 	r       *bufio.Reader
 	lim     limits.Limits
+	maxRows int64 // limits.RecordRows, read once: a lookup per row would cost more than the row
+	maxRead int64 // limits.RecordBytes
 	hdr     []string
 	fields  [][]byte
 	buf     []byte
@@ -48,7 +50,8 @@ type csvSource struct {
 }
 
 func newCSVSource(file string, r io.Reader, lim limits.Limits) (*csvSource, error) {
-	s := &csvSource{file: file, r: bufio.NewReaderSize(r, 1<<20), lim: lim}
+	s := &csvSource{file: file, r: bufio.NewReaderSize(r, 1<<20), lim: lim,
+		maxRows: lim.Get(limits.RecordRows), maxRead: lim.Get(limits.RecordBytes)}
 	row, line, err := s.record()
 	if err == io.EOF {
 		return nil, diag.At(file, 1, 1, "the file is empty; a record file starts with a header row naming its columns")
@@ -77,7 +80,7 @@ func (s *csvSource) next() ([][]byte, int, error) {
 		return nil, line, err
 	}
 	s.rows++
-	if s.lim.Exceeded(limits.RecordRows, s.rows) {
+	if s.rows > s.maxRows {
 		return nil, line, diag.At(s.file, line, 1, "the file has %s", s.lim.Beyond(limits.RecordRows, "split the file"))
 	}
 	if len(row) != len(s.hdr) {
@@ -108,7 +111,7 @@ func (s *csvSource) readLine() ([]byte, error) {
 	}
 	s.line++
 	s.read += int64(len(b))
-	if s.lim.Exceeded(limits.RecordBytes, s.read) {
+	if s.read > s.maxRead {
 		return nil, diag.At(s.file, s.line, 1, "the file is %s", s.lim.Beyond(limits.RecordBytes, "split the file"))
 	}
 	if !s.started {

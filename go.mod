@@ -8,6 +8,8 @@ require (
 	github.com/parquet-go/parquet-go v0.32.0
 	github.com/yuin/goldmark v1.8.7
 	golang.org/x/image v0.40.0
+	golang.org/x/term v0.48.0
+	golang.org/x/text v0.37.0
 	gonum.org/v1/gonum v0.17.0
 	gonum.org/v1/plot v0.17.0
 	gopkg.in/yaml.v3 v3.0.1
@@ -25,7 +27,6 @@ require (
 	github.com/parquet-go/jsonlite v1.0.0 // indirect
 	github.com/pierrec/lz4/v4 v4.1.21 // indirect
 	github.com/twpayne/go-geom v1.6.1 // indirect
-	golang.org/x/sys v0.38.0 // indirect
-	golang.org/x/text v0.37.0 // indirect
+	golang.org/x/sys v0.50.0 // indirect
 	google.golang.org/protobuf v1.34.2 // indirect
 )

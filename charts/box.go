@@ -20,7 +20,8 @@ type Mark struct {
 // BoxRow is one group's box in a box chart, every number precomputed by
 // the figures model: the chart draws Box as given.
 type BoxRow struct {
-	// Label names the row (the group); Members is the group's size.
+	// Label names the row (the group); Members is the number of its members
+	// with a value in this panel (its n).
 	Label   string
 	Members int
 	// FocusOutside marks a group the focus does not belong to: its mark

@@ -126,7 +126,10 @@ func boxRows(m *figures.Model, spec *brief.ChartBlock, ind dataset.Indicator, gr
 		if !ok {
 			return nil, specError(spec, "the figures hold no distribution of %s for group %q in %d; is %d among the data's years?", ind.Key, g.Name, year, year)
 		}
-		r := BoxRow{Label: g.Name, Members: len(g.Members), Box: d.Box, Focus: math.NaN(), Outliers: d.Box.OutlierValues, FocusOutside: !g.FocusIn}
+		// n is the panel's own: the members with a value for this
+		// indicator and year, which differs between panels where
+		// coverage does.
+		r := BoxRow{Label: g.Name, Members: d.Box.N, Box: d.Box, Focus: math.NaN(), Outliers: d.Box.OutlierValues, FocusOutside: !g.FocusIn}
 		if p, ok := m.Position(g.Name, ind.Key, m.Focus, year); ok && p.HasValue {
 			r.Focus, r.FocusText = p.Value, axisValueText(ind, p.Value)
 		}
@@ -169,6 +172,10 @@ func boxPanel(pn BoxPanel, vertical, first bool, width, dataW vg.Length, th Them
 			label = fitText(r.Label, th.tickStyle(), slot) + "\n" + size
 		case first:
 			label = fitText(r.Label, th.tickStyle(), boxLabelWidth(width)) + "\n" + size
+		default:
+			// Panels after the first give their own n; the group's
+			// name is read from the first panel of the row.
+			label = size
 		}
 		ticks[i] = plot.Tick{Value: bp.slot(i), Label: label}
 	}

@@ -172,6 +172,29 @@ func (ps *panels) drawPlots(area draw.Canvas, plots []*plot.Plot, cols int) [][]
 	return cs
 }
 
+// minPanelShare is how far a panel may be squashed below the height it
+// asks for and still be read (layout shortens charts to 80 % at most, and
+// then by up to 14 % more, so 0.6 leaves a margin).
+const minPanelShare = 0.6
+
+// checkRoom refuses to draw panels squashed past reading: a trend of 26
+// indicators on one page would get panels a few points high (or of
+// negative height). The message says how many panels fit.
+func (ps *panels) checkRoom(w, avail vg.Length, cols int) error {
+	n := ps.count
+	if n <= 1 {
+		return nil
+	}
+	rows := ps.rows(w)
+	ph := ps.panelHeight(ps.panelWidth(w))
+	per := (avail - vg.Length(rows-1)*panelGap) / vg.Length(rows)
+	if per >= ph*minPanelShare {
+		return nil
+	}
+	fitRows := max(int((avail+panelGap)/(ph*minPanelShare+panelGap)), 1)
+	return fmt.Errorf("%d panels do not fit on a page at this width (at most %d do); split the indicators over several charts", n, fitRows*cols)
+}
+
 // Draw implements Chart.
 func (ps *panels) Draw(c draw.Canvas) (err error) {
 	defer func() {
@@ -190,6 +213,9 @@ func (ps *panels) Draw(c draw.Canvas) (err error) {
 	}
 	area := draw.Crop(c, 0, 0, lh, -panelsTop)
 	cols := ps.cols(w)
+	if err := ps.checkRoom(w, area.Max.Y-area.Min.Y, cols); err != nil {
+		return err
+	}
 	plots := ps.make(w, cols)
 	cs := ps.drawPlots(area, plots, cols)
 	if inGap && len(cs) > 0 {

@@ -20,6 +20,9 @@ var fixtureIndicators = []dataset.Indicator{
 	{Key: "intl_staff", Label: "International academic staff", Short: "International staff", Unit: dataset.UnitPercent, Better: dataset.HigherIsBetter, Decimals: 1},
 	{Key: "ssr", Label: "Students per academic", Short: "Students per academic", Unit: dataset.UnitRatio, Better: dataset.LowerIsBetter, Decimals: 1},
 	{Key: "income", Label: "Research income per academic", Short: "Research income", Unit: dataset.UnitCurrency, Currency: true, Better: dataset.HigherIsBetter, Decimals: 0},
+	// Two more shares, drawn after the others so their values stay as they were.
+	{Key: "field_a", Label: "Share of papers in natural sciences", Short: "Natural sciences", Unit: dataset.UnitPercent, Better: dataset.Neutral, Decimals: 1},
+	{Key: "field_b", Label: "Share of papers in social sciences", Short: "Social sciences", Unit: dataset.UnitPercent, Better: dataset.Neutral, Decimals: 1},
 }
 
 var fixtureYears = []int{2021, 2022, 2023, 2024, 2025}
@@ -53,8 +56,8 @@ func buildModel(t testing.TB, n int, body string) (*figures.Model, *brief.Brief)
 	reg := dataset.NewRegister("register.csv", insts, []string{"mission", "short_name"})
 	dict := dataset.NewDictionary("indicators.yaml", fixtureIndicators)
 	d := dataset.New(reg, dict, fixtureYears)
-	means := []float64{1, 18, 16, 90000}
-	sds := []float64{0.3, 6, 4, 30000}
+	means := []float64{1, 18, 16, 90000, 30, 20}
+	sds := []float64{0.3, 6, 4, 30000, 8, 6}
 	for k := range fixtureIndicators {
 		for i := range insts {
 			base := means[k] + sds[k]*r.NormFloat64()

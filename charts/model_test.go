@@ -180,7 +180,7 @@ func TestBlockErrors(t *testing.T) {
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fwci"}, Groups: []string{"Kestria nationl"}}, `group "Kestria nationl" is not defined in the brief (did you mean "Kestria national"?)`},
 		{brief.ChartBlock{Type: "scatter", Indicators: []string{"fwci"}}, "a scatter takes exactly two indicators, x then y; found 1"},
 		{brief.ChartBlock{Type: "radar", Indicators: []string{"fwci", "ssr"}}, "a radar needs at least three indicators; found 2"},
-		{brief.ChartBlock{Type: "radar", Indicators: []string{"fwci", "ssr", "income"}, Scale: "log"}, `scale "log": use percentile or range`},
+		{brief.ChartBlock{Type: "radar", Indicators: []string{"fwci", "ssr", "income"}, Scale: "log"}, `scale "log": use percentile, range or common`},
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fwci"}, Label: []string{"XX999"}}, `label "XX999" is neither a register id nor an institution name`},
 	} {
 		spec := c.spec

@@ -3,6 +3,7 @@ package charts
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
@@ -41,6 +42,12 @@ type RadarChart struct {
 	// Percentile marks the 0-100 percentile scale: the chart then shows
 	// the group median (50) ring and the middle-half (25-75) band.
 	Percentile bool
+	// Common marks one scale shared by every spoke (shares of one whole,
+	// such as a subject profile): rings are labelled in the unit and the
+	// focus's value is printed at each vertex.
+	Common     bool
+	CommonStep float64
+	Unit       dataset.Indicator // prints ring values on the common scale
 	Note       string
 	Theme      Theme
 	built      *panels
@@ -169,7 +176,9 @@ func (r *RadarPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		}
 		lines := wrapText(ax.Label, lab, lw, 3)
 		nameLines := len(lines)
-		if !rc.Percentile {
+		if rc.Common && ax.InnerText != "" {
+			lines = append(lines, wrapText(ax.InnerText, small, lw, 2)...)
+		} else if !rc.Percentile && !rc.Common {
 			lines = append(lines, wrapText(ax.InnerText+" → "+ax.OuterText, small, lw, 2)...)
 		}
 		lh := textHeight(lab) + 1
@@ -184,6 +193,35 @@ func (r *RadarPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 			}
 			base := top - lh*vg.Length(k+1) + sty.FontExtents().Descent
 			fillText(&c, sty, x, base, align, line)
+		}
+	}
+	if rc.Common {
+		// Ring values along the first spoke, in the unit, and the focus's
+		// value beside each of its vertices, just outside the polygon.
+		// Ring values sit on the edge between the first two spokes, clear
+		// of the spoke names and of the focus's values on the spokes.
+		for _, f := range []float64{0.25, 0.5, 0.75, 1} {
+			a, b := spoke(ctr, rad, 0, n, f), spoke(ctr, rad, 1, n, f)
+			fillText(&c, small, (a.X+b.X)/2+2, (a.Y+b.Y)/2+1.5, draw.XLeft, ringText(rc.Unit, f*rc.Axes[0].Outer, rc.CommonStep))
+		}
+		val := th.focusLabelStyle()
+		for _, s := range rc.Series {
+			if !s.Focus {
+				continue
+			}
+			for i := 0; i < n && i < len(s.Values); i++ {
+				if math.IsNaN(s.Values[i]) {
+					continue
+				}
+				a := math.Pi/2 - 2*math.Pi*float64(i)/float64(n)
+				pt := spoke(ctr, rad, i, n, rc.Axes[i].fraction(s.Values[i]))
+				align := draw.XLeft
+				if math.Cos(a) < -0.2 {
+					align = draw.XRight
+				}
+				off := vg.Length(7)
+				fillText(&c, val, pt.X+off*vg.Length(math.Cos(a))+2*vg.Length(math.Cos(a)), pt.Y+off*vg.Length(math.Sin(a))-textHeight(val)/3, align, valueText(rc.Unit, s.Values[i]))
+			}
 		}
 	}
 	if rc.Percentile {
@@ -293,6 +331,8 @@ func newRadar(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error)
 			rc.Series = append(rc.Series, s)
 		}
 		rc.Note = radarNote(inds, true)
+	case "common":
+		return commonRadar(m, spec, rc, inds, groups, year, focusName)
 	case "range":
 		for _, ind := range inds {
 			lo, hi := math.Inf(1), math.Inf(-1)
@@ -331,7 +371,7 @@ func newRadar(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error)
 		rc.Series = append(rc.Series, f)
 		rc.Note = radarNote(inds, false)
 	default:
-		return nil, specError(spec, "scale %q: use percentile or range", spec.Scale)
+		return nil, specError(spec, "scale %q: use percentile, range or common", spec.Scale)
 	}
 	return rc, nil
 }
@@ -366,4 +406,94 @@ func radarNote(inds []dataset.Indicator, percentile bool) string {
 		s += " Spokes have different scales and are not comparable with each other."
 	}
 	return s
+}
+
+// commonRadar plans a radar whose spokes share one scale, from zero at the
+// centre to a round value at the rim: the form for shares of one whole
+// (a subject profile), where per-spoke ranges would make every profile
+// look extreme. The polygons are the focus's values and the groups'
+// medians; each spoke names its medians, the focus's values are printed at
+// its vertices, and the note states the scale.
+func commonRadar(m *figures.Model, spec *brief.ChartBlock, rc *RadarChart, inds []dataset.Indicator, groups []*figures.Group, year int, focusName string) (Chart, error) {
+	for _, ind := range inds[1:] {
+		if ind.Unit != inds[0].Unit {
+			return nil, specError(spec, "scale common puts every spoke on one scale, so the indicators need one unit: %s is %s and %s is %s; use scale: range or percentile", inds[0].Key, unitWords(inds[0]), ind.Key, unitWords(ind))
+		}
+	}
+	top := 0.0
+	medians := make([][]float64, len(groups))
+	for gi, g := range groups {
+		s := RadarSeries{Label: g.Name + ": median", Index: gi}
+		for _, ind := range inds {
+			v := math.NaN()
+			if d, ok := m.Distribution(g.Name, ind.Key, year); ok && d.N > 0 {
+				v = d.Median
+				top = math.Max(top, v)
+			}
+			s.Values = append(s.Values, v)
+		}
+		medians[gi] = s.Values
+		rc.Series = append(rc.Series, s)
+	}
+	f := RadarSeries{Label: focusName, Focus: true}
+	for _, ind := range inds {
+		v, ok := valueOf(m, ind, m.Focus, year)
+		if ok {
+			top = math.Max(top, v)
+		} else {
+			v = math.NaN()
+		}
+		f.Values = append(f.Values, v)
+	}
+	rc.Series = append(rc.Series, f)
+	if top <= 0 {
+		return nil, specError(spec, "no positive value to scale the radar by in %d", year)
+	}
+	step := ceilStep(top / 4)
+	outer := step * 4
+	rc.Common, rc.CommonStep, rc.Unit = true, step, inds[0]
+	for i, ind := range inds {
+		ax := RadarAxis{Label: shortName(ind), Inner: 0, Outer: outer}
+		var parts []string
+		for gi := range groups {
+			if v := medians[gi][i]; !math.IsNaN(v) {
+				parts = append(parts, valueText(ind, v))
+			}
+		}
+		switch {
+		case len(parts) == 1:
+			ax.InnerText = "median " + parts[0]
+		case len(parts) > 1:
+			ax.InnerText = "medians " + strings.Join(parts, ", ")
+		}
+		rc.Axes = append(rc.Axes, ax)
+	}
+	rc.Note = "Every spoke shares one scale, from 0 at the centre to " + ringText(inds[0], outer, step) + " at the rim (rings every " + ringText(inds[0], step, step) + "); values beside the points are " + focusName + "'s."
+	return rc, nil
+}
+
+// ceilStep rounds a positive step up to 1, 2, 2.5 or 5 times a power of
+// ten, so ring values read as round numbers (common practice, no source).
+func ceilStep(x float64) float64 {
+	if x <= 0 || math.IsNaN(x) || math.IsInf(x, 0) {
+		return 1
+	}
+	p := math.Pow(10, math.Floor(math.Log10(x)))
+	for _, k := range []float64{1, 2, 2.5, 5, 10} {
+		if k*p >= x*(1-1e-12) {
+			return k * p
+		}
+	}
+	return 10 * p
+}
+
+// ringText prints a ring value of a common-scale radar with the decimals
+// its step needs ("10%", not "10.0%"), in the indicator's unit.
+func ringText(ind dataset.Indicator, v, step float64) string {
+	d := 0
+	if step > 0 {
+		d = max(0, -int(math.Floor(math.Log10(step)+1e-9)))
+	}
+	ind.Decimals = d
+	return valueText(ind, v)
 }

@@ -3,6 +3,7 @@ package charts
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
@@ -20,6 +21,9 @@ import (
 type ScatterGroup struct {
 	Label string
 	X, Y  []float64
+	// N is the group's own n: its members with both values, counted
+	// whether or not an earlier group already drew them.
+	N int
 }
 
 // ScatterMark is a named point.
@@ -177,10 +181,13 @@ func (sc *ScatterChart) panels() *panels {
 	if len(sc.Marks) > 0 {
 		l.add(legendEntry{Text: "Named institution", Thumb: markerThumb(NamedMarker())})
 	}
+	shared := false
 	for gi, g := range sc.Groups {
 		mk := seriesMarker(GroupSeries(gi), vg.Points(2.6))
 		mk.Fill = tint(mk.Fill, 170)
-		l.add(legendEntry{Text: fmt.Sprintf("%s (n = %d)", g.Label, countPairs(g)), Thumb: markerThumb(mk)})
+		n := max(g.N, countPairs(g))
+		shared = shared || n > countPairs(g)
+		l.add(legendEntry{Text: fmt.Sprintf("%s (n = %d)", g.Label, n), Thumb: markerThumb(mk)})
 	}
 	if sc.Fit != nil {
 		ls := draw.LineStyle{Color: greyText, Width: vg.Points(1), Dashes: []vg.Length{vg.Points(4), vg.Points(2)}}
@@ -189,6 +196,11 @@ func (sc *ScatterChart) panels() *panels {
 	}
 	if sc.NoFit != "" {
 		l.note = sc.NoFit
+	}
+	if shared {
+		// Each group's n counts all its members; a point in two groups is
+		// drawn once, so say in which colour.
+		l.note = strings.TrimSpace(l.note + " An institution in more than one group is drawn once, in the colour of the first group listed.")
 	}
 	sc.built = ps
 	return ps
@@ -227,6 +239,9 @@ func newScatter(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 	for _, g := range groups {
 		sg := ScatterGroup{Label: g.Name}
 		for _, pr := range m.MemberPairs(g.Name, sc.XInd.Key, sc.YInd.Key, year) {
+			if !math.IsNaN(pr.X) && !math.IsNaN(pr.Y) {
+				sg.N++
+			}
 			if seen[pr.Institution] {
 				continue
 			}

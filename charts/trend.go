@@ -253,7 +253,7 @@ func (t *TrendPlotter) drawEnds(c *draw.Canvas, ends []endLabel, lastX vg.Length
 	}
 	h := textHeight(t.Theme.labelStyle()) + endPad
 	room := c.Max.Y - c.Min.Y
-	if fit := int(room / h); len(ends) > fit {
+	if fit := max(int(room/h), 0); len(ends) > fit {
 		t.Dropped += len(ends) - fit
 		ends = ends[:fit]
 	}

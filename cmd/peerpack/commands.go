@@ -5,6 +5,7 @@ import (
 	"fmt"
 	iofs "io/fs"
 	"path/filepath"
+	"runtime/debug"
 	"strings"
 	"time"
 
@@ -32,16 +33,19 @@ Examples:
   peerpack build brief.md -o pack.pdf --watch
   SOURCE_DATE_EPOCH=1764547200 peerpack build brief.md -o pack.pdf`},
 		{name: "check", summary: "validate a brief and its data, and summarise coverage", run: runCheck, usage: `Usage:
-  peerpack check BRIEF.md [--root DIR]
+  peerpack check BRIEF.md [--root DIR] [--json]
 
 Checks the brief (front matter and every block) and loads everything it
 names, lays the pack out in memory (writing nothing), then prints
 institutions, years, indicators, coverage per indicator,
 year and group, and anything suspicious. Lists every problem, not just the
 first. Exit 0 when the brief would build, 1 when it would not.
+With --json the same report, problems included, is one JSON document on
+standard output (its fields are listed in the README).
 
 Examples:
   peerpack check brief.md
+  peerpack check --json brief.md > check.json
   peerpack check --root ../shared briefs/brief.md`},
 		{name: "demo", summary: "build the demo pack from the embedded demo scenario", run: runDemo, usage: `Usage:
   peerpack demo [-o demo.pdf] [--figures figures.csv]
@@ -143,6 +147,7 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 	c := findCommand("check")
 	fs := newFlags(c, e)
 	root := fs.String("root", "", "folder that every input path must stay inside (default: the brief's folder)")
+	asJSON := fs.Bool("json", false, "write the report as one JSON document on standard output (fields in the README)")
 	pos, code, ok := parseArgs(c, e, fs, args)
 	if !ok {
 		return code
@@ -150,6 +155,9 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 	if len(pos) != 1 {
 		e.errorf("check needs one brief\nExample: peerpack check brief.md\n")
 		return exitUsage
+	}
+	if *asJSON {
+		return runCheckJSON(e, pos[0], *root)
 	}
 	src, err := build.OpenSource(pos[0], *root)
 	if err != nil {
@@ -234,7 +242,7 @@ func runNew(ctx context.Context, e *env, args []string) int {
 }
 
 func runVersion(ctx context.Context, e *env, args []string) int {
-	fmt.Fprintf(e.stdout, "peerpack %s\n", version)
+	fmt.Fprint(e.stdout, versionReport(debug.ReadBuildInfo()))
 	return exitOK
 }
 
@@ -277,4 +285,34 @@ func reportError(e *env, err error) int {
 		fmt.Fprintf(e.stderr, "%d problems found.\n", len(lines))
 	}
 	return exitInput
+}
+
+// runCheckJSON is `check --json`: the same checks, reported as one JSON
+// document on standard output whether or not the brief would build, so a
+// pipeline always has something to parse; the exit code is as for check.
+func runCheckJSON(e *env, path, root string) int {
+	var doc *build.CheckJSON
+	src, err := build.OpenSource(path, root)
+	if err != nil {
+		doc = build.NewCheckJSON(path, nil, err)
+	} else {
+		in, lerr := build.LoadWith(src, nil, e.limits)
+		if lerr == nil {
+			_, lerr = build.Pack(in, time.Unix(0, 0).UTC(), version)
+		}
+		doc = build.NewCheckJSON(src.Display, in, lerr)
+		if raw, rerr := iofs.ReadFile(src.FS, src.Brief); rerr == nil {
+			for _, n := range templates.EditNotes(raw) {
+				doc.StillToEdit = append(doc.StillToEdit, build.CheckEditNote{Line: n.Line, Text: n.Text})
+			}
+		}
+	}
+	if werr := doc.Write(e.stdout); werr != nil {
+		e.errorf("cannot write the report: %v\n", werr)
+		return exitInput
+	}
+	if !doc.WouldBuild {
+		return exitInput
+	}
+	return exitOK
 }

@@ -26,9 +26,6 @@ const (
 	exitUsage = 2 // wrong usage
 )
 
-// version is set at release time with -ldflags "-X main.version=...".
-var version = "0.1.0-dev"
-
 type command struct {
 	name    string
 	summary string

@@ -19,20 +19,11 @@ const watchInterval = time.Second
 // watchFiles lists the brief and every data file it names, as paths
 // inside the source's root.
 func watchFiles(src build.Source, b *brief.Brief) []string {
-	files := []string{src.Brief}
-	if b == nil {
-		return files
+	var files []string
+	for _, f := range build.InputFiles(src, b) {
+		files = append(files, f.Path)
 	}
-	d := b.Data
-	files = append(files, d.Register, d.Dictionary, d.PPP, d.Papers.File, d.Papers.Baselines, d.Votes.File, d.Votes.Targets, b.Theme.Logo)
-	files = append(files, d.Values...)
-	out := files[:0]
-	for _, f := range files {
-		if f != "" {
-			out = append(out, strings.SplitN(f, "#", 2)[0])
-		}
-	}
-	return out
+	return files
 }
 
 func fingerprint(fsys fs.FS, files []string) string {

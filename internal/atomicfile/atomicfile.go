@@ -8,10 +8,13 @@ package atomicfile
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
+	"strings"
 )
 
 // WriteFile writes data to path atomically with the given permissions.
@@ -24,7 +27,38 @@ func WriteFile(ctx context.Context, path string, data []byte, perm os.FileMode) 
 
 // Write calls fill with a writer onto a temporary file beside path and, if
 // fill succeeds and ctx is not cancelled, renames it over path.
-func Write(ctx context.Context, path string, perm os.FileMode, fill func(io.Writer) error) (err error) {
+func Write(ctx context.Context, path string, perm os.FileMode, fill func(io.Writer) error) error {
+	var s Set
+	if err := s.Add(path, perm, fill); err != nil {
+		return err
+	}
+	return s.Commit(ctx)
+}
+
+// Set writes several files as one outcome: every file goes to its own
+// temporary beside its target, and none replaces its target until all are
+// complete and flushed. A failure while any is written (a full disk while
+// the last of three is written) leaves every target as it was.
+type Set struct {
+	pending []pending
+}
+
+type pending struct {
+	target, tmp string
+	perm        os.FileMode
+}
+
+// Add writes one file of the set to its temporary. On error the set is
+// discarded: temporaries written so far are removed.
+func (s *Set) Add(path string, perm os.FileMode, fill func(io.Writer) error) (err error) {
+	defer func() {
+		if err != nil {
+			s.Discard()
+		}
+	}()
+	if err := CheckTarget(path); err != nil {
+		return err
+	}
 	dir, base := filepath.Split(path)
 	if dir == "" {
 		dir = "."
@@ -34,31 +68,106 @@ func Write(ctx context.Context, path string, perm os.FileMode, fill func(io.Writ
 		return fmt.Errorf("cannot write %s: %w (is the folder there and writable?)", path, unwrapPath(err))
 	}
 	name := tmp.Name()
-	defer func() {
-		if err != nil {
-			tmp.Close()
-			os.Remove(name)
+	fail := func(err error) error {
+		tmp.Close()
+		os.Remove(name)
+		return fmt.Errorf("writing %s failed: %w; the previous file, if any, is untouched", path, unwrapPath(err))
+	}
+	if err := fill(tmp); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Sync(); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Close(); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("writing %s failed: %w; the previous file, if any, is untouched", path, unwrapPath(err))
+	}
+	s.pending = append(s.pending, pending{target: path, tmp: name, perm: perm})
+	return nil
+}
+
+// Commit renames every temporary over its target, unless ctx is cancelled
+// (then, as on any error before the first rename, nothing is replaced).
+// Renames within a folder are atomic (POSIX rename(2)); the set as a whole
+// is not, but every file is complete before the first rename.
+func (s *Set) Commit(ctx context.Context) error {
+	defer s.Discard()
+	if err := ctx.Err(); err != nil {
+		return fmt.Errorf("interrupted before %s was replaced; the previous files, if any, are untouched", s.targets())
+	}
+	for _, p := range s.pending {
+		if err := CheckTarget(p.target); err != nil {
+			return err
 		}
-	}()
-	if err = fill(tmp); err != nil {
-		return fmt.Errorf("writing %s failed: %w; the previous file, if any, is untouched", path, unwrapPath(err))
+		if err := os.Chmod(p.tmp, p.perm); err != nil {
+			return fmt.Errorf("cannot set permissions on %s: %w", p.target, unwrapPath(err))
+		}
 	}
-	if err = tmp.Sync(); err != nil {
-		return fmt.Errorf("writing %s failed: %w; the previous file, if any, is untouched", path, unwrapPath(err))
-	}
-	if err = tmp.Close(); err != nil {
-		return fmt.Errorf("writing %s failed: %w; the previous file, if any, is untouched", path, unwrapPath(err))
-	}
-	if err = ctx.Err(); err != nil {
-		return fmt.Errorf("interrupted before %s was replaced; the previous file, if any, is untouched", path)
-	}
-	if err = os.Chmod(name, perm); err != nil {
-		return fmt.Errorf("cannot set permissions on %s: %w", path, unwrapPath(err))
-	}
-	if err = os.Rename(name, path); err != nil {
-		return fmt.Errorf("cannot replace %s: %w", path, unwrapPath(err))
+	for i, p := range s.pending {
+		if err := os.Rename(p.tmp, p.target); err != nil {
+			return fmt.Errorf("cannot replace %s: %w", p.target, unwrapPath(err))
+		}
+		s.pending[i].tmp = ""
 	}
 	return nil
+}
+
+// Discard removes the temporaries not yet renamed.
+func (s *Set) Discard() {
+	for _, p := range s.pending {
+		if p.tmp != "" {
+			os.Remove(p.tmp)
+		}
+	}
+	s.pending = nil
+}
+
+func (s *Set) targets() string {
+	names := make([]string, len(s.pending))
+	for i, p := range s.pending {
+		names[i] = p.target
+	}
+	if len(names) == 0 {
+		return "anything"
+	}
+	return strings.Join(names, " and ")
+}
+
+// CheckTarget refuses a target that a rename would wrongly replace: a
+// folder (rename fails with a bare "file exists"), a device, pipe or
+// socket (as root, rename would swap /dev/full for a plain file), or a
+// symbolic link (rename replaces the link, not the file it points to).
+// A regular file or a name that does not exist yet is fine.
+func CheckTarget(path string) error {
+	fi, err := os.Lstat(path)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil
+	}
+	if err != nil {
+		return fmt.Errorf("cannot write %s: %w", path, unwrapPath(err))
+	}
+	switch m := fi.Mode(); {
+	case m.IsRegular():
+		return nil
+	case m.IsDir():
+		return &TargetError{Path: path, Kind: "a folder", Fix: "give a file name inside it, e.g. " + filepath.Join(path, "pack.pdf")}
+	case m&fs.ModeSymlink != 0:
+		return &TargetError{Path: path, Kind: "a symbolic link", Fix: "give the path of the file it points to, or a new name"}
+	case m&fs.ModeDevice != 0:
+		return &TargetError{Path: path, Kind: "a device", Fix: "give the name of a regular file (an existing one is replaced) or a new name"}
+	default:
+		return &TargetError{Path: path, Kind: "a pipe or socket, not a regular file", Fix: "give the name of a regular file (an existing one is replaced) or a new name"}
+	}
+}
+
+// TargetError is an output path that is not a regular file or a new name.
+type TargetError struct {
+	Path, Kind, Fix string
+}
+
+func (e *TargetError) Error() string {
+	return fmt.Sprintf("%s: cannot write there: it is %s; %s", e.Path, e.Kind, e.Fix)
 }
 
 func unwrapPath(err error) error {

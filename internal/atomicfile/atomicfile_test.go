@@ -131,3 +131,59 @@ func assertNoTemporaries(t *testing.T, dir string) {
 		}
 	}
 }
+
+// A set of files is one outcome: the second file's failure (a full disk,
+// ENOSPC from write(2), POSIX) leaves the first target untouched too.
+func TestSetFailureKeepsEveryPrevious(t *testing.T) {
+	dir := t.TempDir()
+	a, b := filepath.Join(dir, "pack.pdf"), filepath.Join(dir, "figures.csv")
+	os.WriteFile(a, []byte("previous pack"), 0o644)
+	os.WriteFile(b, []byte("previous figures"), 0o644)
+	var s Set
+	if err := s.Add(a, 0o644, func(w io.Writer) error { _, err := w.Write([]byte("new pack")); return err }); err != nil {
+		t.Fatal(err)
+	}
+	err := s.Add(b, 0o644, func(w io.Writer) error {
+		_, err := (&failingWriter{w: w, left: 3}).Write([]byte("new figures"))
+		return err
+	})
+	if err == nil {
+		t.Fatal("expected the failing writer's error")
+	}
+	if err := s.Commit(context.Background()); err != nil {
+		t.Fatalf("committing a discarded set: %v", err)
+	}
+	for path, want := range map[string]string{a: "previous pack", b: "previous figures"} {
+		if got, _ := os.ReadFile(path); string(got) != want {
+			t.Errorf("%s changed to %q", path, got)
+		}
+	}
+	ents, _ := os.ReadDir(dir)
+	if len(ents) != 2 {
+		t.Errorf("left behind: %v", ents)
+	}
+}
+
+// Targets a rename would wrongly replace are refused (common practice, no
+// source): a folder, a device, a symbolic link.
+func TestCheckTarget(t *testing.T) {
+	dir := t.TempDir()
+	os.WriteFile(filepath.Join(dir, "f"), nil, 0o644)
+	os.Symlink(filepath.Join(dir, "f"), filepath.Join(dir, "l"))
+	for path, want := range map[string]string{
+		filepath.Join(dir, "new"): "",
+		filepath.Join(dir, "f"):   "",
+		dir:                       "a folder",
+		filepath.Join(dir, "l"):   "a symbolic link",
+		"/dev/null":               "a device",
+	} {
+		err := CheckTarget(path)
+		var te *TargetError
+		switch {
+		case want == "" && err != nil:
+			t.Errorf("%s: %v", path, err)
+		case want != "" && (!errors.As(err, &te) || te.Kind != want):
+			t.Errorf("%s: got %v, want %s", path, err, want)
+		}
+	}
+}

@@ -8,6 +8,7 @@ package batch
 import (
 	"context"
 	"fmt"
+	"hash/fnv"
 	"io"
 	"io/fs"
 	"path/filepath"
@@ -23,12 +24,15 @@ import (
 	"peerpack/internal/diag"
 	"peerpack/internal/format"
 	"peerpack/internal/tabular"
+	"peerpack/internal/yamlx"
 )
 
 // Job is one pack to build.
 type Job struct {
-	// Line is the plan row it came from (0 for group members).
+	// Line is the plan row it came from (0 for group members), and Plan
+	// the plan's name as messages show it.
 	Line   int
+	Plan   string
 	Focus  string
 	Output string
 	// Title, Subtitle, Audience and Accent override the brief when set.
@@ -90,7 +94,7 @@ func ReadPlan(fsys fs.FS, name, display string) ([]Job, error) {
 		if len(row) == 0 {
 			continue
 		}
-		j := Job{Line: row[0].Line, Focus: get(row, "focus"), Output: get(row, "output"),
+		j := Job{Line: row[0].Line, Plan: display, Focus: get(row, "focus"), Output: get(row, "output"),
 			Title: get(row, "title"), Subtitle: get(row, "subtitle"), Audience: get(row, "audience"), Accent: get(row, "accent")}
 		if j.Focus == "" || j.Output == "" {
 			l.Addf(display, j.Line, 1, "a plan row needs both focus and output")
@@ -103,11 +107,13 @@ func ReadPlan(fsys fs.FS, name, display string) ([]Job, error) {
 		if !strings.HasSuffix(strings.ToLower(j.Output), ".pdf") {
 			j.Output += ".pdf"
 		}
-		if prev, ok := outputs[j.Output]; ok {
+		// Compared without case: on the case-insensitive file systems of
+		// macOS and Windows A.pdf and a.pdf are one file.
+		if prev, ok := outputs[strings.ToLower(j.Output)]; ok {
 			l.Addf(display, j.Line, 1, "output %q is also written by line %d; give each pack its own file name", j.Output, prev)
 			continue
 		}
-		outputs[j.Output] = j.Line
+		outputs[strings.ToLower(j.Output)] = j.Line
 		jobs = append(jobs, j)
 	}
 	return jobs, l.Err()
@@ -127,6 +133,34 @@ func GroupJobs(in *build.Inputs, group string) ([]Job, error) {
 	for _, inst := range g.Members {
 		id := in.Figures.InstitutionID(inst)
 		jobs = append(jobs, Job{Focus: id, Output: safeName(id) + ".pdf"})
+	}
+	return uniqueOutputs(jobs)
+}
+
+// uniqueOutputs gives every pack its own file: ids that make the same file
+// name ("sub/x" and "sub_x" both become sub_x.pdf; KE001 and ke001 are one
+// file where names ignore case) each get a suffix from a hash of the id
+// (FNV-1a), so the names do not depend on the register's order. Should two
+// suffixed names still meet, the collision is an error naming both ids.
+func uniqueOutputs(jobs []Job) ([]Job, error) {
+	count := map[string]int{}
+	for _, j := range jobs {
+		count[strings.ToLower(j.Output)]++
+	}
+	for i, j := range jobs {
+		if count[strings.ToLower(j.Output)] > 1 {
+			h := fnv.New32a()
+			h.Write([]byte(j.Focus))
+			jobs[i].Output = fmt.Sprintf("%s-%08x.pdf", strings.TrimSuffix(j.Output, ".pdf"), h.Sum32())
+		}
+	}
+	seen := map[string]string{}
+	for _, j := range jobs {
+		key := strings.ToLower(j.Output)
+		if other, ok := seen[key]; ok {
+			return nil, fmt.Errorf("institutions %q and %q would both be written to %s; build them with a plan (--plan) that names each output", other, j.Focus, j.Output)
+		}
+		seen[key] = j.Focus
 	}
 	return jobs, nil
 }
@@ -217,6 +251,15 @@ func runOne(ctx context.Context, base *build.Inputs, j Job, opt Options) (o Outc
 		}
 		o.Elapsed = time.Since(start)
 	}()
+	if j.Plan != "" && base.Data.Register.Index(j.Focus) < 0 {
+		// Point at the plan's row, where the fix is, not at the brief.
+		msg := fmt.Sprintf("focus %q is not in the register %s", j.Focus, base.Data.Register.File)
+		if s := yamlx.Nearest(j.Focus, registerIDs(base)); s != "" {
+			msg += fmt.Sprintf("; did you mean %q?", s)
+		}
+		o.Err = diag.At(j.Plan, j.Line, 1, "%s", msg)
+		return o
+	}
 	in, err := build.Refocus(base, func(b *brief.Brief) {
 		b.Focus = j.Focus
 		if j.Title != "" {
@@ -248,6 +291,14 @@ func runOne(ctx context.Context, base *build.Inputs, j Job, opt Options) (o Outc
 	}
 	o.Bytes = len(pdf)
 	return o
+}
+
+func registerIDs(in *build.Inputs) []string {
+	ids := make([]string, len(in.Data.Register.Institutions))
+	for i, inst := range in.Data.Register.Institutions {
+		ids[i] = inst.ID
+	}
+	return ids
 }
 
 // WriteSummary prints a table of outcomes, failures first named with

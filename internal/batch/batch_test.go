@@ -9,6 +9,7 @@ import (
 	"testing"
 	"testing/fstest"
 	"time"
+	"unicode/utf8"
 
 	"peerpack/internal/build"
 	"peerpack/internal/demo"
@@ -161,5 +162,150 @@ func BenchmarkSoak200(b *testing.B) {
 	b.ReportMetric(growth, "MiB-heap-growth")
 	if growth > 64 {
 		b.Fatalf("heap grew by %.1f MiB over 180 builds; the bound is 64 MiB", growth)
+	}
+}
+
+// A bar line must fit the terminal one column short (a full-width line
+// makes terminals wrap, and each redraw becomes a new line) and cut names
+// between characters: common practice, no source. Column widths of wide
+// characters from Unicode Standard Annex #11 (East Asian Width).
+func TestBarLineFitsAndCutsOnCharacters(t *testing.T) {
+	names := []string{
+		"packs/a.pdf",
+		"packs/" + strings.Repeat("Ångström-Ünïvërsïty-", 6) + ".pdf",
+		"packs/" + strings.Repeat("東京大学", 20) + ".pdf",
+		"packs/" + strings.Repeat("e\u0301", 60) + ".pdf",
+	}
+	for _, cols := range []int{20, 40, 80, 200} {
+		for _, n := range names {
+			got := barLine(7, 50, 1, n, cols-1)
+			if !utf8.ValidString(got) {
+				t.Errorf("cols %d: cut inside a UTF-8 sequence: %q", cols, got)
+			}
+			if c := columns(got); c != cols-1 {
+				t.Errorf("cols %d: line is %d columns, want %d: %q", cols, c, cols-1, got)
+			}
+			if strings.ContainsAny(got, "\r\n") {
+				t.Errorf("cols %d: line breaks in %q", cols, got)
+			}
+		}
+	}
+	if got := barLine(25, 50, 0, "x.pdf", 79); !strings.Contains(got, "25/50 packs, 0 failed  x.pdf") || !strings.HasPrefix(got, "[############.............]") {
+		t.Errorf("80 columns: %q", got)
+	}
+}
+
+// Column counts: ASCII 1, CJK ideographs and fullwidth forms 2, combining
+// acute accent 0 (Unicode Standard Annex #11 and the Unicode character
+// database, from memory).
+func TestRuneColumns(t *testing.T) {
+	for _, c := range []struct {
+		r    rune
+		want int
+	}{{'a', 1}, {'Å', 1}, {'東', 2}, {'Ａ', 2}, {'\u0301', 0}, {'\t', 0}} {
+		if got := runeColumns(c.r); got != c.want {
+			t.Errorf("runeColumns(%q) = %d, want %d", c.r, got, c.want)
+		}
+	}
+}
+
+// /dev/null is a character device but not a terminal: the progress must
+// be plain lines there (isatty(3), from memory).
+func TestProgressOffTerminal(t *testing.T) {
+	f, err := os.OpenFile(os.DevNull, os.O_WRONLY, 0)
+	if err != nil {
+		t.Skip(err)
+	}
+	defer f.Close()
+	if _, ok := NewProgress(f).(*lines); !ok {
+		t.Errorf("%s counted as a terminal", os.DevNull)
+	}
+}
+
+// A redraw through the bar starts with a carriage return and never ends
+// a line until Finish.
+func TestBarRedrawsInPlace(t *testing.T) {
+	var buf bytes.Buffer
+	b := &bar{w: &buf, cols: func() int { return 40 }}
+	b.Start(3)
+	for i := 1; i <= 3; i++ {
+		b.Done(Outcome{Job: Job{Output: "out/" + strings.Repeat("名", 30) + ".pdf"}}, i, 3)
+	}
+	if strings.Contains(buf.String(), "\n") {
+		t.Errorf("a redraw ended a line: %q", buf.String())
+	}
+	for _, seg := range strings.Split(buf.String(), "\r")[1:] {
+		if c := columns(seg); c != 39 {
+			t.Errorf("redraw is %d columns on a 40-column terminal: %q", c, seg)
+		}
+	}
+	b.Finish()
+}
+
+// Ids that make the same file name each get their own file (common
+// practice, no source: a batch must never report a pack built that a
+// later pack overwrote), in a way that does not depend on their order.
+func TestGroupOutputsAreUnique(t *testing.T) {
+	ids := []string{"sub/x", "sub_x", "KE001", "ke001", "AL002"}
+	var jobs []Job
+	for _, id := range ids {
+		jobs = append(jobs, Job{Focus: id, Output: safeName(id) + ".pdf"})
+	}
+	got, err := uniqueOutputs(jobs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	seen := map[string]bool{}
+	names := map[string]string{}
+	for _, j := range got {
+		key := strings.ToLower(j.Output)
+		if seen[key] {
+			t.Errorf("%s written twice", j.Output)
+		}
+		seen[key] = true
+		names[j.Focus] = j.Output
+		if !strings.HasSuffix(j.Output, ".pdf") || strings.ContainsAny(j.Output, "/\\") {
+			t.Errorf("%q is not a plain PDF file name", j.Output)
+		}
+	}
+	if names["AL002"] != "AL002.pdf" {
+		t.Errorf("an id that collides with nothing keeps its plain name, got %s", names["AL002"])
+	}
+	// The same ids in another order get the same names.
+	var rev []Job
+	for i := len(ids) - 1; i >= 0; i-- {
+		rev = append(rev, Job{Focus: ids[i], Output: safeName(ids[i]) + ".pdf"})
+	}
+	again, _ := uniqueOutputs(rev)
+	for _, j := range again {
+		if names[j.Focus] != j.Output {
+			t.Errorf("%s: %s in one order, %s in another", j.Focus, names[j.Focus], j.Output)
+		}
+	}
+}
+
+// Plan outputs differing only in case are one file on macOS and Windows.
+func TestPlanOutputsDifferingInCase(t *testing.T) {
+	fsys := fstest.MapFS{"plan.csv": {Data: []byte("focus,output\nKE001,Pack.pdf\nKE002,pack\n")}}
+	_, err := ReadPlan(fsys, "plan.csv", "plan.csv")
+	want := `plan.csv:3:1: output "pack.pdf" is also written by line 2; give each pack its own file name`
+	if err == nil || err.Error() != want {
+		t.Errorf("got  %v\nwant %s", err, want)
+	}
+}
+
+// A plan's unknown focus is reported at the plan's row, where the fix is.
+func TestPlanFocusErrorAtPlanRow(t *testing.T) {
+	in := loadDemo(t)
+	id := in.Figures.InstitutionID(in.Figures.Groups[0].Members[0])
+	fsys := fstest.MapFS{"plan.csv": {Data: []byte("focus,output\n" + id + "X,a.pdf\n")}}
+	jobs, err := ReadPlan(fsys, "plan.csv", "plans/plan.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	outs := Run(context.Background(), in, jobs, Options{OutDir: t.TempDir(), Workers: 1, Created: created, Version: "test"})
+	want := `plans/plan.csv:2:1: focus "` + id + `X" is not in the register institutions.csv; did you mean "` + id + `"?`
+	if outs[0].Err == nil || outs[0].Err.Error() != want {
+		t.Errorf("got  %v\nwant %s", outs[0].Err, want)
 	}
 }

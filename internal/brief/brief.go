@@ -291,7 +291,9 @@ type ChartBlock struct {
 	Size string `yaml:"size"`
 	// Orientation is horizontal (default for box) or vertical.
 	Orientation string `yaml:"orientation"`
-	// Scale, for radar axes: percentile (default) or range.
+	// Scale, for radar axes: percentile (default), range (each spoke over
+	// the values shown) or common (one scale from zero for every spoke,
+	// for shares of one whole).
 	Scale string `yaml:"scale"`
 	// Fit adds a least-squares line to a scatter.
 	Fit bool `yaml:"fit"`
@@ -399,9 +401,5 @@ func oneOf(v string, set []string) bool {
 }
 
 func quoteList(set []string) string {
-	q := make([]string, len(set))
-	for i, s := range set {
-		q[i] = s
-	}
-	return strings.Join(q, ", ")
+	return strings.Join(set, ", ")
 }

@@ -455,6 +455,52 @@ func decodeBlock(file, info string, content []byte, fenceLine int, lim yamlx.Lim
 	return blk, nil
 }
 
+// checkChartCounts refuses what a chart kind cannot show: a name listed
+// twice (a radar of [a, a, a] has one axis three times), more indicators
+// or groups than the kind draws (bars show one indicator for one group),
+// a row limit that is not a positive count, and options of another kind.
+func checkChartCounts(v *ChartBlock, bad func(Block, string, ...any)) {
+	for _, list := range []struct {
+		what  string
+		names []string
+	}{{"indicator", v.Indicators}, {"group", v.Groups}, {"institution", v.Label}} {
+		seen := map[string]int{}
+		for _, n := range list.names {
+			if seen[n]++; seen[n] == 2 {
+				bad(v, "chart block lists %s %q more than once; name each once", list.what, n)
+			}
+		}
+	}
+	if v.Type == "bars" && (len(v.Indicators) > 1 || len(v.Groups) > 1) {
+		bad(v, "a bars chart shows one indicator for one group, found %s and %s; make one bars chart for each, or use a heatmap for several indicators", plural(len(v.Indicators), "indicator"), plural(len(v.Groups), "group"))
+	}
+	if v.Limit != 0 {
+		switch {
+		case v.Type != "bars" && v.Type != "heatmap" && v.Type != "":
+			bad(v, "limit: caps the rows of a bars or heatmap chart; a %s chart has no rows to cap, so remove it", v.Type)
+		case v.Limit < 1 || v.Limit > MaxChartRows:
+			bad(v, "chart limit: %d; give the number of rows to show, from 1 to %d", v.Limit, MaxChartRows)
+		}
+	}
+	if v.Fit && v.Type != "scatter" && v.Type != "" {
+		bad(v, "fit: draws a line through a scatter chart; a %s chart has none, so remove it", v.Type)
+	}
+	if v.Scale != "" && v.Type != "radar" && v.Type != "" {
+		bad(v, "scale: sets a radar chart's axes; a %s chart does not use it, so remove it", v.Type)
+	}
+}
+
+// MaxChartRows caps a bars or heatmap chart's limit: more rows than fit on
+// a page cannot be read (a page holds about 60 bars at the chart's pitch).
+const MaxChartRows = 60
+
+func plural(n int, word string) string {
+	if n == 1 {
+		return "1 " + word
+	}
+	return fmt.Sprintf("%d %ss", n, word)
+}
+
 func (b *Brief) validateBlocks() error {
 	var l diag.List
 	bad := func(blk Block, format string, args ...any) {
@@ -476,6 +522,7 @@ func (b *Brief) validateBlocks() error {
 			if len(v.Indicators) == 0 && v.Type != "" {
 				bad(v, "chart block needs indicators: a list of indicator keys from the dictionary")
 			}
+			checkChartCounts(v, bad)
 			if v.Type == "scatter" && len(v.Indicators) != 2 {
 				bad(v, "a scatter chart takes exactly two indicators (x then y), found %d", len(v.Indicators))
 			}
@@ -495,9 +542,9 @@ func (b *Brief) validateBlocks() error {
 				bad(v, "chart orientation %q: use horizontal or vertical", v.Orientation)
 			}
 			switch v.Scale {
-			case "", "percentile", "range":
+			case "", "percentile", "range", "common":
 			default:
-				bad(v, "radar scale %q: use percentile or range", v.Scale)
+				bad(v, "radar scale %q: use percentile, range or common", v.Scale)
 			}
 		case *TableBlock:
 			if v.Type == "" {

@@ -45,7 +45,7 @@ func TestReadmeExamplesParse(t *testing.T) {
 			t.Errorf("the README has no example of the %s chart", k)
 		}
 	}
-	if !strings.Contains(readme, "{=value fwci}") {
+	if !strings.Contains(readme, "{=value citation_impact}") {
 		t.Error("the README has no inline figure example")
 	}
 }

@@ -38,6 +38,9 @@ type Source struct {
 	Brief string
 	// Display is how messages name the brief (the path the user typed).
 	Display string
+	// Dir is the root folder on disk (absolute), empty for an in-memory
+	// FS; builds use it to refuse an output that is one of their inputs.
+	Dir string
 }
 
 // OpenSource opens a brief on disk. Its data paths are confined to root,
@@ -63,7 +66,7 @@ func OpenSource(briefPath, root string) (Source, error) {
 	if err != nil {
 		return Source{}, diag.At(root, 0, 0, "cannot open the folder: %v", unwrap(err))
 	}
-	return Source{FS: r.FS(), Brief: filepath.ToSlash(rel), Display: briefPath}, nil
+	return Source{FS: r.FS(), Brief: filepath.ToSlash(rel), Display: briefPath, Dir: absRoot}, nil
 }
 
 func unwrap(err error) error {
@@ -216,7 +219,8 @@ type Options struct {
 	Override func(*brief.Brief)
 	// Limits cap every input; the zero value means the defaults.
 	Limits limits.Limits
-	// AfterStage, when set, is called after each stage ("load", "pack")
+	// AfterStage, when set, is called after each stage ("load", "pack",
+	// "written": every output in its temporary, none renamed yet)
 	// with the stage's name; tests use it to interrupt a build part way.
 	AfterStage func(stage string)
 }
@@ -272,8 +276,14 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 			opt.AfterStage(stage)
 		}
 	}
+	if err := checkOutputKinds(opt); err != nil {
+		return nil, err
+	}
 	in, err := LoadWith(src, opt.Override, opt.Limits)
 	if err != nil {
+		return nil, err
+	}
+	if err := checkOutputsAgainstInputs(opt, src, in.Brief); err != nil {
 		return nil, err
 	}
 	after("load")
@@ -289,22 +299,36 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	if err := ctx.Err(); err != nil {
 		return nil, interrupted(opt.Output)
 	}
-	if err := atomicfile.WriteFile(ctx, opt.Output, pdf, 0o644); err != nil {
+	// One build, one outcome: every output is written in full to a
+	// temporary first, and the targets are replaced only when all are.
+	var set atomicfile.Set
+	if err := set.Add(opt.Output, 0o644, writeBytes(pdf)); err != nil {
 		return nil, err
 	}
 	if opt.Figures != "" {
-		err := atomicfile.Write(ctx, opt.Figures, 0o644, func(w io.Writer) error { return figures.WriteCSV(w, in.Figures) })
+		err := set.Add(opt.Figures, 0o644, func(w io.Writer) error { return figures.WriteCSV(w, in.Figures) })
 		if err != nil {
 			return nil, err
 		}
 	}
 	if opt.Workbook != "" {
-		err := atomicfile.Write(ctx, opt.Workbook, 0o644, func(w io.Writer) error { return WriteWorkbook(w, in.Figures) })
+		err := set.Add(opt.Workbook, 0o644, func(w io.Writer) error { return WriteWorkbook(w, in.Figures) })
 		if err != nil {
 			return nil, err
 		}
 	}
+	after("written")
+	if err := set.Commit(ctx); err != nil {
+		return nil, err
+	}
 	return &Result{Output: opt.Output, Bytes: len(pdf), Inputs: in}, nil
+}
+
+func writeBytes(b []byte) func(io.Writer) error {
+	return func(w io.Writer) error {
+		_, err := w.Write(b)
+		return err
+	}
 }
 
 func interrupted(out string) error {

@@ -145,6 +145,25 @@ func (l *loader) population(d *Dataset) {
 		out.FocusExcluded = true
 	}
 	l.rep.Population = out
+	if out.Included == 0 && n > 0 && len(p.Rules) > 0 {
+		// No statistic exists for an empty population: a rank "0th of 0"
+		// or a percentile of an empty group would be nonsense.
+		pos := b.PosOf("population")
+		l.probs.Addf(b.File, pos.Line, pos.Column, "the population rules leave no institution of the %s in the register to rank: %s; loosen a rule or remove it", thousands(n), ruleCounts(p))
+	}
+}
+
+// ruleCounts says how many each rule left out, in rule order.
+func ruleCounts(p *Population) string {
+	parts := make([]string, len(p.Rules))
+	for i, r := range p.Rules {
+		parts[i] = fmt.Sprintf("%q left out %s", r, thousands(p.RuleExcluded[i]))
+	}
+	s := strings.Join(parts, ", ")
+	if len(parts) > 1 {
+		s += " (an institution failing several rules counts under each)"
+	}
+	return s
 }
 
 // num prints a rule threshold or total with thousands separators

@@ -33,6 +33,9 @@ type Report struct {
 	Groups []GroupCoverage
 	// Problems is the number of problems Load found.
 	Problems int
+	// Notes are things done to the inputs that a reader should know of
+	// (a spreadsheet cell read in another unit, say); not problems.
+	Notes []string
 }
 
 // MaxSuspicious caps the suspicious values listed per kind and indicator.
@@ -264,6 +267,12 @@ func (r *Report) Write(w io.Writer) {
 			if n := r.SuspiciousCount[k] - listed[k]; n > 0 {
 				p("  ... and %s more %s\n", thousands(n), k)
 			}
+		}
+	}
+	if len(r.Notes) > 0 {
+		p("\nNotes\n")
+		for _, n := range r.Notes {
+			p("  %s\n", n)
 		}
 	}
 	if r.Problems == 0 {

@@ -48,13 +48,13 @@ type valuesReader struct {
 // maxUnknownNames caps the distinct unknown ids and keys remembered.
 const maxUnknownNames = 1000
 
-// tooMany is added instead of formatting a message once the problem list is
+// errTooMany is added instead of formatting a message once the problem list is
 // full, so a million bad rows cost no more than counting them.
-var tooMany = errors.New("too many problems")
+var errTooMany = errors.New("too many problems")
 
 func (v *valuesReader) addf(file string, c tabular.Cell, format string, args ...any) {
 	if v.l.probs.Len() >= maxProblems {
-		v.l.probs.Add(tooMany)
+		v.l.probs.Add(errTooMany)
 		return
 	}
 	v.l.probs.Addf(file, c.Line, c.Col, "%s%s", cellName(file, c), fmt.Sprintf(format, args...))

@@ -1,8 +1,9 @@
 // Package demo generates peerpack's demo scenario: an invented
 // higher-education world of six invented countries and about 900 invented
-// institutions, with an indicator dictionary, six years of values in both
-// the long and the wide shape, purchasing-power-parity factors, record-level
-// paper and survey samples, a client logo and the demo brief.
+// institutions, with an indicator dictionary of the scenario's own framework,
+// six years of values in both the long and the wide shape,
+// purchasing-power-parity factors, paper and survey-vote records with the
+// survey's target shares, a client logo and the demo brief.
 //
 // Everything is generated from Seed with math/rand/v2's PCG generator, whose
 // output sequence is specified and so stable across Go releases; the
@@ -47,6 +48,7 @@ const (
 	PPPName        = "ppp.csv"
 	PapersName     = "papers.csv"
 	VotesName      = "votes.csv"
+	TargetsName    = "survey-targets.csv" // country,share: whom the survey should represent
 	LogoName       = "logo.png"
 )
 

@@ -14,6 +14,10 @@ func generate(seed uint64) map[string][]byte {
 	insts := generateInstitutions(seed)
 	ppp := generatePPP(seed)
 	vals := generateValues(seed, insts, ppp)
+	// The vote records are drawn before the values file is written: the
+	// last year's peer_esteem is computed from them.
+	votes, weighted := votesCSV(seed, insts, vals)
+	esteemFromVotes(vals, weighted)
 	return map[string][]byte{
 		BriefName:      briefMD,
 		RegisterName:   registerCSV(insts),
@@ -22,7 +26,8 @@ func generate(seed uint64) map[string][]byte {
 		WideValuesName: wideCSV(insts, vals),
 		PPPName:        pppCSV(ppp),
 		PapersName:     papersCSV(seed, insts, vals),
-		VotesName:      votesCSV(seed, insts),
+		VotesName:      votes,
+		TargetsName:    targetsCSV(insts, vals),
 		LogoName:       logoPNG(),
 	}
 }

@@ -22,24 +22,32 @@ var missionNames = [...]string{"research", "technical", "comprehensive", "teachi
 
 func (m mission) String() string { return missionNames[m] }
 
-// subjects are the six broad subject areas of the output profile, in
-// dictionary order.
-var subjects = []struct{ Key, Label, Short string }{
-	{"subj_arts", "Share of output in arts and humanities", "Arts & humanities"},
-	{"subj_social", "Share of output in social sciences and business", "Social sciences"},
-	{"subj_life", "Share of output in life sciences", "Life sciences"},
-	{"subj_health", "Share of output in health and medicine", "Health"},
-	{"subj_physical", "Share of output in physical sciences", "Physical sciences"},
-	{"subj_engineering", "Share of output in engineering and computing", "Engineering"},
+// fields are the six broad fields of research and development of the OECD
+// Frascati Manual 2015 (Table 2.2, "Fields of Research and Development"),
+// an open standard, in dictionary order; the subject profile gives each
+// field's share of an institution's papers. Fine fields are the manual's
+// second-level codes (1.1 Mathematics, ..., 6.5 Other humanities), used in
+// the paper records; Fine lists how many each broad field has.
+var fields = []struct {
+	Key, Label, Short string
+	Fine              int
+}{
+	{"field_natural", "Share of papers in the natural sciences", "Natural sciences", 7},
+	{"field_engineering", "Share of papers in engineering and technology", "Engineering, technology", 11},
+	{"field_health", "Share of papers in the medical and health sciences", "Medical, health", 5},
+	{"field_agriculture", "Share of papers in the agricultural and veterinary sciences", "Agricultural, veterinary", 5},
+	{"field_social", "Share of papers in the social sciences", "Social sciences", 9},
+	{"field_humanities", "Share of papers in the humanities and the arts", "Humanities, arts", 5},
 }
 
 // institution is one generated institution: its register entry and the
 // latent traits its values are drawn from. The latent factors are the
 // scenario's model of why measures move together: one research-intensity
 // factor drives papers, citation impact, research income, doctorates and
-// reputation, so those correlate positively as they do in the trade's
+// esteem, so those correlate positively as they do in the trade's
 // published data; an internationalisation factor drives the international
-// shares.
+// shares; a student-support factor drives continuation, completion and
+// graduate outcomes; an exchange factor drives work with industry.
 type institution struct {
 	ID, Name, Short, Region, Status string
 	Country                         int // index into countries
@@ -56,8 +64,10 @@ type institution struct {
 	LogAcademics, Growth    float64 // log academic FTE in 2020, yearly log growth
 	StudentShift            float64 // log shift of students per academic
 	FundingShift            float64 // log shift of research income per academic
-	IndustryShift           float64 // log shift of industry income per academic
+	ExchangeShift           float64 // log shift of industry and exchange activity
 	ImpactShift             float64 // log shift of citation impact
+	Support                 float64 // student support: continuation, completion, outcomes
+	Finance                 float64 // financial health: operating surplus
 	Profile                 [6]float64
 	StaffFTE                int // all staff, last year, a register attribute
 }
@@ -128,7 +138,7 @@ func drawInstitution(r *rng, ci int, m mission, k int) institution {
 		in.Founded = 1860 + r.intn(120)
 		in.Research = 0.45 + 0.5*r.normal()
 		in.LogAcademics = math.Log(1200) + 0.45*r.normal()
-		in.IndustryShift = 0.9
+		in.ExchangeShift = 0.9
 	case missionComprehensive:
 		in.Founded = 1900 + r.intn(90)
 		in.Research = -0.1 + 0.55*r.normal()
@@ -170,17 +180,19 @@ func drawInstitution(r *rng, ci int, m mission, k int) institution {
 	in.IntlTrend = c.IntlTrend + 0.02*r.normal()
 	in.StudentShift += -0.12*in.Research + 0.15*r.normal()
 	in.FundingShift = c.Funding + 0.25*r.normal()
-	in.IndustryShift += 0.6 * r.normal()
+	in.ExchangeShift += 0.6 * r.normal()
 	in.ImpactShift = 0.12 * r.normal()
 	in.Profile = drawProfile(r, m, in.Spec)
+	in.Support = 0.25*in.Research + 0.5*r.normal()
+	in.Finance = 0.15*in.Research + 0.45*r.normal()
 	in.StaffFTE = 0 // set once the last year's academics are known
 	return in
 }
 
 // focusTraits sets the focus university's traits so that the demo pack has
 // a story to tell: strong citation impact and industry links, research
-// income near the sector median, a high student load and international
-// student numbers slipping.
+// income near the sector median, a high student load, a thin operating
+// surplus and international student numbers slipping.
 func focusTraits(in *institution) {
 	in.Founded = 1908
 	in.Mission = missionResearch
@@ -196,22 +208,26 @@ func focusTraits(in *institution) {
 	in.Growth = 0.006
 	in.StudentShift = 0.22
 	in.FundingShift = -0.05
-	in.IndustryShift = 0.75
+	in.ExchangeShift = 0.75
 	in.ImpactShift = 0.16
-	in.Profile = [6]float64{0.09, 0.17, 0.18, 0.16, 0.17, 0.23}
+	in.Support = 0.15
+	in.Finance = -0.35
+	// natural, engineering, health, agriculture, social, humanities
+	in.Profile = [6]float64{0.30, 0.22, 0.17, 0.04, 0.18, 0.09}
 }
 
 // profileAlpha are Dirichlet concentration parameters by mission for the
-// subject profile (arts, social, life, health, physical, engineering).
+// subject profile (natural, engineering, health, agriculture, social,
+// humanities).
 var profileAlpha = [...][6]float64{
-	missionResearch:      {3.6, 6.0, 6.6, 6.0, 6.0, 4.2},
-	missionTechnical:     {0.6, 2.0, 1.6, 1.0, 5.0, 10.0},
-	missionComprehensive: {2.5, 5.0, 3.0, 3.8, 3.0, 2.8},
-	missionTeaching:      {2.4, 6.0, 1.6, 5.0, 1.2, 2.0},
+	missionResearch:      {8.0, 5.0, 6.5, 1.5, 6.0, 3.8},
+	missionTechnical:     {6.0, 12.0, 1.2, 1.0, 2.0, 0.5},
+	missionComprehensive: {4.0, 3.0, 3.8, 1.0, 5.5, 2.8},
+	missionTeaching:      {1.5, 2.0, 5.0, 0.8, 6.0, 2.4},
 }
 
-// specSubject maps a specialism to its dominant subject.
-var specSubject = [...]int{specArts: 0, specMusic: 0, specHealth: 3, specAgriculture: 2, specBusiness: 1}
+// specField maps a specialism to its dominant field.
+var specField = [...]int{specArts: 5, specMusic: 5, specHealth: 2, specAgriculture: 3, specBusiness: 4}
 
 // drawProfile draws a subject profile as a Dirichlet vector through
 // normalised gamma draws (the standard construction, e.g. Devroye 1986,
@@ -222,7 +238,7 @@ func drawProfile(r *rng, m mission, sp specialism) [6]float64 {
 		for i := range alpha {
 			alpha[i] = 0.35
 		}
-		alpha[specSubject[sp]] = 12
+		alpha[specField[sp]] = 12
 	} else {
 		alpha = profileAlpha[m]
 	}

@@ -26,9 +26,9 @@ func TestDatasetLoadsTheScenario(t *testing.T) {
 	if len(d.Years) != LastYear-FirstYear+1 {
 		t.Errorf("loaded years %v", d.Years)
 	}
-	// Both money indicators are converted at PPP before derivation.
-	if d.PPP == nil || len(d.PPP.Converted) != 2 {
-		t.Errorf("PPP conversion: %+v, want research_income and industry_income converted", d.PPP)
+	// The three money indicators are converted at PPP before derivation.
+	if d.PPP == nil || len(d.PPP.Converted) != 3 {
+		t.Errorf("PPP conversion: %+v, want total_income, research_income and exchange_income converted", d.PPP)
 	}
 	// The population rule ranks some institutions and excludes others.
 	if d.Population == nil || len(d.Population.Excluded) == 0 || len(d.Population.Excluded) == d.Register.Len() {

@@ -5,109 +5,189 @@ import (
 	"math"
 	"sort"
 	"strconv"
+	"strings"
 )
 
 // ChosenPeers are the institutions the demo brief names as the focus
-// university's chosen peers; the record-level paper sample covers the focus
-// and these.
+// university's chosen peers; the paper sample holds more of their papers
+// than of other institutions'.
 var ChosenPeers = []string{"KE002", "KE004", "AL003", "OR002", "NV001", "WI002", "LU001"}
 
-// papersPerSampled is the number of papers sampled per sampled institution
-// and year.
-const papersPerSampled = 60
+// Paper sample sizes: every institution with papers in a year leads
+// between minSampled and maxSampled sampled papers that year (about one in
+// sampleEvery of its papers); the focus and its chosen peers lead
+// closeSampled each.
+const (
+	minSampled   = 2
+	maxSampled   = 12
+	sampleEvery  = 120
+	closeSampled = 40
+)
 
-// subjectExpected is the world-average citations of a paper by subject,
-// for a paper published in FirstYear; younger papers have had less time to
-// be cited (invented values shaped like the usual subject differences:
-// arts lowest, life sciences and health highest).
-var subjectExpected = [6]float64{2.1, 6.4, 16.8, 15.2, 12.5, 9.3}
+// fieldExpected is the world-average citations of an article by broad
+// field (Frascati order: natural, engineering, health, agriculture, social,
+// humanities) for a paper published in FirstYear, counted at the end of
+// LastYear. Invented values shaped like the usual field differences: the
+// humanities lowest, health and natural sciences highest.
+var fieldExpected = [6]float64{14.5, 9.8, 16.2, 8.1, 6.4, 2.2}
 
-// expectedCitations is the field-expected citation count for a paper of
-// the subject and year, counted at the end of LastYear; citations
-// accumulate roughly linearly in the first years after publication.
-func expectedCitations(subject, year int) float64 {
-	age := float64(LastYear-year) + 0.5
-	full := float64(LastYear-FirstYear) + 0.5
-	return math.Round(subjectExpected[subject]*age/full*100) / 100
+// paperTypes are the document types of the sample, with their share and
+// their citation level relative to an article (reviews are cited more,
+// conference papers less; common practice, no source).
+var paperTypes = []struct {
+	Name         string
+	Share, Level float64
+}{
+	{"article", 0.78, 1.0},
+	{"review", 0.07, 2.4},
+	{"conference paper", 0.15, 0.55},
 }
 
-// papersCSV writes the record-level paper sample: one row per paper and
-// affiliated institution.
+// expectedCitations is the expected citation count of a paper of the
+// field, year and type, counted at the end of LastYear; citations
+// accumulate roughly linearly in the first years after publication.
+func expectedCitations(field, year, typ int) float64 {
+	age := float64(LastYear-year) + 0.5
+	full := float64(LastYear-FirstYear) + 0.5
+	return fieldExpected[field] * age / full * paperTypes[typ].Level
+}
+
+// papersCSV writes the paper records: one row per paper with its year,
+// document type, fine fields (Frascati second-level codes, ";"-separated),
+// citations, the register ids of its institutions and their countries
+// (";"-separated) and the kinds of affiliation on it. Every institution
+// leads some sampled papers in every year it has papers; citations follow
+// its citation impact, international and industry co-authorship its
+// shares, fields its subject profile.
 func papersCSV(seed uint64, insts []institution, v *values) []byte {
 	r := stream(seed, 3)
-	idx := indexByID(insts)
-	sampled := append([]string{FocusID}, ChosenPeers...)
-	ys := years()
-	w := newCSV("paper", "year", "subject", "citations", "expected_citations", "institution", "country")
+	close := map[string]bool{FocusID: true}
+	for _, p := range ChosenPeers {
+		close[p] = true
+	}
+	w := newCSV("paper", "year", "type", "field", "citations", "institutions", "countries", "affiliation_types")
 	n := 0
-	for t, year := range ys {
-		// Co-author weights: an institution's papers in the year.
+	typeShares := make([]float64, len(paperTypes))
+	for i, pt := range paperTypes {
+		typeShares[i] = pt.Share
+	}
+	for t, year := range years() {
+		// Co-authors are drawn in proportion to an institution's papers
+		// in the year: from the lead's own country, from the other
+		// countries (the first co-author of an international paper), or
+		// from anywhere (the further co-authors of an international one).
 		weights := make([]float64, len(insts))
 		for i := range insts {
 			if p := v.v[i]["papers"][t]; !math.IsNaN(p) {
 				weights[i] = p
 			}
 		}
-		for _, id := range sampled {
-			lead := idx[id]
-			in := insts[lead]
-			share := v.v[lead]["intl_papers"][t] / v.v[lead]["papers"][t]
-			impact := v.v[lead]["fwci"][t]
-			for k := 0; k < papersPerSampled; k++ {
+		all := newSampler(weights, func(int) bool { return true })
+		home := make([]sampler, len(countries))
+		abroad := make([]sampler, len(countries))
+		for ci := range countries {
+			home[ci] = newSampler(weights, func(j int) bool { return insts[j].Country == ci })
+			abroad[ci] = newSampler(weights, func(j int) bool { return insts[j].Country != ci })
+		}
+		for lead, in := range insts {
+			papers := v.v[lead]["papers"][t]
+			if math.IsNaN(papers) || papers == 0 {
+				continue
+			}
+			k := int(math.Round(papers / sampleEvery))
+			k = max(minSampled, min(maxSampled, k))
+			if close[in.ID] {
+				k = closeSampled
+			}
+			intlShare := v.v[lead]["intl_coauthorship"][t] / 100
+			indShare := v.v[lead]["industry_coauthorship"][t] / 100
+			impact := v.v[lead]["citation_impact"][t]
+			for range k {
 				n++
-				subject := drawIndex(r, in.Profile[:])
-				exp := expectedCitations(subject, year)
-				// Citations are over-dispersed: a gamma-mixed Poisson
-				// (negative binomial) with mean exp x impact.
-				mean := exp * impact * r.gamma(1.2) / 1.2
-				cites := r.poisson(mean)
-				authors := []int{lead}
-				coauthors := r.poisson(1.4)
-				intl := r.chance(share)
-				// An international paper has a first co-author abroad; every
-				// other co-author of any paper is drawn from the lead's country
-				// unless the paper is already international.
-				for a := 0; a < coauthors+boolInt(intl) && len(authors) < 8; a++ {
-					for try := 0; try < 40; try++ {
-						j := drawIndex(r, weights)
-						foreign := insts[j].Country != in.Country
-						if contains(authors, j) || (intl && a == 0 && !foreign) || (!intl && foreign) {
-							continue
-						}
-						authors = append(authors, j)
-						break
+				field := drawIndex(r, in.Profile[:])
+				typ := drawIndex(r, typeShares)
+				fine := fmt.Sprintf("%d.%d", field+1, 1+r.intn(fields[field].Fine))
+				if r.chance(0.2) {
+					// Some papers are classified in a second fine field of
+					// the same broad field.
+					if other := fmt.Sprintf("%d.%d", field+1, 1+r.intn(fields[field].Fine)); other != fine {
+						fine += ";" + other
 					}
 				}
-				pid := fmt.Sprintf("P%05d", n)
-				for _, a := range authors {
-					w.row(pid, strconv.Itoa(year), subjects[subject].Key, strconv.Itoa(cites), num(exp, 2),
-						insts[a].ID, countries[insts[a].Country].Name)
+				// Citations are over-dispersed: a gamma-mixed Poisson
+				// (negative binomial) with mean expected x impact.
+				mean := expectedCitations(field, year, typ) * impact * r.gamma(1.2) / 1.2
+				cites := r.poisson(mean)
+				authors := []int{lead}
+				coauthors := r.poisson(1.3)
+				intl := r.chance(intlShare)
+				// An international paper has a first co-author abroad; every
+				// other co-author is drawn from the lead's country unless the
+				// paper is already international.
+				for a := 0; a < coauthors+boolInt(intl) && len(authors) < 8; a++ {
+					from := home[in.Country]
+					switch {
+					case intl && a == 0:
+						from = abroad[in.Country]
+					case intl:
+						from = all
+					}
+					for try := 0; try < 40; try++ {
+						if j := from.draw(r); !contains(authors, j) {
+							authors = append(authors, j)
+							break
+						}
+					}
 				}
+				kinds := []string{"academic"}
+				if r.chance(indShare) {
+					kinds = append(kinds, "industry")
+				}
+				if field == 2 && r.chance(0.35) {
+					kinds = append(kinds, "health")
+				}
+				var ids, cs []string
+				seen := map[string]bool{}
+				for _, a := range authors {
+					ids = append(ids, insts[a].ID)
+					if c := countries[insts[a].Country].Name; !seen[c] {
+						seen[c] = true
+						cs = append(cs, c)
+					}
+				}
+				w.row(fmt.Sprintf("P%06d", n), strconv.Itoa(year), paperTypes[typ].Name, fine, strconv.Itoa(cites),
+					strings.Join(ids, ";"), strings.Join(cs, ";"), strings.Join(kinds, ";"))
 			}
 		}
 	}
 	return w.bytes()
 }
 
-// votesCSV writes the record-level survey sample: one row per vote.
-// Respondents name institutions they consider among the best in their
-// subject, favouring research-intensive ones and, strongly, their own
-// country's (home bias, a well-known feature of such surveys).
-func votesCSV(seed uint64, insts []institution) []byte {
+// Survey size: respondents in the last year's peer survey, and how many
+// institutions each may name.
+const (
+	respondents   = 3000
+	maxNominated  = 5
+	homeBiasRatio = 4
+)
+
+// votesCSV writes the vote records of the last year's peer survey: one row
+// per nomination. Respondents name institutions they consider among the
+// best in their field, favouring research-intensive ones and, strongly,
+// their own country's (home bias, a well-known feature of such surveys).
+// It returns the file and each institution's nominations weighted so that
+// respondents match the target shares of their countries
+// (post-stratification on one variable: weight = target share / sample
+// share; e.g. Kalton and Flores-Cervantes 2003, "Weighting methods",
+// Journal of Official Statistics 19(2), from memory).
+func votesCSV(seed uint64, insts []institution, v *values) ([]byte, []float64) {
 	r := stream(seed, 4)
-	w := newCSV("respondent", "year", "respondent_country", "subject", "kind", "institution")
-	sizes := make([]float64, len(countries))
-	for ci, c := range countries {
-		sizes[ci] = float64(c.Size)
-	}
-	base := make([]float64, len(insts))
-	for i, in := range insts {
-		base[i] = math.Exp(1.6*in.Research + 0.5*(in.LogAcademics-math.Log(1000)))
-	}
-	// The weights depend only on the year, the respondent's country, the
-	// subject and the kind of vote, so they are computed once per
-	// combination rather than once per respondent.
-	type wkey struct{ year, home, subject, kind int }
+	w := newCSV("respondent", "respondent_country", "field", "institution")
+	last := len(years()) - 1
+	targets := surveyTargets(insts, v)
+	// The weights depend only on the respondent's country and field, so
+	// they are computed once per combination.
+	type wkey struct{ home, field int }
 	cache := map[wkey][]float64{}
 	weightsFor := func(k wkey) []float64 {
 		if w, ok := cache[k]; ok {
@@ -115,46 +195,125 @@ func votesCSV(seed uint64, insts []institution) []byte {
 		}
 		weights := make([]float64, len(insts))
 		for i, in := range insts {
-			wgt := base[i] * (0.2 + in.Profile[k.subject])
-			if k.kind == 1 {
-				wgt = math.Sqrt(wgt) * (1 + 0.5*boolFloat(in.Mission == missionTeaching))
-			}
+			wgt := v.esteem[i][last] * (0.2 + in.Profile[k.field])
 			if in.Country == k.home {
-				wgt *= 4
-			}
-			if k.year < in.EntryYear {
-				wgt = 0
+				wgt *= homeBiasRatio
 			}
 			weights[i] = wgt
 		}
 		cache[k] = weights
 		return weights
 	}
-	n := 0
-	for _, year := range []int{LastYear - 1, LastYear} {
-		for k := 0; k < 600; k++ {
-			n++
-			home := drawIndex(r, sizes)
-			subject := r.intn(len(subjects))
-			rid := fmt.Sprintf("R%04d", n)
-			for kind, kindName := range []string{"research", "teaching"} {
-				weights := weightsFor(wkey{year, home, subject, kind})
-				count := 1 + r.intn(3)
-				var chosen []int
-				for len(chosen) < count {
-					j := drawIndex(r, weights)
-					if !contains(chosen, j) {
-						chosen = append(chosen, j)
-					}
-				}
-				sort.Ints(chosen)
-				for _, j := range chosen {
-					w.row(rid, strconv.Itoa(year), countries[home].Name, subjects[subject].Key, kindName, insts[j].ID)
-				}
+	// Respondents come from the countries in proportion to their research
+	// staff, with a few countries over-represented (the demo's survey needs
+	// weighting, as real ones do).
+	reach := make([]float64, len(countries))
+	for ci := range countries {
+		reach[ci] = targets[ci] * (1 + 0.6*float64(ci%2))
+	}
+	fieldShares := []float64{0.24, 0.2, 0.2, 0.06, 0.2, 0.1}
+	homeOf := make([]int, respondents+1)
+	nominated := make([][]int, respondents+1)
+	for k := 1; k <= respondents; k++ {
+		home := drawIndex(r, reach)
+		field := drawIndex(r, fieldShares)
+		weights := weightsFor(wkey{home, field})
+		count := 1 + r.intn(maxNominated)
+		var chosen []int
+		for len(chosen) < count {
+			j := drawIndex(r, weights)
+			if !contains(chosen, j) {
+				chosen = append(chosen, j)
 			}
 		}
+		sort.Ints(chosen)
+		for _, j := range chosen {
+			w.row(fmt.Sprintf("R%05d", k), countries[home].Name, fields[field].Key[len("field_"):], insts[j].ID)
+		}
+		homeOf[k], nominated[k] = home, chosen
+	}
+	sample := make([]float64, len(countries))
+	for k := 1; k <= respondents; k++ {
+		sample[homeOf[k]]++
+	}
+	weighted := make([]float64, len(insts))
+	for k := 1; k <= respondents; k++ {
+		wgt := targets[homeOf[k]] / (sample[homeOf[k]] / respondents)
+		for _, j := range nominated[k] {
+			weighted[j] += wgt
+		}
+	}
+	return w.bytes(), weighted
+}
+
+// esteemFromVotes sets the last year's peer_esteem from the vote records:
+// weighted nominations scaled so that the most-nominated institution
+// scores 100, so the values file and the records agree exactly.
+func esteemFromVotes(v *values, weighted []float64) {
+	last := len(years()) - 1
+	top := 0.0
+	for _, x := range weighted {
+		top = math.Max(top, x)
+	}
+	for i := range v.v {
+		if !math.IsNaN(v.v[i]["peer_esteem"][last]) {
+			v.v[i]["peer_esteem"][last] = 100 * weighted[i] / top
+		}
+	}
+}
+
+// surveyTargets are the shares of academic staff by country in the last
+// year: the population the survey's respondents should represent.
+func surveyTargets(insts []institution, v *values) []float64 {
+	last := len(years()) - 1
+	out := make([]float64, len(countries))
+	total := 0.0
+	for i, in := range insts {
+		if a := v.v[i]["academic_staff"][last]; !math.IsNaN(a) {
+			out[in.Country] += a
+			total += a
+		}
+	}
+	for ci := range out {
+		out[ci] /= total
+	}
+	return out
+}
+
+// targetsCSV writes the survey's target shares by country.
+func targetsCSV(insts []institution, v *values) []byte {
+	w := newCSV("country", "share")
+	for ci, s := range surveyTargets(insts, v) {
+		w.row(countries[ci].Name, num(s, 4))
 	}
 	return w.bytes()
+}
+
+// sampler draws indices with probability proportional to their weights,
+// among the indices a filter kept: inverse transform sampling over the
+// cumulative weights, by binary search (O(log n) a draw).
+type sampler struct {
+	idx []int
+	cum []float64
+}
+
+func newSampler(weights []float64, keep func(int) bool) sampler {
+	var s sampler
+	total := 0.0
+	for i, w := range weights {
+		if w > 0 && keep(i) {
+			total += w
+			s.idx = append(s.idx, i)
+			s.cum = append(s.cum, total)
+		}
+	}
+	return s
+}
+
+func (s sampler) draw(r *rng) int {
+	u := r.uniform() * s.cum[len(s.cum)-1]
+	k := sort.Search(len(s.cum), func(i int) bool { return s.cum[i] > u })
+	return s.idx[min(k, len(s.idx)-1)]
 }
 
 // drawIndex draws an index with probability proportional to weights.
@@ -178,14 +337,6 @@ func drawIndex(r *rng, weights []float64) int {
 	return 0
 }
 
-func indexByID(insts []institution) map[string]int {
-	m := make(map[string]int, len(insts))
-	for i, in := range insts {
-		m[in.ID] = i
-	}
-	return m
-}
-
 func contains(xs []int, x int) bool {
 	for _, v := range xs {
 		if v == x {
@@ -201,5 +352,3 @@ func boolInt(b bool) int {
 	}
 	return 0
 }
-
-func boolFloat(b bool) float64 { return float64(boolInt(b)) }

@@ -95,7 +95,7 @@ func TestProfilesAreDirichlet(t *testing.T) {
 		if math.Abs(sum-1) > 1e-12 {
 			t.Fatalf("profile sums to %v", sum)
 		}
-		dom += p[specSubject[specHealth]]
+		dom += p[specField[specHealth]]
 	}
 	if want := 12 / (12 + 5*0.35); math.Abs(dom/n-want) > 0.005 {
 		t.Errorf("dominant subject mean %.4f, want %.4f", dom/n, want)

@@ -7,25 +7,38 @@ import (
 
 // The raw indicators the scenario writes, by the file they go into. The
 // derived indicators of the dictionary are left for peerpack to compute.
+//
+// citation_impact, top10_share, intl_coauthorship, industry_coauthorship and
+// peer_esteem can also be computed from the paper and vote records
+// (records.go); until peerpack reads those records itself, the scenario
+// ships them in values.csv as well, drawn from the same latent traits as
+// the records.
 var (
-	longKeys = []string{"papers", "intl_papers", "fwci", "research_income", "industry_income", "doctorates", "reputation_votes", "teaching_reputation"}
-	wideKeys = []string{"academic_fte", "students", "intl_staff", "intl_students", "subj_arts", "subj_social", "subj_life", "subj_health", "subj_physical", "subj_engineering"}
+	longKeys = []string{"papers", "citation_impact", "top10_share", "intl_coauthorship", "industry_coauthorship",
+		"total_income", "research_income", "exchange_income", "operating_surplus", "doctorates", "spinouts", "peer_esteem"}
+	wideKeys = []string{"academic_staff", "students", "intl_staff_share", "intl_student_share",
+		"continuation_rate", "completion_rate", "graduate_outcomes",
+		"field_natural", "field_engineering", "field_health", "field_agriculture", "field_social", "field_humanities"}
 )
 
 // decimals as written in the data files (finer than printed, as real
 // extracts are).
 var fileDecimals = map[string]int{
-	"papers": 0, "intl_papers": 0, "fwci": 3, "research_income": 0, "industry_income": 0,
-	"doctorates": 0, "reputation_votes": 0, "teaching_reputation": 1,
-	"academic_fte": 1, "students": 0, "intl_staff": 1, "intl_students": 1,
-	"subj_arts": 1, "subj_social": 1, "subj_life": 1, "subj_health": 1, "subj_physical": 1, "subj_engineering": 1,
+	"papers": 0, "citation_impact": 3, "top10_share": 2, "intl_coauthorship": 2, "industry_coauthorship": 2,
+	"total_income": 0, "research_income": 0, "exchange_income": 0, "operating_surplus": 2,
+	"doctorates": 0, "spinouts": 0, "peer_esteem": 1,
+	"academic_staff": 1, "students": 0, "intl_staff_share": 1, "intl_student_share": 1,
+	"continuation_rate": 1, "completion_rate": 1, "graduate_outcomes": 1,
+	"field_natural": 1, "field_engineering": 1, "field_health": 1, "field_agriculture": 1, "field_social": 1, "field_humanities": 1,
 }
 
 // missingRate is the chance that a value was not returned; bibliometric
-// counts come from a database and are always present.
+// values come from the paper records and are always present, as are the
+// survey's esteem scores.
 var missingRate = map[string]float64{
-	"industry_income": 0.07, "teaching_reputation": 0.06, "intl_students": 0.03,
-	"research_income": 0.02, "doctorates": 0.03, "intl_staff": 0.02, "academic_fte": 0.004,
+	"exchange_income": 0.07, "spinouts": 0.05, "intl_student_share": 0.03, "research_income": 0.02,
+	"doctorates": 0.03, "intl_staff_share": 0.02, "academic_staff": 0.004, "operating_surplus": 0.03,
+	"continuation_rate": 0.04, "completion_rate": 0.05, "graduate_outcomes": 0.06,
 }
 
 // cellNotes are the footnotes a few long-format values carry, by
@@ -36,7 +49,7 @@ var cellNotes = map[string][]string{
 		"Provisional figure; final accounts not yet published.",
 		"Includes a college merged into the institution this year.",
 	},
-	"industry_income": {
+	"exchange_income": {
 		"Restated by the institution after audit.",
 		"Financial year changed; figure covers fifteen months scaled to twelve.",
 	},
@@ -52,6 +65,9 @@ type values struct {
 	v     []map[string][]float64 // per institution: key -> per year
 	notes map[cell]string
 	na    map[cell]bool // written as "n/a" (the dictionary allows it)
+	// esteem is the expected number of survey nominations per institution
+	// and year, from which peer_esteem is scaled and the vote records drawn.
+	esteem [][]float64
 }
 
 type cell struct {
@@ -64,29 +80,31 @@ type cell struct {
 func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 	r := stream(seed, 2)
 	// Each institution's own departures from what its latent factors
-	// predict, drawn from a stream of their own so that the register and
-	// the yearly noise stay as they are. Without them the international
-	// shares would correlate almost perfectly with one another, which no
-	// real dataset shows (correlations of 0.4-0.7 are typical).
+	// predict, drawn from a stream of their own. Without them the
+	// international shares would correlate almost perfectly with one
+	// another, which no real dataset shows (correlations of 0.4-0.7 are
+	// typical).
 	own := stream(seed, 6)
 	ys := years()
 	out := &values{notes: map[cell]string{}, na: map[cell]bool{}}
-	teachRaw := make([][]float64, len(insts))
+	keys := append(append([]string(nil), longKeys...), wideKeys...)
 	for i := range insts {
 		in := &insts[i]
 		c := countries[in.Country]
 		m := map[string][]float64{}
-		for _, k := range append(append([]string(nil), longKeys...), wideKeys...) {
+		for _, k := range keys {
 			col := make([]float64, len(ys))
 			for t := range col {
 				col[t] = math.NaN()
 			}
 			m[k] = col
 		}
-		teachRaw[i] = make([]float64, len(ys))
+		esteem := make([]float64, len(ys))
 		staffOwn, studOwn, coOwn, impactOwn := 0.45*own.normal(), 0.55*own.normal(), 0.35*own.normal(), 0.15*own.normal()
+		contOwn, complOwn, gradOwn := 0.3*own.normal(), 0.3*own.normal(), 0.35*own.normal()
 		if in.ID == FocusID {
 			staffOwn, studOwn, coOwn, impactOwn = 0, 0, 0, 0
+			contOwn, complOwn, gradOwn = 0, 0, 0
 		}
 		var acad float64
 		for t, year := range ys {
@@ -96,40 +114,60 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 			I := in.Intl + in.IntlTrend*ft + 0.05*r.normal()
 			students := acad * c.StudentRatio * math.Exp(in.StudentShift+0.03*r.normal())
 			papers := math.Round(acad * math.Exp(-0.5+0.68*R+0.08*r.normal()))
-			intlP := math.Round(papers * logistic(-0.35+0.55*I+0.3*R+coOwn+0.06*r.normal()))
-			fwci := math.Exp(-0.2 + 0.22*R + 0.12*I + in.ImpactShift + impactOwn + 0.9/math.Sqrt(papers+5)*r.normal())
+			intlCo := 100 * logistic(-0.35+0.55*I+0.3*R+coOwn+0.06*r.normal())
+			indCo := 100 * logistic(-3.1+0.45*in.ExchangeShift+0.25*R+0.08*r.normal())
+			impact := math.Exp(-0.2 + 0.22*R + 0.12*I + in.ImpactShift + impactOwn + 0.9/math.Sqrt(papers+5)*r.normal())
+			// The share of papers among the 10 % most cited follows the
+			// citation impact: 10 % at the world average, more above it,
+			// with noise that shrinks as the output grows (an assumption
+			// of the scenario: the two measures rank institutions alike).
+			top10 := 100 * logistic(math.Log(0.1/0.9)+1.15*math.Log(impact)+1.2/math.Sqrt(papers+5)*r.normal())
 			resPer := math.Exp(10.95 + 0.6*R + in.FundingShift + 0.015*ft + 0.08*r.normal())
-			indPer := math.Exp(8.6 + 0.4*R + in.IndustryShift + 0.15*r.normal())
+			exPer := math.Exp(8.1 + 0.4*R + in.ExchangeShift + 0.15*r.normal())
+			// Income other than research and exchange: teaching grants and
+			// fees, per student, higher where staff time per student is
+			// higher; in international dollars.
+			otherPer := c.PerStudent * math.Exp(0.35*in.Research-0.3*in.StudentShift+0.08*r.normal()) * (1 + 0.01*ft)
+			f := ppp[in.Country][t]
+			research := math.Round(resPer*acad*f/1000) * 1000
+			exchange := math.Round(exPer*acad*f/100) * 100
+			total := math.Round((resPer*acad+exPer*acad+otherPer*students)*f/1000) * 1000
+			surplus := 100 * logistic(-3.3+0.55*in.Finance+0.12*r.normal())
 			docs := math.Round(acad * math.Exp(-2.6+0.7*R+0.1*r.normal()))
-			votes := float64(r.poisson(math.Exp(1.2 + 1.5*R + 0.6*math.Log(acad/1000))))
-			teachRaw[i][t] = math.Exp(0.9*R + 0.3*math.Log(acad/1000) + 0.1*r.normal())
+			spin := float64(r.poisson(math.Exp(-1.4 + 0.45*R + 0.6*in.ExchangeShift + 0.7*math.Log(acad/1000))))
+			esteem[t] = math.Exp(1.2 + 1.5*R + 0.6*math.Log(acad/1000))
 			iStaff := 100 * logistic(-1.6+0.6*I+0.3*R+staffOwn+0.05*r.normal())
 			iStud := 100 * logistic(-2.0+0.75*I+0.1*R+studOwn+0.06*r.normal())
+			S := in.Support + c.Outcomes
+			cont := 100 * logistic(2.2+0.45*S+0.2*R+contOwn+0.06*r.normal())
+			compl := 100 * logistic(1.0+0.55*S+0.25*R+complOwn+0.06*r.normal())
+			grad := 100 * logistic(1.7+0.35*S+0.15*R+gradOwn+0.08*r.normal())
 			var prof [6]float64
 			sum := 0.0
 			for s := range prof {
 				prof[s] = in.Profile[s] * math.Exp(0.04*r.normal())
 				sum += prof[s]
 			}
-			f := ppp[in.Country][t]
 			drawn := map[string]float64{
-				"academic_fte": acad, "students": students, "papers": papers, "intl_papers": intlP,
-				"fwci": fwci, "research_income": math.Round(resPer*acad*f/1000) * 1000,
-				"industry_income": math.Round(indPer*acad*f/100) * 100, "doctorates": docs,
-				"reputation_votes": votes, "intl_staff": iStaff, "intl_students": iStud,
+				"academic_staff": acad, "students": students, "papers": papers,
+				"citation_impact": impact, "top10_share": top10, "intl_coauthorship": intlCo, "industry_coauthorship": indCo,
+				"total_income": total, "research_income": research, "exchange_income": exchange,
+				"operating_surplus": surplus, "doctorates": docs, "spinouts": spin,
+				"intl_staff_share": iStaff, "intl_student_share": iStud,
+				"continuation_rate": cont, "completion_rate": compl, "graduate_outcomes": grad,
 			}
-			for s, sub := range subjects {
-				drawn[sub.Key] = 100 * prof[s] / sum
+			for s, fd := range fields {
+				drawn[fd.Key] = 100 * prof[s] / sum
 			}
 			// One uniform per key and year, drawn whether or not it is used,
 			// so the missing pattern never shifts the other draws.
-			for _, k := range append(append([]string(nil), longKeys...), wideKeys...) {
+			for _, k := range keys {
 				u := r.uniform()
 				if year < in.EntryYear {
 					continue
 				}
-				if k == "teaching_reputation" {
-					m[k][t] = 0 // scaled below, once every raw value is known
+				if k == "peer_esteem" {
+					m[k][t] = 0 // scaled below, once every year's votes are known
 				} else {
 					m[k][t] = drawn[k]
 				}
@@ -141,31 +179,34 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 				}
 			}
 			if year < in.EntryYear {
-				teachRaw[i][t] = math.NaN()
+				esteem[t] = 0
 			}
 		}
 		in.StaffFTE = int(math.Round(acad * (1.7 + 0.3*r.uniform())))
 		out.v = append(out.v, m)
+		out.esteem = append(out.esteem, esteem)
 	}
-	// Teaching reputation is scaled so that the most-named institution of
-	// each year scores 100, the usual presentation of survey scores.
+	// Peer esteem: nominations in each year's survey, a Poisson count
+	// around the expected number, scaled so that the most-nominated
+	// institution of the year scores 100. Counts are skewed: most
+	// teaching-led institutions are rarely named.
 	for t := range ys {
+		counts := make([]float64, len(insts))
 		top := 0.0
 		for i := range insts {
-			if v := teachRaw[i][t]; !math.IsNaN(v) && v > top {
-				top = v
-			}
+			counts[i] = float64(r.poisson(out.esteem[i][t]))
+			top = math.Max(top, counts[i])
 		}
 		for i := range insts {
-			if cur := out.v[i]["teaching_reputation"][t]; !math.IsNaN(cur) {
-				out.v[i]["teaching_reputation"][t] = 100 * teachRaw[i][t] / top
+			if cur := out.v[i]["peer_esteem"][t]; !math.IsNaN(cur) {
+				out.v[i]["peer_esteem"][t] = 100 * counts[i] / top
 			}
 		}
 	}
 	// A few footnotes on values that are present.
 	for len(out.notes) < 24 {
 		i, t := r.intn(len(insts)), r.intn(len(ys))
-		k := pick(r, []string{"research_income", "industry_income", "doctorates"})
+		k := pick(r, []string{"research_income", "exchange_income", "doctorates"})
 		if insts[i].ID == FocusID || math.IsNaN(out.v[i][k][t]) {
 			continue
 		}

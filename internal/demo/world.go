@@ -26,6 +26,10 @@ type country struct {
 	Research, ResearchTrend float64
 	// StudentRatio is the system's typical students per academic.
 	StudentRatio float64
+	// PerStudent is the system's typical non-research income per student
+	// in international dollars; Outcomes shifts student continuation,
+	// completion and graduate outcomes (logit scale).
+	PerStudent, Outcomes float64
 }
 
 // countries is the invented world, home system first.
@@ -33,38 +37,38 @@ var countries = []country{
 	{
 		Name: "Kestria", Prefix: "KE", Currency: "Kestrian mark", Code: "KSM",
 		PPP2020: 1.31, Inflation: 0.024, Size: 212, Style: styleKestrian,
-		Regions: []string{"Northmarch", "Fenlow", "Westreach", "Harrowdale", "Capital District"},
-		Funding: 0.05, Intl: 0.25, IntlTrend: -0.03, Research: 0.10, ResearchTrend: 0.00, StudentRatio: 17,
+		Regions: []string{"Northmarch", "Fenlow", "Westreach", "Harrowdale", "Tresselby"},
+		Funding: 0.05, Intl: 0.25, IntlTrend: -0.03, Research: 0.10, ResearchTrend: 0.00, StudentRatio: 17, PerStudent: 11800, Outcomes: 0.10,
 	},
 	{
 		Name: "Aldmere", Prefix: "AL", Currency: "Aldmere guilder", Code: "AGZ",
 		PPP2020: 0.83, Inflation: 0.018, Size: 188, Style: styleAldmeric,
-		Regions: []string{"Aldgau", "Seemark", "Brennfeld", "Ostmarrow"},
-		Funding: 0.20, Intl: 0.10, IntlTrend: 0.02, Research: 0.15, ResearchTrend: 0.01, StudentRatio: 15,
+		Regions: []string{"Aldgau", "Seemark", "Quellgau", "Ostmarrow"},
+		Funding: 0.20, Intl: 0.10, IntlTrend: 0.02, Research: 0.15, ResearchTrend: 0.01, StudentRatio: 15, PerStudent: 13500, Outcomes: 0.00,
 	},
 	{
 		Name: "Orvanne", Prefix: "OR", Currency: "Orvanne livre", Code: "OVL",
 		PPP2020: 0.92, Inflation: 0.021, Size: 168, Style: styleOrvannais,
-		Regions: []string{"Haute-Corvaise", "Côte Varelle", "Pays de Brévanne", "Val-d'Ormes"},
-		Funding: -0.05, Intl: 0.05, IntlTrend: 0.04, Research: 0.00, ResearchTrend: 0.02, StudentRatio: 19,
+		Regions: []string{"Corvaisis", "Varellois", "Brévannie", "Quillonnais"},
+		Funding: -0.05, Intl: 0.05, IntlTrend: 0.04, Research: 0.00, ResearchTrend: 0.02, StudentRatio: 19, PerStudent: 10900, Outcomes: -0.15,
 	},
 	{
 		Name: "Nordvald", Prefix: "NV", Currency: "vald krone", Code: "VKX",
 		PPP2020: 9.40, Inflation: 0.016, Size: 92, Style: styleNordvaldic,
 		Regions: []string{"Skarvland", "Nordkyst", "Vidmark"},
-		Funding: 0.30, Intl: 0.55, IntlTrend: 0.03, Research: 0.25, ResearchTrend: 0.01, StudentRatio: 13,
+		Funding: 0.30, Intl: 0.55, IntlTrend: 0.03, Research: 0.25, ResearchTrend: 0.01, StudentRatio: 13, PerStudent: 16200, Outcomes: 0.20,
 	},
 	{
 		Name: "Wieldania", Prefix: "WI", Currency: "wield złotar", Code: "WZR",
 		PPP2020: 1.86, Inflation: 0.046, Size: 150, Style: styleWieldanian,
-		Regions: []string{"Górna Wielda", "Pomorze Wieldzkie", "Dolina Brzany", "Ziemia Ostrzańska"},
-		Funding: -0.55, Intl: -0.35, IntlTrend: 0.08, Research: -0.30, ResearchTrend: 0.06, StudentRatio: 21,
+		Regions: []string{"Wieldzka", "Brzańska", "Ostrzańska", "Modrzańska"},
+		Funding: -0.55, Intl: -0.35, IntlTrend: 0.08, Research: -0.30, ResearchTrend: 0.06, StudentRatio: 21, PerStudent: 7400, Outcomes: -0.25,
 	},
 	{
 		Name: "Lusmara", Prefix: "LU", Currency: "lusmaran real", Code: "LMQ",
 		PPP2020: 0.64, Inflation: 0.031, Size: 102, Style: styleLusmaran,
-		Regions: []string{"Costa Alva", "Alto Serrão", "Vale do Lusmar", "Ilhas Morenas"},
-		Funding: -0.35, Intl: -0.10, IntlTrend: 0.05, Research: -0.15, ResearchTrend: 0.03, StudentRatio: 23,
+		Regions: []string{"Morenal", "Serranova", "Alvaredo", "Tarrascal"},
+		Funding: -0.35, Intl: -0.10, IntlTrend: 0.05, Research: -0.15, ResearchTrend: 0.03, StudentRatio: 23, PerStudent: 6900, Outcomes: -0.20,
 	},
 }
 

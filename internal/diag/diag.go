@@ -100,5 +100,8 @@ func (l *List) Error() string {
 	return strings.Join(lines, "\n")
 }
 
+// Dropped is the number of problems past Max that were counted, not kept.
+func (l *List) Dropped() int { return l.dropped }
+
 // Unwrap exposes the items to errors.Is and errors.As.
 func (l *List) Unwrap() []error { return l.Items }

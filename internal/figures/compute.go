@@ -30,7 +30,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 	focus, tracked := checkFront(d, b, probs)
 	r := &resolver{d: d, b: b, focus: focus, probs: probs}
 	groups := r.resolveGroups()
-	checkBlocks(d, b, groups, probs)
+	checkBlocks(d, b, groups, r.emptied, probs)
 	if err := probs.Err(); err != nil {
 		return nil, err
 	}

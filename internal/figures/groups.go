@@ -17,6 +17,10 @@ type resolver struct {
 	b     *brief.Brief
 	focus int
 	probs *diag.List
+	// emptied names the groups of an each expansion that the population
+	// rules left without members, with why, so a block naming one is told
+	// that rather than "not defined".
+	emptied map[string]string
 }
 
 func (r *resolver) errAt(p brief.Pos, format string, args ...any) {
@@ -59,6 +63,7 @@ func (r *resolver) resolveGroups() []*Group {
 		case spec.Where != nil:
 			gs = r.where(spec, over)
 		}
+		r.checkEmpty(spec, over, gs)
 		for _, g := range gs {
 			if prev, ok := names[g.Name]; ok {
 				r.errAt(spec.Pos, "group name %q is already used by the group at line %d; rename one of them", g.Name, prev.Line)
@@ -76,6 +81,111 @@ func (r *resolver) resolveGroups() []*Group {
 		}
 	}
 	return out
+}
+
+// checkEmpty refuses a group left without members: no statistic exists for
+// an empty group (a rank "0th of 0", a percentile of nothing). The message
+// says how many the population rules left out, so the fix is plain.
+func (r *resolver) checkEmpty(spec *brief.GroupSpec, over string, gs []*Group) {
+	name := spec.Name
+	if spec.Each != "" {
+		r.checkEmptyEach(spec, over, gs)
+		return
+	}
+	for _, g := range gs {
+		if len(g.Members) > 0 {
+			continue
+		}
+		if over == "ranked" && r.d.Population != nil {
+			if left := r.wouldHold(spec); left > 0 {
+				r.errAt(spec.Pos, "group %q has no members: the population rules leave out %s it would hold; add over: all to the group, or loosen the population rules", name, allOf(left))
+				continue
+			}
+		}
+		r.errAt(spec.Pos, "group %q has no members; check its definition against the register", name)
+	}
+}
+
+// wouldHold counts the institutions a group would hold over the whole
+// register.
+func (r *resolver) wouldHold(spec *brief.GroupSpec) int {
+	switch {
+	case len(spec.Members) > 0:
+		return len(spec.Members)
+	case spec.Where != nil && spec.Nearest == nil:
+		n := 0
+		for _, in := range r.d.Register.Institutions {
+			if matches(in, spec.Where) {
+				n++
+			}
+		}
+		return n
+	}
+	return 0
+}
+
+// checkEmptyEach records the values of an each group whose institutions
+// the population rules all left out, and refuses the definition when no
+// value keeps a member.
+func (r *resolver) checkEmptyEach(spec *brief.GroupSpec, over string, gs []*Group) {
+	if over != "ranked" || r.d.Population == nil || !r.d.Register.HasAttr(spec.Each) {
+		return
+	}
+	kept := map[string]bool{}
+	for _, g := range gs {
+		kept[g.EachValue] = true
+	}
+	lost := map[string]int{}
+	var values []string
+	for _, in := range r.d.Register.Institutions {
+		v, _ := in.Attr(spec.Each)
+		if strings.TrimSpace(v) == "" || kept[v] || !matches(in, spec.Where) {
+			continue
+		}
+		if lost[v] == 0 {
+			values = append(values, v)
+		}
+		lost[v]++
+	}
+	sort.Strings(values)
+	if r.emptied == nil {
+		r.emptied = map[string]string{}
+	}
+	for _, v := range values {
+		name := v
+		if spec.Name != "" {
+			name = spec.Name + ": " + v
+		}
+		r.emptied[name] = fmt.Sprintf("the population rules leave out %s with %s %s; add over: all to the each group at line %d, or loosen the population rules", allOf(lost[v]), spec.Each, v, spec.Pos.Line)
+	}
+	if len(gs) == 0 && len(values) > 0 {
+		label := spec.Name
+		if label == "" {
+			label = "each " + spec.Each
+		}
+		total := 0
+		for _, v := range values {
+			total += lost[v]
+		}
+		r.errAt(spec.Pos, "group %q has no members: the population rules leave out %s with a %s; add over: all to the group, or loosen the population rules", label, allOf(total), spec.Each)
+	}
+}
+
+// allOf says "the one institution" or "all 12 institutions".
+func allOf(n int) string {
+	if n == 1 {
+		return "the one institution"
+	}
+	return "all " + count(n) + " institutions"
+}
+
+// count prints a count with thousands separators ("1,204").
+func count(n int) string {
+	s := fmt.Sprint(n)
+	for i := len(s) - 3; i > 0; i -= 3 {
+		s = s[:i] + "," + s[i:]
+	}
+	return s
 }
 
 func newGroup(name, kind string, n int) *Group {

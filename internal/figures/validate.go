@@ -88,7 +88,7 @@ func yearList(ys []int) string {
 
 // checkBlocks checks every chart, table and commentary block against the
 // dictionary, the resolved groups and the span, at the block's line.
-func checkBlocks(d *dataset.Dataset, b *brief.Brief, groups []*Group, probs *diag.List) {
+func checkBlocks(d *dataset.Dataset, b *brief.Brief, groups []*Group, emptied map[string]string, probs *diag.List) {
 	names := map[string]bool{}
 	var list []string
 	for _, g := range groups {
@@ -133,6 +133,10 @@ func checkBlocks(d *dataset.Dataset, b *brief.Brief, groups []*Group, probs *dia
 		}
 		for _, g := range grps {
 			if names[g] {
+				continue
+			}
+			if why, ok := emptied[g]; ok {
+				probs.Addf(b.File, p.Line, p.Column, "%s: group %q has no members: %s", what, g, why)
 				continue
 			}
 			msg := fmt.Sprintf("%s: group %q is not defined under groups: in the front matter", what, g)

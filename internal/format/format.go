@@ -191,7 +191,7 @@ func Percent(p float64, decimals int) string {
 // Percentile prints a percentile rank as a whole number with its ordinal
 // suffix: "73rd percentile".
 func Percentile(p float64) string {
-	if math.IsNaN(p) {
+	if math.IsNaN(p) || math.IsInf(p, 0) {
 		return "–"
 	}
 	return Ordinal(int(Round(p, 0))) + " percentile"

@@ -129,9 +129,9 @@ func TestMethodologyAppendixFromTheBrief(t *testing.T) {
 		"The factors are read from ppp.csv", "local currency units per international dollar",
 		"No composite score is computed in this pack",
 		// The dictionary's judgement note, with the indicator.
-		"Students per academic. Students FTE divided by academic staff FTE.",
+		"Students per academic. Students divided by academic staff, both full-time equivalent.",
 		"Value judgement: Fewer students per academic is read as more staff time per student",
-		"Source: Bibliometric database extract (invented).",
+		"Source: Paper records of the scenario (invented).",
 	} {
 		if !strings.Contains(annex, s) {
 			t.Errorf("the methodology annex lacks %q", s)
@@ -142,8 +142,8 @@ func TestMethodologyAppendixFromTheBrief(t *testing.T) {
 			t.Errorf("group %q: definition %q not in the annex", g.Name, g.Defined)
 		}
 	}
-	// R 4.2.2 (appendix_reference.R): 431 institutions fail the rule of
-	// at least 1,000 papers over 2021-2025.
+	// R 4.2.2 (appendix_reference.R): the institutions that fail the rule
+	// of at least 600 papers over 2023-2025.
 	excluded := int(refValue(t, ref, "population/excluded"))
 	rule := strings.TrimSuffix(sentence(format.Capitalise(m.Data.Population.Rules[0])), ".")
 	if s := fmt.Sprintf("%s: leaves out %d institutions.", rule, excluded); !strings.Contains(annex, s) {
@@ -156,7 +156,7 @@ func TestMethodologyAppendixFromTheBrief(t *testing.T) {
 	// No heading of the annex is left at a page foot (the footer is a
 	// page's last line).
 	heads := map[string]bool{}
-	for _, h := range []string{"Indicators and sources", "Comparison groups", "Who is counted", "Money and purchasing-power parity", "Coverage by group", "Weights", "Limits of these figures", "Research", "Teaching", "International outlook", "Subject profile", "Knowledge transfer", "Reputation"} {
+	for _, h := range []string{"Indicators and sources", "Comparison groups", "Who is counted", "Money and purchasing-power parity", "Coverage by group", "Weights", "Limits of these figures", "Publications and influence", "Partnerships", "Staff and students", "Student progress", "Financial footing", "Standing among peers", "Reach beyond academia", "Scale (context only)", "Field mix"} {
 		heads[h] = true
 	}
 	for i, p := range strings.Split(runTool(t, out, "pdftotext", "-layout"), "\f") {
@@ -173,7 +173,7 @@ func TestMethodologyAppendixFromTheBrief(t *testing.T) {
 	if want := int(refValue(t, ref, "coverage/Kestrian sector/members")); members != want {
 		t.Fatalf("Kestrian sector has %d members, R counts %d", members, want)
 	}
-	for _, key := range []string{"fwci", "intl_staff", "intl_students"} {
+	for _, key := range []string{"citation_impact", "intl_staff_share", "intl_student_share"} {
 		ind, _ := m.Indicator(key)
 		fields, ok := layoutLine(text, ind.Label)
 		if !ok || len(fields) < 3 {
@@ -211,13 +211,13 @@ func TestDataAppendixValues(t *testing.T) {
 		t.Fatal("no data appendix")
 	}
 	annex := text[start:]
-	fwci := annex[strings.Index(annex, "Field-weighted citation impact"):]
+	impact := annex[strings.Index(annex, "Field-normalised citation impact"):]
 	for _, row := range []struct{ lead, key string }{
-		{"Universidade de Orvales", "value/LU003/fwci/%d"},
-		{"Median, Lusmaran system", "median/Lusmaran system/fwci/%d"},
-		{"Median, Agreed peers", "median/Agreed peers/fwci/%d"},
+		{"Universidade de Miragança", "value/LU003/citation_impact/%d"},
+		{"Median, Lusmaran system", "median/Lusmaran system/citation_impact/%d"},
+		{"Median, Agreed peers", "median/Agreed peers/citation_impact/%d"},
 	} {
-		fields, ok := layoutLine(fwci, row.lead)
+		fields, ok := layoutLine(impact, row.lead)
 		if !ok || len(fields) != len(m.Years) {
 			t.Errorf("%s: row %q, want %d years", row.lead, fields, len(m.Years))
 			continue
@@ -232,7 +232,7 @@ func TestDataAppendixValues(t *testing.T) {
 		}
 	}
 	income := annex[strings.Index(annex, "Research income per academic (PPP$)"):]
-	fields, _ := layoutLine(income, "Universidade de Orvales")
+	fields, _ := layoutLine(income, "Universidade de Miragança")
 	if len(fields) == len(m.Years) {
 		got, _ := strconv.ParseFloat(strings.ReplaceAll(fields[len(fields)-1], ",", ""), 64)
 		if want := refValue(t, ref, "value/LU003/research_income_per_academic/2025"); math.Abs(got-want) > 0.5 {
@@ -251,7 +251,7 @@ func TestDataAppendixValues(t *testing.T) {
 		for i, l := range lines {
 			if years.MatchString(l) && !strings.HasPrefix(l, "Indicator") {
 				heads++
-				if i+3 >= len(lines) || !strings.HasPrefix(lines[i+1], "Universidade de Orvales") || !strings.HasPrefix(lines[i+3], "Median, Agreed peers") {
+				if i+3 >= len(lines) || !strings.HasPrefix(lines[i+1], "Universidade de Miragança") || !strings.HasPrefix(lines[i+3], "Median, Agreed peers") {
 					t.Errorf("the table %q is parted from its rows", years.FindStringSubmatch(l)[1])
 				}
 			}
@@ -338,7 +338,7 @@ func TestAppendixStaysOnThePage(t *testing.T) {
 func TestRuleExclusions(t *testing.T) {
 	files := demo.Files()
 	src := string(files[demo.BriefName])
-	rules := "population:\n  min_total:\n    - indicator: papers\n      years: 5\n      at_least: 1000\n  max_value:\n    - indicator: intl_students\n      at_most: 30\n  require: [short_name]\n"
+	rules := "population:\n  min_total:\n    - indicator: papers\n      years: 4\n      at_least: 800\n  max_value:\n    - indicator: intl_student_share\n      at_most: 30\n  require: [short_name]\n"
 	i, j := strings.Index(src, "population:\n"), strings.Index(src, "named:")
 	files[demo.BriefName] = []byte(src[:i] + rules + src[j:])
 	_, b, d := loadScenario(t, files)
@@ -347,15 +347,15 @@ func TestRuleExclusions(t *testing.T) {
 		t.Fatalf("reasons not matched to rules: %v", d.Population.Rules)
 	}
 	want := make([]int, 3)
-	papers, intl := d.Dictionary.Index("papers"), d.Dictionary.Index("intl_students")
+	papers, intl := d.Dictionary.Index("papers"), d.Dictionary.Index("intl_student_share")
 	for inst, in := range d.Register.Institutions {
 		sum, seen := 0.0, 0
-		for y := 2021; y <= 2025; y++ {
+		for y := 2022; y <= 2025; y++ {
 			if v, ok := d.Value(papers, inst, y); ok {
 				sum, seen = sum+v, seen+1
 			}
 		}
-		if seen == 0 || sum < 1000 {
+		if seen == 0 || sum < 800 {
 			want[0]++
 		}
 		if v, ok := d.Value(intl, inst, 2025); ok && v > 30 {

@@ -44,6 +44,10 @@ func (w *writer) chartTheme() charts.Theme {
 // chart plans a chart block and sets it, pairing consecutive half-width
 // charts side by side.
 func (w *writer) chart(cb *brief.ChartBlock) {
+	if cb.Size == "half" && w.cols > 1 {
+		w.failAt(cb.At, "size: half has no effect inside columns: a chart there takes its column's width; remove size: half, or end the columns before the chart (a columns block with count: 1)")
+		return
+	}
 	ch, err := charts.New(w.m, cb, w.chartTheme())
 	if err != nil {
 		w.chartProblem(cb, err)

@@ -146,17 +146,3 @@ func plainText(n ast.Node, src []byte) string {
 	})
 	return b.String()
 }
-
-// ownCautionsPage is the page the brief's cautions section starts on in
-// the finished pack, 0 in the first pass or without such a section.
-func (w *writer) ownCautionsPage() int {
-	if w.own == nil || w.known == nil {
-		return 0
-	}
-	for _, h := range w.known.headings {
-		if h.title == w.own.title && h.level == w.own.level {
-			return h.page + w.known.contentsPages - 1
-		}
-	}
-	return 0
-}

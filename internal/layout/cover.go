@@ -23,18 +23,42 @@ func (w *writer) cover() {
 	left := m.Left
 	textW := pw - m.Left - m.Right
 
-	// Title and subtitle, measured first so the band fits them.
-	titleF := w.st.font(pdf.Bold, 26)
-	subF := w.st.font(pdf.Regular, 14)
-	tsp := []span{{text: w.b.Title, font: titleF, color: white}}
-	tl := w.wrap(tsp, w.tokenize(tsp), textW, textW)
-	var sl []line
-	ssp := []span{{text: w.b.Subtitle, font: subF, color: mix(w.st.accent, white, 0.8)}}
-	if w.b.Subtitle != "" {
-		sl = w.wrap(ssp, w.tokenize(ssp), textW, textW)
+	// Title and subtitle, measured first so the band fits them. A long
+	// title steps down in size until it takes at most coverTitleLines
+	// lines (the subtitle likewise), so the focus, the years and the date
+	// keep their place on the page; one still longer at the smallest size
+	// is refused with what to change.
+	titleSize, tl := 0.0, []line(nil)
+	var tsp []span
+	for _, sz := range coverTitleSizes {
+		titleSize = sz
+		tsp = []span{{text: w.b.Title, font: w.st.font(pdf.Bold, sz), color: white}}
+		if tl = w.wrap(tsp, w.tokenize(tsp), textW, textW); len(tl) <= coverTitleLines {
+			break
+		}
 	}
-	titleLH := pdf.PtToMM(26 * 1.15)
-	subLH := pdf.PtToMM(14 * 1.3)
+	subSize, sl := 0.0, []line(nil)
+	var ssp []span
+	for _, sz := range coverSubtitleSizes {
+		subSize = sz
+		ssp = []span{{text: w.b.Subtitle, font: w.st.font(pdf.Regular, sz), color: mix(w.st.accent, white, 0.8)}}
+		if w.b.Subtitle == "" {
+			break
+		}
+		if sl = w.wrap(ssp, w.tokenize(ssp), textW, textW); len(sl) <= coverSubtitleLines {
+			break
+		}
+	}
+	if len(tl) > coverTitleLines {
+		w.failAt(w.b.PosOf("title"), "the title takes %d lines on the cover even at %g pt, more than the %d that leave room for the focus, years and date; shorten it (about %d words fit) and move the rest into the subtitle", len(tl), titleSize, coverTitleLines, wordsThatFit(w.b.Title, len(tl), coverTitleLines))
+		tl = tl[:coverTitleLines]
+	}
+	if len(sl) > coverSubtitleLines {
+		w.failAt(w.b.PosOf("subtitle"), "the subtitle takes %d lines on the cover even at %g pt, more than the %d it has room for; shorten it (about %d words fit) and say the rest in the pack's opening section", len(sl), subSize, coverSubtitleLines, wordsThatFit(w.b.Subtitle, len(sl), coverSubtitleLines))
+		sl = sl[:coverSubtitleLines]
+	}
+	titleLH := pdf.PtToMM(titleSize * 1.15)
+	subLH := pdf.PtToMM(subSize * 1.3)
 	bandTop := 0.0
 	titleTop := 62.0
 	bandH := titleTop + float64(len(tl))*titleLH + float64(len(sl))*subLH + 14
@@ -62,12 +86,12 @@ func (w *writer) cover() {
 	}
 	y := titleTop
 	for _, ln := range tl {
-		w.drawLine(tsp, ln, left, y+pdf.PtToMM(26)*0.8)
+		w.drawLine(tsp, ln, left, y+pdf.PtToMM(titleSize)*0.8)
 		y += titleLH
 	}
 	y += 2
 	for _, ln := range sl {
-		w.drawLine(ssp, ln, left, y+pdf.PtToMM(14)*0.8)
+		w.drawLine(ssp, ln, left, y+pdf.PtToMM(subSize)*0.8)
 		y += subLH
 	}
 
@@ -117,6 +141,29 @@ func (w *writer) cover() {
 		yy += lh
 	}
 	d.SetTextColor(w.st.text)
+}
+
+// The cover's title and subtitle sizes, largest first, and the most lines
+// each may take (common practice, no source: a title page reads at a
+// glance, and the facts below the band need the lower half of the page).
+var (
+	coverTitleSizes    = []float64{26, 22, 19, 16}
+	coverSubtitleSizes = []float64{14, 12.5, 11}
+)
+
+const (
+	coverTitleLines    = 4
+	coverSubtitleLines = 3
+)
+
+// wordsThatFit estimates how many of s's words fit in want lines when
+// they took got: a hint for the message, not a measure.
+func wordsThatFit(s string, got, want int) int {
+	n := len(strings.Fields(s))
+	if got <= 0 {
+		return n
+	}
+	return max(1, n*want/got)
 }
 
 // dateLine is the brief's date, else the build date written out in full

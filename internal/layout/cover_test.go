@@ -5,43 +5,49 @@ import (
 	"strconv"
 	"strings"
 	"testing"
-	"testing/fstest"
 )
 
-// A long organisation name on the cover wraps short of the logo panel
-// instead of running under it. The logo is 300 x 150 px: at 150 dpi
-// (naturalSize) 50.8 x 25.4 mm, fitted into the 44 x 20 mm box as 40 x
-// 20 mm, in a panel with 3 mm padding whose right edge is the right
-// margin (20 mm): the panel starts at 210 - 20 - 46 = 144 mm = 408.2 pt.
-func TestCoverOrganisationClearsLogo(t *testing.T) {
-	org := "Université de Saint-Éluard, Office of Strategic Planning, Institutional Research and International Benchmarking"
-	src := bytes.Replace(fixtureBody(t, "# Results\n\nImpact is {=value fwci}.\n"),
-		[]byte("organisation: Université de Saint-Éluard"), []byte("organisation: "+org+"\n  logo: logo.png"), 1)
-	in := fixtureInputFrom(t, 30, src)
-	in.FS = fstest.MapFS{"logo.png": {Data: testPNG(t, 300, 150)}}
-	out, err := Render(in)
+// withTitle replaces the fixture brief's title line.
+func withTitle(t *testing.T, title string) []byte {
+	t.Helper()
+	src := fixtureBody(t, "# Body\n\nText.\n")
+	old := []byte("title: International position of Université de Saint-Éluard")
+	if !bytes.Contains(src, old) {
+		t.Fatal("fixture title line not found")
+	}
+	return bytes.Replace(src, old, []byte("title: "+title), 1)
+}
+
+// A long title steps down in size rather than pushing the focus, years
+// and date off the cover; one too long even at the smallest size is
+// refused at the title's line with what to change (a pack review saw a
+// 40-word title run off the cover).
+func TestCoverTitleShrinksOrIsRefused(t *testing.T) {
+	words := strings.Fields(strings.Repeat("International position of the university against its national and regional peers in research staff and students ", 4))
+	long := strings.Join(words[:22], " ")
+	out, err := Render(fixtureInputFrom(t, 60, withTitle(t, long)))
 	if err != nil {
-		t.Fatal(err)
+		t.Fatalf("a 22-word title: %v", err)
 	}
-	html := runTool(t, out, "pdftotext", "-bbox")
-	cover := html[:strings.Index(html, "</page>")]
-	const panelLeft = 144 * 72 / 25.4
-	words := 0
-	for _, m := range wordBox.FindAllStringSubmatch(cover, -1) {
-		y1, _ := strconv.ParseFloat(m[4], 64)
-		x1, _ := strconv.ParseFloat(m[3], 64)
-		if y1 > 42*72/25.4 { // below the logo panel (14 + 26 mm)
-			continue
-		}
-		words++
-		if x1 > panelLeft {
-			t.Errorf("cover word %q ends at %.1f pt, under the logo (from %.1f pt)", m[5], x1, panelLeft)
+	page1 := strings.Split(runTool(t, out, "pdftotext", "-layout"), "\f")[0]
+	for _, want := range []string{"FOCUS INSTITUTION", "DATE"} {
+		if !strings.Contains(page1, want) {
+			t.Errorf("cover lost %q under a 22-word title", want)
 		}
 	}
-	if words < 10 {
-		t.Fatalf("only %d words of the organisation found at the top of the cover", words)
+	html := runTool(t, out, "pdftotext", "-f", "1", "-l", "1", "-bbox")
+	for _, m := range wordBox.FindAllStringSubmatch(html, -1) {
+		if y1, _ := strconv.ParseFloat(m[4], 64); y1 > 842 {
+			t.Errorf("word %q below the page foot at %.0f pt", m[5], y1)
+		}
 	}
-	if !strings.Contains(strings.Join(strings.Fields(runTool(t, out, "pdftotext")), " "), "BENCHMARKING") {
-		t.Error("the organisation's last word is missing: it was cut instead of wrapped")
+
+	tooLong := strings.Join(append(words, words...), " ")
+	_, err = Render(fixtureInputFrom(t, 60, withTitle(t, tooLong)))
+	if err == nil {
+		t.Fatalf("a %d-word title was accepted", 2*len(words))
+	}
+	if !strings.Contains(err.Error(), "brief.md:2:") || !strings.Contains(err.Error(), "shorten it") {
+		t.Errorf("message %q does not point at the title line and say what to do", err)
 	}
 }

@@ -34,7 +34,11 @@ const (
 	// joinedSectionGap is the space above a section heading that opens
 	// part-way down a page, enough to read as a new section.
 	joinedSectionGap = 12.0 // mm
-	maxJoinRounds    = 4
+	// joinShare is the fill under which a section's last page takes the
+	// next section: a little over runtShare, since a reader judges a page
+	// by its ink, not by the layout's own measure of it.
+	joinShare     = 0.4
+	maxJoinRounds = 4
 )
 
 func (p *fitPlan) chartScale(section int) float64 {
@@ -178,7 +182,7 @@ func (w *writer) runtEnds() [][2]int {
 		if next <= pg.section || !w.headed[next] {
 			continue
 		}
-		if used := pg.fill - top; used > 0 && used <= area*runtShare {
+		if used := pg.fill - top; used > 0 && used <= area*joinShare {
 			out = append(out, [2]int{pg.section, next})
 		}
 	}

@@ -105,7 +105,7 @@ func (w *writer) setTable(g grid) {
 	headLines := make([][]string, ncol)
 	maxLines := 1
 	for c := 0; c < ncol; c++ {
-		sp := []span{{text: g.head[c], font: headF}}
+		sp := []span{{text: glueHeader(g.head[c]), font: headF}}
 		for _, ln := range w.wrap(sp, w.tokenize(sp), widths[c]-2*cellPadX, widths[c]-2*cellPadX) {
 			var parts []string
 			for _, t := range ln.toks {
@@ -145,11 +145,6 @@ func (w *writer) setTable(g grid) {
 		}
 		return float64(n)*lineH + 2*cellPadY
 	}
-	rowH := 0.0
-	if len(g.rows) > 0 {
-		rowH = rowHeight(0)
-	}
-
 	capSp := w.captionSpans("Table", w.tableNo, g.caption)
 	if g.noNumber {
 		capSp = []span{{text: g.caption, font: w.st.font(pdf.Regular, captionSize), color: w.st.muted}}
@@ -217,7 +212,7 @@ func (w *writer) setTable(g grid) {
 	drawCaption(false)
 	drawHead()
 	for ri, r := range g.rows {
-		rowH = rowHeight(ri)
+		rowH := rowHeight(ri)
 		// Do not strand the last row alone on a continuation page.
 		lastTwo := ri == len(g.rows)-2 && ri >= lead && w.y+rowH+rowHeight(ri+1) > w.bottom()
 		if w.y+rowH > w.bottom() || lastTwo {
@@ -250,12 +245,15 @@ func (w *writer) setTable(g grid) {
 				}
 				w.doc.SetTextColor(col)
 				base := w.y + cellPadY + pdf.PtToMM(tableSize)*0.95
-				room := widths[c] - 2*cellPadX
+				// The lines were fitted to the cell less glyphColumn when
+				// shaded; left-aligned text starts after the glyph so the two
+				// never overlap (right-aligned text ends at the far edge).
+				textX := x + cellPadX
 				if cl.shade > 0 {
-					room -= glyphColumn
 					w.doc.SetFont(w.st.font(pdf.Regular, tableSize-1.5))
 					w.doc.Text(x+cellPadX, base-0.2, quartileGlyph(cl.shade))
 					w.doc.SetFont(f)
+					textX += glyphColumn
 				}
 				var lines []string
 				if c < len(rowLines[ri]) {
@@ -265,7 +263,7 @@ func (w *writer) setTable(g grid) {
 					if g.align[c] == 'R' {
 						w.doc.TextRight(x+widths[c]-cellPadX, base+float64(li)*lineH, s)
 					} else {
-						w.doc.Text(x+cellPadX, base+float64(li)*lineH, s)
+						w.doc.Text(textX, base+float64(li)*lineH, s)
 					}
 				}
 				x += widths[c]
@@ -333,7 +331,7 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 	word := make([]float64, ncol)    // widest single word (text columns)
 	cellNat := make([]float64, ncol) // widest cell, header left out
 	for c := 0; c < ncol; c++ {
-		for _, wd := range strings.Fields(g.head[c]) {
+		for _, wd := range strings.Split(glueHeader(g.head[c]), " ") {
 			word[c] = math.Max(word[c], w.doc.WidthIn(headF, wd))
 		}
 		nat[c] = word[c]
@@ -566,4 +564,16 @@ func (w *writer) labelsTall(g grid, c int, width float64, bodyF, boldF pdf.Font)
 		}
 	}
 	return false
+}
+
+// glueHeader keeps a header's joining marks with the words they join, so
+// that a narrow column breaks it only between words: a slash stays at the
+// end of the line before the break ("Students /" over "academic ↓") and
+// the lower-is-better arrow with the word before it, never a line of its
+// own. The glue is a no-break space, which the flow does not break at.
+func glueHeader(s string) string {
+	s = strings.ReplaceAll(s, " / ", "\u00a0/ ")
+	s = strings.ReplaceAll(s, " ↓", "\u00a0↓")
+	s = strings.ReplaceAll(s, " ↑", "\u00a0↑")
+	return s
 }

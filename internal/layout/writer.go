@@ -18,14 +18,13 @@ import (
 // text is flowing into, the inline style stack and what the pass records
 // (heading pages for the contents, problems).
 type writer struct {
-	in   Input
-	b    *brief.Brief
-	m    *figures.Model
-	com  *narrative.Commentary
-	doc  *pdf.Doc
-	st   style
-	src  []byte
-	pass int
+	in  Input
+	b   *brief.Brief
+	m   *figures.Model
+	com *narrative.Commentary
+	doc *pdf.Doc
+	st  style
+	src []byte
 	// measuring is true in the first pass, which only finds where
 	// headings fall: charts are measured, not drawn.
 	measuring bool

@@ -130,7 +130,7 @@ func TestDemoSummaryCaveats(t *testing.T) {
 		}
 	}
 	for _, want := range []string{
-		"Research income per academic and industry income per academic are in international dollars at purchasing-power parity.",
+		"Research income per academic and licence and consultancy income per academic are in international dollars at purchasing-power parity.",
 		"On students per academic, lower counts as better (itself a value judgement)",
 	} {
 		if !strings.Contains(caveats, want) {

@@ -44,17 +44,16 @@ type Furniture func(d *Doc, page int)
 
 // Doc is a pack document under construction.
 type Doc struct {
-	f         *fpdf.Fpdf
-	opt       Options
-	fonts     map[Font]bool // registered family+style (size 0)
-	cur       Font
-	text      color.RGBA
-	header    Furniture
-	footer    Furniture
-	plain     map[int]bool
-	nextPlain bool
-	images    int
-	canvasOn  bool
+	f        *fpdf.Fpdf
+	opt      Options
+	fonts    map[Font]bool // registered family+style (size 0)
+	cur      Font
+	text     color.RGBA
+	header   Furniture
+	footer   Furniture
+	plain    map[int]bool
+	images   int
+	canvasOn bool
 }
 
 // New starts an empty document.

@@ -24,12 +24,12 @@ value <- function(ind, year) {
   l$value[match(reg$id, l$institution)]
 }
 
-# Population rule of both briefs: papers summed over 2021-2025 at least 1000;
+# Population rule of both briefs: papers summed over 2023-2025 at least 600;
 # an institution with no papers value in those years is left out too.
-papers <- sapply(2021:2025, function(y) value("papers", y))
+papers <- sapply(2023:2025, function(y) value("papers", y))
 seen <- rowSums(!is.na(papers))
 total <- rowSums(papers, na.rm = TRUE)
-ranked <- seen > 0 & total >= 1000
+ranked <- seen > 0 & total >= 600
 out <- data.frame(key = character(), value = character(), stringsAsFactors = FALSE)
 put <- function(k, v) out[nrow(out) + 1, ] <<- list(k, format(v, digits = 15))
 put("population/excluded", sum(!ranked))
@@ -38,25 +38,25 @@ put("population/ranked", sum(ranked))
 # Coverage in the demo's Kestrian sector, 2025: members with a value / members.
 kestria <- ranked & reg$country == "Kestria"
 put("coverage/Kestrian sector/members", sum(kestria))
-for (ind in c("fwci", "intl_staff", "intl_students")) {
+for (ind in c("citation_impact", "intl_staff_share", "intl_student_share")) {
   put(paste0("coverage/Kestrian sector/", ind), sum(kestria & !is.na(value(ind, 2025))))
 }
 
-# Client report: medians of field-weighted citation impact per year
+# Client report: medians of field-normalised citation impact per year
 # (R's median, the same under quantile types 6 and 7).
 lusmara <- ranked & reg$country == "Lusmara"
 agreed <- ranked & reg$id %in% c("LU001", "LU002", "OR003", "AL002", "NV003", "WI003", "KE002")
 for (y in 2020:2025) {
-  v <- value("fwci", y)
-  put(paste0("median/Lusmaran system/fwci/", y), median(v[lusmara], na.rm = TRUE))
-  put(paste0("median/Agreed peers/fwci/", y), median(v[agreed], na.rm = TRUE))
-  put(paste0("value/LU003/fwci/", y), v[reg$id == "LU003"])
+  v <- value("citation_impact", y)
+  put(paste0("median/Lusmaran system/citation_impact/", y), median(v[lusmara], na.rm = TRUE))
+  put(paste0("median/Agreed peers/citation_impact/", y), median(v[agreed], na.rm = TRUE))
+  put(paste0("value/LU003/citation_impact/", y), v[reg$id == "LU003"])
 }
 
 # Research income per academic of LU003 in 2025 in international dollars:
 # local currency divided by the PPP factor (local currency units per
-# international dollar), then by academic staff FTE.
+# international dollar), then by academic staff (full-time equivalent).
 f <- ppp$factor[ppp$country == "Lusmara" & ppp$year == 2025]
 lu <- reg$id == "LU003"
-put("value/LU003/research_income_per_academic/2025", value("research_income", 2025)[lu] / f / value("academic_fte", 2025)[lu])
+put("value/LU003/research_income_per_academic/2025", value("research_income", 2025)[lu] / f / value("academic_staff", 2025)[lu])
 write.csv(out, stdout(), row.names = FALSE, quote = FALSE)

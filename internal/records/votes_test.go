@@ -22,7 +22,7 @@ r3,B,social,U3
 r4,C,social,U1
 `
 
-var handPlaces = map[string]Place{"U1": {"A", "North"}, "U2": {"B", "North"}, "U3": {"C", "South"}}
+var handPlaces = map[string]Place{"U1": {"A", "North"}, "U2": {"B", "North"}, "U3": {"C", "South"}, "U4": {"C", "South"}}
 var handRegions = map[string]string{"A": "North", "B": "North", "C": "South"}
 
 func runVotes(t *testing.T, votes, targets string, opt VoteOptions) *VoteResult {
@@ -83,6 +83,13 @@ func TestHandWorkedVotes(t *testing.T) {
 	}
 	if v, ok := voteValue(res, "U3", "peer_esteem_natural"); !ok || v != 0 {
 		t.Errorf("U3 has votes but none in the natural sciences: 0, got %v (present %v)", v, ok)
+	}
+	// U4 is in the register but named by no one: 0, no home share.
+	if v, ok := voteValue(res, "U4", KeyEsteem); !ok || v != 0 {
+		t.Errorf("U4 esteem %v (present %v), want 0", v, ok)
+	}
+	if _, ok := voteValue(res, "U4", KeyHomeShare); ok {
+		t.Error("U4 has no votes, so no home share")
 	}
 	if !near(res.Kish, 16/5.5) {
 		t.Errorf("Kish = %v, want 16/5.5 (computed by hand)", res.Kish)

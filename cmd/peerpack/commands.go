@@ -212,7 +212,7 @@ func runDemo(ctx context.Context, e *env, args []string) int {
 		e.infof("wrote the demo scenario to %s; build it with: peerpack build %s -o demo.pdf\n", *write, filepath.Join(*write, demo.BriefName))
 		return exitOK
 	}
-	src := build.Source{FS: demo.FS(), Brief: demo.BriefName, Display: "demo/" + demo.BriefName}
+	src := build.Source{FS: demo.FS(), Brief: demo.BriefName, Display: "demo/" + demo.BriefName, Rebuild: "peerpack demo -o demo.pdf"}
 	return doBuild(ctx, e, src, *out, *figs, *wb)
 }
 

@@ -22,10 +22,13 @@ type Brief struct {
 	// Dir is the folder data paths are relative to.
 	Dir string `yaml:"-"`
 
-	Title    string   `yaml:"title"`
-	Subtitle string   `yaml:"subtitle"`
-	Audience string   `yaml:"audience"`
-	Author   string   `yaml:"author"`
+	Title    string `yaml:"title"`
+	Subtitle string `yaml:"subtitle"`
+	Audience string `yaml:"audience"`
+	Author   string `yaml:"author"`
+	// Contact says whom to ask about the pack (a name, an office, an
+	// address); it closes "About these figures".
+	Contact  string   `yaml:"contact"`
 	Date     string   `yaml:"date"`
 	Keywords []string `yaml:"keywords"`
 	// Focus is the register id of the institution the pack is about.

@@ -15,6 +15,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"peerpack/internal/provenance"
 	"runtime/debug"
 	"strconv"
 	"strings"
@@ -41,6 +42,10 @@ type Source struct {
 	// Dir is the root folder on disk (absolute), empty for an in-memory
 	// FS; builds use it to refuse an output that is one of their inputs.
 	Dir string
+	// Rebuild is the command a reader runs to build the pack again from
+	// the same files, printed in its closing section; empty gives
+	// "peerpack build" with the brief's name.
+	Rebuild string
 }
 
 // OpenSource opens a brief on disk. Its data paths are confined to root,
@@ -83,6 +88,11 @@ type Inputs struct {
 	Report  *dataset.Report
 	Figures *figures.Model
 	FS      fs.FS
+	// Sources are the data files read, with sizes and checksums, for the
+	// pack's closing section.
+	Sources []provenance.File
+	// Rebuild is the command that rebuilds the pack from the same files.
+	Rebuild string
 }
 
 // Load reads the brief and everything it names, and computes the figures
@@ -118,7 +128,8 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		// Front matter problems make loading the data pointless.
 		return nil, probs.Err()
 	}
-	d, rep, err := dataset.LoadWith(src.FS, b, lim)
+	rec := provenance.New(src.FS)
+	d, rep, err := dataset.LoadWith(rec, b, lim)
 	if err != nil {
 		probs.Add(err)
 		// The report says what loaded; check prints it above the problems.
@@ -137,7 +148,7 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		probs.Add(err)
 		return nil, probs.Err()
 	}
-	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS}, nil
+	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS, Sources: rec.Files(), Rebuild: src.Rebuild}, nil
 }
 
 // checkBlockCounts refuses a brief with more charts or blocks than the
@@ -256,7 +267,7 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 	}
 	pdf, err := layout.Render(layout.Input{
 		Brief: in.Brief, Model: in.Figures, Commentary: com, FS: in.FS,
-		Created: created, Version: version,
+		Created: created, Version: version, Sources: in.Sources, Rebuild: in.Rebuild,
 	})
 	if err != nil {
 		return nil, err
@@ -363,5 +374,5 @@ func Refocus(base *Inputs, override func(*brief.Brief)) (*Inputs, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Inputs{Brief: &b, Data: base.Data, Report: base.Report, Figures: m, FS: base.FS}, nil
+	return &Inputs{Brief: &b, Data: base.Data, Report: base.Report, Figures: m, FS: base.FS, Sources: base.Sources}, nil
 }

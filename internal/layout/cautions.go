@@ -27,8 +27,10 @@ func (w *writer) cautions() {
 		more := len(w.missingCautions()) > 0 || len(w.indicatorJudgements()) > 0
 		if more {
 			s += " Keep in mind as well:"
+		} else if w.hasMethodologyAppendix() {
+			s += " This section gives the sources of the data and how to build the pack again."
 		} else {
-			s += " This section gives the coverage of the data and the definitions behind each figure."
+			s += " This section gives the sources of the data, how to build the pack again, the coverage of the data and the definitions behind each figure."
 		}
 		w.plain(s)
 		if more {
@@ -36,6 +38,7 @@ func (w *writer) cautions() {
 			w.y += paraGap - listItemGap
 		}
 	}
+	w.provenance()
 	if w.hasMethodologyAppendix() {
 		// The appendix already gives coverage by group and the
 		// definitions; the closing says where rather than repeating them.

@@ -28,7 +28,7 @@ func TestOutlineMirrorsHeadings(t *testing.T) {
 	}
 	walk(doc.Outlines, 0)
 	want := []string{"Contents", "Where we stand", "  Position in detail", "  Peers", "Population and method", "  Notes",
-		"About these figures", "  Coverage", "  How the figures are computed", "  What the figures do not show"}
+		"About these figures", "  Sources and rebuilding", "  Coverage", "  How the figures are computed", "  What the figures do not show"}
 	if strings.Join(got, "\n") != strings.Join(want, "\n") {
 		t.Errorf("outline:\n%s\nwant:\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
 	}

@@ -14,6 +14,7 @@ package layout
 import (
 	"fmt"
 	"io/fs"
+	"peerpack/internal/provenance"
 	"time"
 
 	"github.com/yuin/goldmark/ast"
@@ -38,6 +39,11 @@ type Input struct {
 	Created time.Time
 	// Version is peerpack's version, for the Producer field.
 	Version string
+	// Sources are the data files the pack was built from, with sizes and
+	// checksums; Rebuild is the command that builds it again (empty: a
+	// generic one is given). Both go into "About these figures".
+	Sources []provenance.File
+	Rebuild string
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief

@@ -15,10 +15,6 @@ import (
 	"peerpack/internal/limits"
 )
 
-type nopCloser struct{}
-
-func (nopCloser) Close() error { return nil }
-
 // openSource opens name for one pass: Parquet when it ends in .parquet,
 // else CSV.
 func openSource(fsys fs.FS, name string, lim limits.Limits) (source, io.Closer, error) {
@@ -56,15 +52,19 @@ func openSource(fsys fs.FS, name string, lim limits.Limits) (source, io.Closer, 
 // decimal, floating-point in shortest form), so CSV and Parquet inputs of
 // the same records give identical results.
 type parquetSource struct {
-	file  string
-	r     *parquet.Reader
-	hdr   []string
-	buf   []parquet.Row
-	n, i  int
-	row   int
-	lim   limits.Limits
-	cells [][]byte
-	text  []byte
+	file string
+	// groups are the file's row groups, read one after another through
+	// rows.
+	groups []parquet.RowGroup
+	group  int
+	rows   parquet.Rows
+	hdr    []string
+	buf    []parquet.Row
+	n, i   int
+	row    int
+	lim    limits.Limits
+	cells  [][]byte
+	text   []byte
 	// per-row scratch: where each column's text starts and ends
 	starts, ends []int
 	have         []bool
@@ -106,7 +106,7 @@ func openParquet(name string, f fs.File, lim limits.Limits) (src *parquetSource,
 		}
 		s.hdr = append(s.hdr, path[0])
 	}
-	s.r = parquet.NewReader(pf)
+	s.groups = pf.RowGroups()
 	s.cells = make([][]byte, len(s.hdr))
 	return s, nil
 }
@@ -120,13 +120,24 @@ func (s *parquetSource) next() (cells [][]byte, line int, err error) {
 			cells, err = nil, diag.At(s.file, s.row+1, 0, "not a readable Parquet file (%v)", r)
 		}
 	}()
-	if s.i >= s.n {
-		n, err := s.r.ReadRows(s.buf)
-		if n == 0 {
-			if err == nil || errors.Is(err, io.EOF) {
+	for s.i >= s.n {
+		if s.rows == nil {
+			if s.group >= len(s.groups) {
 				return nil, s.row, io.EOF
 			}
+			s.rows = s.groups[s.group].Rows()
+			s.group++
+		}
+		n, err := s.rows.ReadRows(s.buf)
+		if err != nil && !errors.Is(err, io.EOF) {
 			return nil, s.row, diag.At(s.file, s.row+1, 0, "cannot read row %d: %v", s.row+1, err)
+		}
+		if n == 0 || errors.Is(err, io.EOF) {
+			if n == 0 {
+				s.rows.Close()
+				s.rows = nil
+				continue
+			}
 		}
 		s.n, s.i = n, 0
 	}

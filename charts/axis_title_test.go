@@ -16,8 +16,8 @@ func TestAxisTitleBreaksBetweenPhrases(t *testing.T) {
 	th := Theme{}
 	sty := th.axisStyle()
 	inds := []dataset.Indicator{
-		fxFWCI, fxIntl, fxSSR, fxInc,
-		{Key: "fwci", Short: "FWCI", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter},
+		fxFNCI, fxIntl, fxSSR, fxInc,
+		{Key: "fnci", Short: "FNCI", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter},
 		{Key: "inc", Label: "Research income per academic staff member", Unit: dataset.UnitCurrency, InternationalDollars: true, Better: dataset.HigherIsBetter},
 		{Key: "gender", Short: "Women among professors", Unit: dataset.UnitPercent, Better: dataset.Neutral},
 	}
@@ -50,9 +50,9 @@ func TestAxisTitleBreaksBetweenPhrases(t *testing.T) {
 	}
 	// The reviewed case: a short name whose title no longer fits one line
 	// puts the direction on its own line.
-	fw := dataset.Indicator{Key: "fwci", Short: "FWCI", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter}
-	if got, want := fitAxisTitle(fw, th, sty.Width("FWCI (index), higher is")+1), "FWCI (index)\nhigher is better"; got != want {
-		t.Errorf("FWCI title = %q, want %q", got, want)
+	fw := dataset.Indicator{Key: "fnci", Short: "FNCI", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter}
+	if got, want := fitAxisTitle(fw, th, sty.Width("FNCI (index), higher is")+1), "FNCI (index)\nhigher is better"; got != want {
+		t.Errorf("FNCI title = %q, want %q", got, want)
 	}
 }
 

@@ -33,11 +33,11 @@ func (d discard) Size() (vg.Length, vg.Length)         { return d.w, d.h }
 // benchBody is 25 chart blocks cycling through every kind.
 func benchBody() string {
 	blocks := []string{
-		"kind: box\nindicators: [fwci, ssr]\nlabel: [AL001, KE002]",
-		"kind: radar\nindicators: [fwci, intl_staff, ssr, income]",
-		"kind: trend\nindicators: [intl_staff, fwci]\nlabel: [KE002]",
-		"kind: scatter\nindicators: [intl_staff, fwci]\nfit: true\nlabel: [AL001]",
-		"kind: heatmap\nindicators: [fwci, intl_staff, ssr, income]\nlimit: 20",
+		"kind: box\nindicators: [fnci, ssr]\nlabel: [AL001, KE002]",
+		"kind: radar\nindicators: [fnci, intl_staff, ssr, income]",
+		"kind: trend\nindicators: [intl_staff, fnci]\nlabel: [KE002]",
+		"kind: scatter\nindicators: [intl_staff, fnci]\nfit: true\nlabel: [AL001]",
+		"kind: heatmap\nindicators: [fnci, intl_staff, ssr, income]\nlimit: 20",
 		"kind: bars\nindicators: [income]\nlimit: 15",
 	}
 	var b strings.Builder

@@ -13,7 +13,7 @@ import (
 // 111, 108 and 109).
 func TestBoxPanelStatesItsOwnN(t *testing.T) {
 	// Institution 7 lacks intl_staff in 2023 (buildModel).
-	m, b := buildModel(t, 40, "# B\n\n```chart\nkind: box\nindicators: [fwci, intl_staff]\ngroups: [Kestria national]\nyear: 2023\n```\n")
+	m, b := buildModel(t, 40, "# B\n\n```chart\nkind: box\nindicators: [fnci, intl_staff]\ngroups: [Kestria national]\nyear: 2023\n```\n")
 	c, err := New(m, chartBlocks(b)[0], Theme{})
 	if err != nil {
 		t.Fatal(err)
@@ -22,11 +22,11 @@ func TestBoxPanelStatesItsOwnN(t *testing.T) {
 	g, _ := m.Group("Kestria national")
 	members := len(g.Members)
 	if got := bc.Panels[0].Rows[0].Members; got != members {
-		t.Errorf("fwci panel n = %d, want all %d members", got, members)
+		t.Errorf("fnci panel n = %d, want all %d members", got, members)
 	}
 	// KE007 is odd-numbered, so in Aldmere: Kestria keeps every value.
 	// Use Aldmere to see a panel with one value fewer.
-	m2, b2 := buildModel(t, 40, "# B\n\n```chart\nkind: box\nindicators: [fwci, intl_staff]\ngroups: [Aldmere national]\nyear: 2023\n```\n")
+	m2, b2 := buildModel(t, 40, "# B\n\n```chart\nkind: box\nindicators: [fnci, intl_staff]\ngroups: [Aldmere national]\nyear: 2023\n```\n")
 	c2, err := New(m2, chartBlocks(b2)[0], Theme{})
 	if err != nil {
 		t.Fatal(err)
@@ -41,7 +41,7 @@ func TestBoxPanelStatesItsOwnN(t *testing.T) {
 // already drew some of its members (the review saw "(n = 0)"), and says
 // that shared points are drawn once.
 func TestScatterLegendCountsOverlappingGroups(t *testing.T) {
-	m, b := buildModel(t, 40, "# S\n\n```chart\nkind: scatter\nindicators: [intl_staff, fwci]\ngroups: [Research mission, Kestria national]\n```\n")
+	m, b := buildModel(t, 40, "# S\n\n```chart\nkind: scatter\nindicators: [intl_staff, fnci]\ngroups: [Research mission, Kestria national]\n```\n")
 	c, err := New(m, chartBlocks(b)[0], Theme{})
 	if err != nil {
 		t.Fatal(err)
@@ -74,7 +74,7 @@ func TestScatterLegendCountsOverlappingGroups(t *testing.T) {
 // made an ordinary profile look extreme); the scale is stated and units
 // must agree.
 func TestRadarCommonScale(t *testing.T) {
-	m, b := buildModel(t, 40, "# R\n\n```chart\nkind: radar\nindicators: [fwci, intl_staff, ssr]\ngroups: [Kestria national]\nscale: common\n```\n")
+	m, b := buildModel(t, 40, "# R\n\n```chart\nkind: radar\nindicators: [fnci, intl_staff, ssr]\ngroups: [Kestria national]\nscale: common\n```\n")
 	if _, err := New(m, chartBlocks(b)[0], Theme{}); err == nil || !strings.Contains(err.Error(), "need one unit") {
 		t.Errorf("mixed units accepted on a common scale: %v", err)
 	}

@@ -24,7 +24,7 @@ type fixtureChart struct {
 
 // Invented indicators of the fixture.
 var (
-	fxFWCI = dataset.Indicator{Key: "fwci", Short: "Citation impact", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter, Decimals: 2}
+	fxFNCI = dataset.Indicator{Key: "fnci", Short: "Citation impact", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter, Decimals: 2}
 	fxIntl = dataset.Indicator{Key: "intl_staff", Short: "International staff", Unit: dataset.UnitPercent, Better: dataset.HigherIsBetter, Decimals: 1}
 	fxSSR  = dataset.Indicator{Key: "ssr", Short: "Students per academic", Unit: dataset.UnitRatio, Better: dataset.LowerIsBetter, Decimals: 1}
 	fxInc  = dataset.Indicator{Key: "income", Short: "Research income per academic", Unit: dataset.UnitCurrency, Currency: true, Better: dataset.HigherIsBetter, Decimals: 0}
@@ -73,14 +73,14 @@ func scaleOf(ind dataset.Indicator) float64 {
 
 func fixtureCharts() []fixtureChart {
 	return []fixtureChart{
-		{"box", &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFWCI, Rows: fxBoxRows(fxFWCI, 1, 1.137)}}}},
+		{"box", &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFNCI, Rows: fxBoxRows(fxFNCI, 1, 1.137)}}}},
 		{"box-panels", &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{
-			{Indicator: fxFWCI, Rows: fxBoxRows(fxFWCI, 1, 1.137)},
+			{Indicator: fxFNCI, Rows: fxBoxRows(fxFNCI, 1, 1.137)},
 			{Indicator: fxIntl, Rows: fxBoxRows(fxIntl, 11, 23.46)},
 		}}},
-		{"trend", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendPanel(fxFWCI, 3)}}},
-		{"trend-panels", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendPanel(fxFWCI, 3), fxTrendPanel(fxIntl, 5)}}},
-		{"trend-systems", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendGroups(fxIntl, 31, 6), fxTrendGroups(fxFWCI, 37, 6), fxTrendGroups(fxInc, 41, 6)}}},
+		{"trend", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendPanel(fxFNCI, 3)}}},
+		{"trend-panels", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendPanel(fxFNCI, 3), fxTrendPanel(fxIntl, 5)}}},
+		{"trend-systems", &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendGroups(fxIntl, 31, 6), fxTrendGroups(fxFNCI, 37, 6), fxTrendGroups(fxInc, 41, 6)}}},
 		{"scatter", fxScatter(40)},
 		{"radar", fxRadar(true)},
 		{"radar-range", fxRadar(false)},
@@ -137,7 +137,7 @@ func fxTrendGroups(ind dataset.Indicator, seed uint64, n int) TrendPanel {
 }
 
 func fxScatter(n int) *ScatterChart {
-	sc := &ScatterChart{XInd: fxIntl, YInd: fxFWCI}
+	sc := &ScatterChart{XInd: fxIntl, YInd: fxFNCI}
 	var ax, ay []float64
 	for gi, name := range []string{"Kestria national", "Northern research universities", "Technical universities"} {
 		g := ScatterGroup{Label: name}
@@ -211,7 +211,7 @@ func fxHeatmap() *HeatmapChart {
 }
 
 func fxBars() *BarsChart {
-	bc := &BarsChart{Indicator: fxFWCI, Group: "Kestria national", Median: 1.02}
+	bc := &BarsChart{Indicator: fxFNCI, Group: "Kestria national", Median: 1.02}
 	vals := []float64{1.74, 1.61, 1.58, 1.58, 1.49, 1.33, 1.30, 1.21, 1.18}
 	names := []string{"Kestria Institute of Technology", "Université de Saint-Éluard", "Vårdø School of Economics", "Northern Kestria University", "University of Lesser Ostmark", "Politechnika Źródłowa", "Ostmark College of Applied Sciences and Maritime Studies", "Vårdø Academy of Music", "Lesser Ostmark Polytechnic"}
 	ranks := []int{1, 2, 3, 3, 5, 6, 7, 8, 9}

@@ -52,7 +52,7 @@ func checkColumnsAligned(t *testing.T, l *legend, lay legendLayout, width vg.Len
 // A mark whose name finds no room is still explained: the legend's note
 // counts the labels left out, and says nothing when all fit.
 func TestLegendCountsLabelsLeftOut(t *testing.T) {
-	crowded := &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFWCI, Rows: fxBoxRows(fxFWCI, 1, 1.137)}}}
+	crowded := &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFNCI, Rows: fxBoxRows(fxFNCI, 1, 1.137)}}}
 	rec := record(t, crowded, halfWidth)
 	bp := crowded.panels()
 	n := bp.droppedAt[halfWidth]
@@ -62,7 +62,7 @@ func TestLegendCountsLabelsLeftOut(t *testing.T) {
 	if !hasText(rec.Actions, droppedNote(n)) {
 		t.Errorf("half width: %d labels left out but the note %q is not drawn", n, droppedNote(n))
 	}
-	roomy := &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFWCI, Rows: fxBoxRows(fxFWCI, 1, 1.137)[2:]}}}
+	roomy := &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFNCI, Rows: fxBoxRows(fxFNCI, 1, 1.137)[2:]}}}
 	if rec := record(t, roomy, fullWidth); textContains(rec.Actions, "left out for lack of room") {
 		t.Error("a chart whose labels all fit says some were left out")
 	}

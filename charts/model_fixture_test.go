@@ -16,7 +16,7 @@ import (
 // invented institutions and values drawn from a fixed seed.
 
 var fixtureIndicators = []dataset.Indicator{
-	{Key: "fwci", Label: "Field-weighted citation impact", Short: "Citation impact", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter, Decimals: 2},
+	{Key: "fnci", Label: "Field-normalised citation impact", Short: "Citation impact", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter, Decimals: 2},
 	{Key: "intl_staff", Label: "International academic staff", Short: "International staff", Unit: dataset.UnitPercent, Better: dataset.HigherIsBetter, Decimals: 1},
 	{Key: "ssr", Label: "Students per academic", Short: "Students per academic", Unit: dataset.UnitRatio, Better: dataset.LowerIsBetter, Decimals: 1},
 	{Key: "income", Label: "Research income per academic", Short: "Research income", Unit: dataset.UnitCurrency, Currency: true, Better: dataset.HigherIsBetter, Decimals: 0},
@@ -101,14 +101,14 @@ groups:
 
 // goldenBody has one chart block of every kind (and some variants).
 const goldenBody = "# Charts\n" +
-	"\n```chart\nkind: box\nindicators: [fwci]\nlabel: [AL001, KE002]\n```\n" +
-	"\n```chart\nkind: box\nindicators: [fwci, ssr]\ngroups: [Kestria national, Aldmere national]\norientation: vertical\n```\n" +
-	"\n```chart\nkind: radar\nindicators: [fwci, intl_staff, ssr, income]\ngroups: [Kestria national, Research mission]\n```\n" +
-	"\n```chart\nkind: radar\nindicators: [fwci, intl_staff, ssr, income]\ngroups: [Kestria national]\nscale: range\n```\n" +
+	"\n```chart\nkind: box\nindicators: [fnci]\nlabel: [AL001, KE002]\n```\n" +
+	"\n```chart\nkind: box\nindicators: [fnci, ssr]\ngroups: [Kestria national, Aldmere national]\norientation: vertical\n```\n" +
+	"\n```chart\nkind: radar\nindicators: [fnci, intl_staff, ssr, income]\ngroups: [Kestria national, Research mission]\n```\n" +
+	"\n```chart\nkind: radar\nindicators: [fnci, intl_staff, ssr, income]\ngroups: [Kestria national]\nscale: range\n```\n" +
 	"\n```chart\nkind: trend\nindicators: [intl_staff]\ngroups: [Kestria national, Aldmere national]\nlabel: [KE002]\n```\n" +
-	"\n```chart\nkind: scatter\nindicators: [intl_staff, fwci]\ngroups: [Kestria national, Aldmere national]\nlabel: [AL001]\nfit: true\n```\n" +
-	"\n```chart\nkind: heatmap\nindicators: [fwci, intl_staff, ssr, income]\ngroups: [Kestria national]\nlabel: [KE002]\nlimit: 12\n```\n" +
-	"\n```chart\nkind: bars\nindicators: [fwci]\ngroups: [Kestria national]\nlimit: 10\n```\n"
+	"\n```chart\nkind: scatter\nindicators: [intl_staff, fnci]\ngroups: [Kestria national, Aldmere national]\nlabel: [AL001]\nfit: true\n```\n" +
+	"\n```chart\nkind: heatmap\nindicators: [fnci, intl_staff, ssr, income]\ngroups: [Kestria national]\nlabel: [KE002]\nlimit: 12\n```\n" +
+	"\n```chart\nkind: bars\nindicators: [fnci]\ngroups: [Kestria national]\nlimit: 10\n```\n"
 
 // chartBlocks returns the brief's chart blocks.
 func chartBlocks(b *brief.Brief) []*brief.ChartBlock {

@@ -66,7 +66,7 @@ func TestBoxDrawsModelNumbers(t *testing.T) {
 	}
 	acts := record(t, ch, fullWidth).Actions
 	x := axisMap(t, acts, th)
-	d, ok := m.Distribution("Kestria national", "fwci", m.Year)
+	d, ok := m.Distribution("Kestria national", "fnci", m.Year)
 	if !ok {
 		t.Fatal("no distribution in the model")
 	}
@@ -102,7 +102,7 @@ func TestBoxDrawsModelNumbers(t *testing.T) {
 	if !found || medianX < 0 || focusX < 0 {
 		t.Fatalf("box %v, median %v, focus %v not all found in the drawing", found, medianX, focusX)
 	}
-	pos, _ := m.Position("Kestria national", "fwci", m.Focus, m.Year)
+	pos, _ := m.Position("Kestria national", "fnci", m.Focus, m.Year)
 	const tol = 0.05 // points; tick labels are placed to font metrics
 	for _, c := range []struct {
 		what      string
@@ -175,13 +175,13 @@ func TestBlockErrors(t *testing.T) {
 		spec brief.ChartBlock
 		want string
 	}{
-		{brief.ChartBlock{Type: "pie", Indicators: []string{"fwci"}}, `kind "pie" is not drawn; use one of bars, box, heatmap, radar, scatter, trend`},
-		{brief.ChartBlock{Type: "box", Indicators: []string{"fwcii"}}, `indicator "fwcii" is not in the dictionary (did you mean "fwci"?)`},
-		{brief.ChartBlock{Type: "box", Indicators: []string{"fwci"}, Groups: []string{"Kestria nationl"}}, `group "Kestria nationl" is not defined in the brief (did you mean "Kestria national"?)`},
-		{brief.ChartBlock{Type: "scatter", Indicators: []string{"fwci"}}, "a scatter takes exactly two indicators, x then y; found 1"},
-		{brief.ChartBlock{Type: "radar", Indicators: []string{"fwci", "ssr"}}, "a radar needs at least three indicators; found 2"},
-		{brief.ChartBlock{Type: "radar", Indicators: []string{"fwci", "ssr", "income"}, Scale: "log"}, `scale "log": use percentile, range or common`},
-		{brief.ChartBlock{Type: "box", Indicators: []string{"fwci"}, Label: []string{"XX999"}}, `label "XX999" is neither a register id nor an institution name`},
+		{brief.ChartBlock{Type: "pie", Indicators: []string{"fnci"}}, `kind "pie" is not drawn; use one of bars, box, heatmap, radar, scatter, trend`},
+		{brief.ChartBlock{Type: "box", Indicators: []string{"fncii"}}, `indicator "fncii" is not in the dictionary (did you mean "fnci"?)`},
+		{brief.ChartBlock{Type: "box", Indicators: []string{"fnci"}, Groups: []string{"Kestria nationl"}}, `group "Kestria nationl" is not defined in the brief (did you mean "Kestria national"?)`},
+		{brief.ChartBlock{Type: "scatter", Indicators: []string{"fnci"}}, "a scatter takes exactly two indicators, x then y; found 1"},
+		{brief.ChartBlock{Type: "radar", Indicators: []string{"fnci", "ssr"}}, "a radar needs at least three indicators; found 2"},
+		{brief.ChartBlock{Type: "radar", Indicators: []string{"fnci", "ssr", "income"}, Scale: "log"}, `scale "log": use percentile, range or common`},
+		{brief.ChartBlock{Type: "box", Indicators: []string{"fnci"}, Label: []string{"XX999"}}, `label "XX999" is neither a register id nor an institution name`},
 	} {
 		spec := c.spec
 		spec.At = brief.Pos{Line: 12, Column: 1}

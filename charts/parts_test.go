@@ -171,9 +171,9 @@ func TestAnyWidthDrawsWithoutPanic(t *testing.T) {
 }
 
 func TestBoxEmptyRowSaysNoValues(t *testing.T) {
-	rows := fxBoxRows(fxFWCI, 1, 1.137)
+	rows := fxBoxRows(fxFNCI, 1, 1.137)
 	rows = append(rows, BoxRow{Label: "Empty group", Box: stats.BoxOf(nil, stats.Type7), Focus: math.NaN()})
-	bc := &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFWCI, Rows: rows}}}
+	bc := &BoxChart{FocusName: "Høgskolen i Vårdø", Panels: []BoxPanel{{Indicator: fxFNCI, Rows: rows}}}
 	if !hasText(record(t, bc, fullWidth).Actions, "no values") {
 		t.Error("an empty group's row does not say it has no values")
 	}

@@ -12,7 +12,7 @@ import (
 // the block asking for a line gets none and a note saying why; with 60 it
 // gets the line.
 func TestScatterFitNeedsEnoughPairs(t *testing.T) {
-	body := "\n```chart\nkind: scatter\nindicators: [intl_staff, fwci]\ngroups: [Kestria national, Aldmere national]\nfit: true\n```\n"
+	body := "\n```chart\nkind: scatter\nindicators: [intl_staff, fnci]\ngroups: [Kestria national, Aldmere national]\nfit: true\n```\n"
 	for _, c := range []struct {
 		n    int
 		line bool

@@ -55,15 +55,15 @@ func TestTrendDrawsNoBandsAboveTwoGroups(t *testing.T) {
 // The latest values stand in one column right of the last year, in the
 // order of the line ends they belong to, so their leaders never cross.
 func TestTrendEndLabelsInOneOrderedColumn(t *testing.T) {
-	pn := fxTrendGroups(fxFWCI, 37, 6)
+	pn := fxTrendGroups(fxFNCI, 37, 6)
 	tc := &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{pn}}
 	for _, w := range []vg.Length{fullWidth, halfWidth} {
 		rec := record(t, tc, w)
 		want := map[string]float64{}
 		for _, b := range pn.Bands {
-			want[valueText(fxFWCI, b.Median[len(b.Median)-1])] = b.Median[len(b.Median)-1]
+			want[valueText(fxFNCI, b.Median[len(b.Median)-1])] = b.Median[len(b.Median)-1]
 		}
-		want[valueText(fxFWCI, pn.Focus.Values[len(pn.Focus.Values)-1])] = pn.Focus.Values[len(pn.Focus.Values)-1]
+		want[valueText(fxFNCI, pn.Focus.Values[len(pn.Focus.Values)-1])] = pn.Focus.Values[len(pn.Focus.Values)-1]
 		type lab struct {
 			y, v float64
 			x    vg.Length
@@ -93,7 +93,7 @@ func TestTrendEndLabelsInOneOrderedColumn(t *testing.T) {
 
 // Three panels in two columns leave no empty cell: the legend takes it.
 func TestTrendThreePanelsLeaveNoEmptyCell(t *testing.T) {
-	tc := &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendGroups(fxIntl, 31, 6), fxTrendGroups(fxFWCI, 37, 6), fxTrendGroups(fxInc, 41, 6)}}
+	tc := &TrendChart{FocusName: "Høgskolen i Vårdø", Panels: []TrendPanel{fxTrendGroups(fxIntl, 31, 6), fxTrendGroups(fxFNCI, 37, 6), fxTrendGroups(fxInc, 41, 6)}}
 	ps := tc.panels()
 	if ps.cols(fullWidth) != 2 || !ps.legendGap(fullWidth) {
 		t.Fatalf("three panels at full width: %d columns, legend in the empty cell = %v", ps.cols(fullWidth), ps.legendGap(fullWidth))

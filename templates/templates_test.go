@@ -54,6 +54,9 @@ func TestTemplatesBuildOnTheDemoData(t *testing.T) {
 		for _, p := range s.Check(b) {
 			t.Errorf("%s: %s", name, p)
 		}
+		for _, p := range s.SizeRanked(b) {
+			t.Errorf("%s: %s", name, p)
+		}
 		if n := bytes.Count(src, []byte(EditMarker)); n < 5 {
 			t.Errorf("%s has %d %q comments; a template should say what to edit", name, n, EditMarker)
 		}

@@ -204,8 +204,9 @@ func scalarList(v *yaml.Node) ([]string, error) {
 // PopulationSpec holds the rules that decide the ranked population.
 type PopulationSpec struct {
 	// MinTotal requires an indicator summed over the last Years years to
-	// reach AtLeast (the trade commonly asks about 1,000 papers over five
-	// years; common practice, no source).
+	// reach AtLeast: a minimum output below which per-paper indicators are
+	// too noisy to compare (the threshold is the user's choice; the demo
+	// asks for 600 papers over three years).
 	MinTotal []MinTotalRule `yaml:"min_total"`
 	// MaxValue caps an indicator, for example the largest share of output
 	// in a single subject.

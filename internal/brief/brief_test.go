@@ -25,10 +25,10 @@ groups:
   - name: Chosen peers
     members: [KE007, AL022]
   - name: Profile peers
-    nearest: {count: 15, indicators: [fwci, papers_per_academic]}
+    nearest: {count: 15, indicators: [fnci, papers_per_academic]}
 population:
   min_total:
-    - {indicator: papers, years: 5, at_least: 1000}
+    - {indicator: papers, years: 3, at_least: 600}
 theme:
   paper: letter
   accent: "#1f4e79"
@@ -39,7 +39,7 @@ Some text.
 
 ` + "```chart" + `
 kind: box
-indicators: [intl_staff_share, fwci]
+indicators: [intl_staff_share, fnci]
 groups: [Home sector]
 caption: International staff
 ` + "```" + `
@@ -77,7 +77,7 @@ func TestParseGoodBrief(t *testing.T) {
 	if b.Groups[0].Pos.Line != 13 {
 		t.Errorf("group position %v, want line 13", b.Groups[0].Pos)
 	}
-	if b.Population == nil || b.Population.MinTotal[0].AtLeast != 1000 {
+	if b.Population == nil || b.Population.MinTotal[0].AtLeast != 600 {
 		t.Errorf("population %+v", b.Population)
 	}
 	if b.Theme.Paper != "letter" || b.Language != "en-GB" || b.Quantiles != "type7" {

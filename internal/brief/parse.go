@@ -221,7 +221,7 @@ func (b *Brief) setGroupPositions(root *yaml.Node) error {
 }
 
 var ruleExample = map[string]string{
-	"min_total": "{indicator: papers, years: 5, at_least: 1000}",
+	"min_total": "{indicator: papers, years: 3, at_least: 600}",
 	"max_value": "{indicator: top_subject_share, at_most: 80}",
 }
 
@@ -322,7 +322,7 @@ func (b *Brief) validateFrontMatter() error {
 			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q must be defined by exactly one of where, members, nearest or each (each may carry a where)", g.Name)
 		}
 		if g.Nearest != nil && (g.Nearest.Count < 1 || len(g.Nearest.Indicators) == 0) {
-			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: nearest needs a count of at least 1 and a list of indicators, e.g. nearest: {count: 15, indicators: [fwci, papers_per_academic]}", g.Name)
+			l.Addf(b.File, g.Pos.Line, g.Pos.Column, "group %q: nearest needs a count of at least 1 and a list of indicators, e.g. nearest: {count: 15, indicators: [fnci, papers_per_academic]}", g.Name)
 		}
 		switch g.Over {
 		case "", "ranked", "all":

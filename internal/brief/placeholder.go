@@ -17,10 +17,10 @@ import (
 // Inline figures. A brief's text may name a figure and have the pack print
 // it, formatted with the indicator's decimals and unit:
 //
-//	{=value fwci}                        the focus's value in the brief year
-//	{=rank fwci in "National peers"}     "12th of 140" in that group
-//	{=median fwci in Kestria for 2023}   the group's median in 2023
-//	{=percentile fwci of KE004}          another institution's percentile
+//	{=value fnci}                        the focus's value in the brief year
+//	{=rank fnci in "National peers"}     "12th of 140" in that group
+//	{=median fnci in Kestria for 2023}   the group's median in 2023
+//	{=percentile fnci of KE004}          another institution's percentile
 //	{=name of KE004}, {=members in "National peers"}
 //
 // The form is "{=" measure [indicator] clauses "}". Clauses, in any order,
@@ -106,7 +106,7 @@ func FindPlaceholders(s string) ([]Placeholder, []*PlaceholderError) {
 		}
 		end := strings.IndexByte(s[start:], '}')
 		if end < 0 || end > MaxPlaceholderBytes {
-			errs = append(errs, &PlaceholderError{Offset: start, Msg: "placeholder \"{=\" is not closed with \"}\"; write e.g. {=value fwci}, or {\\= to print the characters"})
+			errs = append(errs, &PlaceholderError{Offset: start, Msg: "placeholder \"{=\" is not closed with \"}\"; write e.g. {=value fnci}, or {\\= to print the characters"})
 			i = start + 2
 			continue
 		}
@@ -164,7 +164,7 @@ func parsePlaceholder(inner string) (Placeholder, error) {
 		return p, err
 	}
 	if len(words) == 0 {
-		return p, fmt.Errorf("name a measure, e.g. {=value fwci}; measures are %s", strings.Join(PlaceholderMeasures, ", "))
+		return p, fmt.Errorf("name a measure, e.g. {=value fnci}; measures are %s", strings.Join(PlaceholderMeasures, ", "))
 	}
 	p.Measure = unquote(words[0])
 	if !oneOf(p.Measure, PlaceholderMeasures) {
@@ -177,7 +177,7 @@ func parsePlaceholder(inner string) (Placeholder, error) {
 	rest := words[1:]
 	if !placeholderNoIndicator[p.Measure] {
 		if len(rest) == 0 || isClauseWord(rest[0]) {
-			return p, fmt.Errorf("measure %q needs an indicator key, e.g. {=%s fwci}", p.Measure, p.Measure)
+			return p, fmt.Errorf("measure %q needs an indicator key, e.g. {=%s fnci}", p.Measure, p.Measure)
 		}
 		p.Indicator = unquote(rest[0])
 		rest = rest[1:]

@@ -13,23 +13,23 @@ func TestFindPlaceholders(t *testing.T) {
 		want []Placeholder
 		errs []string
 	}{
-		{in: "Impact is {=value fwci}.", want: []Placeholder{{Measure: "value", Indicator: "fwci", Raw: "{=value fwci}", Start: 10, End: 23}}},
-		{in: `{=rank fwci in "National peers" of KE004 for 2024}`, want: []Placeholder{{Measure: "rank", Indicator: "fwci", Group: "National peers", Institution: "KE004", Year: 2024, Raw: `{=rank fwci in "National peers" of KE004 for 2024}`, Start: 0, End: 50}}},
+		{in: "Impact is {=value fnci}.", want: []Placeholder{{Measure: "value", Indicator: "fnci", Raw: "{=value fnci}", Start: 10, End: 23}}},
+		{in: `{=rank fnci in "National peers" of KE004 for 2024}`, want: []Placeholder{{Measure: "rank", Indicator: "fnci", Group: "National peers", Institution: "KE004", Year: 2024, Raw: `{=rank fnci in "National peers" of KE004 for 2024}`, Start: 0, End: 50}}},
 		{in: "{=name} and {=members in Kestria} {=value x of focus}", want: []Placeholder{
 			{Measure: "name", Raw: "{=name}", Start: 0, End: 7},
 			{Measure: "members", Group: "Kestria", Raw: "{=members in Kestria}", Start: 12, End: 33},
 			{Measure: "value", Indicator: "x", Raw: "{=value x of focus}", Start: 34, End: 53},
 		}},
-		{in: `literal {\=value fwci} stays`},
+		{in: `literal {\=value fnci} stays`},
 		{in: "no placeholder {here} at all"},
-		{in: "{=valeu fwci}", errs: []string{`unknown measure "valeu"; did you mean "value"?`}},
+		{in: "{=valeu fnci}", errs: []string{`unknown measure "valeu"; did you mean "value"?`}},
 		{in: "{=rank}", errs: []string{`measure "rank" needs an indicator key`}},
-		{in: "{=rank fwci for 20x4}", errs: []string{`year "20x4" is not a four-digit year`}},
-		{in: "{=rank fwci in}", errs: []string{`clause "in" needs a value`}},
-		{in: "{=rank fwci in A in B}", errs: []string{`clause "in" is given twice`}},
-		{in: "{=rank fwci at home}", errs: []string{`unexpected "at"`}},
-		{in: `{=rank fwci in "open}`, errs: []string{"quoted name is not closed"}},
-		{in: "{=value fwci", errs: []string{"is not closed"}},
+		{in: "{=rank fnci for 20x4}", errs: []string{`year "20x4" is not a four-digit year`}},
+		{in: "{=rank fnci in}", errs: []string{`clause "in" needs a value`}},
+		{in: "{=rank fnci in A in B}", errs: []string{`clause "in" is given twice`}},
+		{in: "{=rank fnci at home}", errs: []string{`unexpected "at"`}},
+		{in: `{=rank fnci in "open}`, errs: []string{"quoted name is not closed"}},
+		{in: "{=value fnci", errs: []string{"is not closed"}},
 		{in: "{=}", errs: []string{"name a measure"}},
 	}
 	for _, c := range cases {
@@ -56,7 +56,7 @@ func TestFindPlaceholders(t *testing.T) {
 }
 
 func TestPlaceholdersInBriefArePositioned(t *testing.T) {
-	src := strings.Replace(goodBrief, "Some text.", "Some text with {=value fwci in \"Home sector\"}\nand *{=rank papers_per_academic}* here.\n\n| a | b |\n|---|---|\n| {=median fwci} | `{=notplaceholder}` |\n\nBad {=rank fwci in \"Home sectr\"} and {=valeu fwci}.", 1)
+	src := strings.Replace(goodBrief, "Some text.", "Some text with {=value fnci in \"Home sector\"}\nand *{=rank papers_per_academic}* here.\n\n| a | b |\n|---|---|\n| {=median fnci} | `{=notplaceholder}` |\n\nBad {=rank fnci in \"Home sectr\"} and {=valeu fnci}.", 1)
 	b, err := Parse("brief.md", []byte(src))
 	if err != nil {
 		t.Fatal(err)
@@ -72,10 +72,10 @@ func TestPlaceholdersInBriefArePositioned(t *testing.T) {
 		line int
 		col  int
 	}{
-		{`{=value fwci in "Home sector"}`, 31, 16},
+		{`{=value fnci in "Home sector"}`, 31, 16},
 		{"{=rank papers_per_academic}", 32, 6},
-		{"{=median fwci}", 36, 3},
-		{`{=rank fwci in "Home sectr"}`, 38, 5},
+		{"{=median fnci}", 36, 3},
+		{`{=rank fnci in "Home sectr"}`, 38, 5},
 	}
 	for i, w := range want {
 		if ps[i].Raw != w.raw || ps[i].Pos.Line != w.line || ps[i].Pos.Column != w.col {
@@ -86,7 +86,7 @@ func TestPlaceholdersInBriefArePositioned(t *testing.T) {
 		t.Fatal("want errors for the unknown group and measure")
 	}
 	msg := err.Error()
-	for _, w := range []string{`brief.md:38:38: placeholder {=valeu fwci}: unknown measure "valeu"; did you mean "value"?`, `brief.md:38:5: placeholder {=rank fwci in "Home sectr"} names group "Home sectr", which the front matter does not define; did you mean "Home sector"?`} {
+	for _, w := range []string{`brief.md:38:38: placeholder {=valeu fnci}: unknown measure "valeu"; did you mean "value"?`, `brief.md:38:5: placeholder {=rank fnci in "Home sectr"} names group "Home sectr", which the front matter does not define; did you mean "Home sector"?`} {
 		if !strings.Contains(msg, w) {
 			t.Errorf("errors lack %q:\n%s", w, msg)
 		}
@@ -94,7 +94,7 @@ func TestPlaceholdersInBriefArePositioned(t *testing.T) {
 }
 
 func FuzzPlaceholder(f *testing.F) {
-	for _, s := range []string{"{=value fwci}", `{=rank fwci in "A b" of X for 2024}`, "{=", "{=}", `{\=x}`, "{=a\"", "{={=value x}}"} {
+	for _, s := range []string{"{=value fnci}", `{=rank fnci in "A b" of X for 2024}`, "{=", "{=}", `{\=x}`, "{=a\"", "{={=value x}}"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {

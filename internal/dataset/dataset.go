@@ -31,7 +31,7 @@ const (
 	UnitRatio    Unit = "ratio"    // any non-negative ratio
 	UnitCount    Unit = "count"    // non-negative
 	UnitCurrency Unit = "currency" // money amount; PPP converted when currency: true
-	UnitIndex    Unit = "index"    // e.g. field-weighted citation impact, 1 = world average
+	UnitIndex    Unit = "index"    // e.g. field-normalised citation impact, 1 = world average
 	UnitScore    Unit = "score"    // a published or composite score
 )
 
@@ -89,7 +89,7 @@ type Indicator struct {
 }
 
 // RunningLabel is the indicator's label as running text reads it: the
-// first letter lowered unless the first word is an abbreviation ("FWCI",
+// first letter lowered unless the first word is an abbreviation ("FNCI",
 // "PhD share") or the capital is joined to what follows ("A-level"); the
 // key when there is no label.
 func (ind Indicator) RunningLabel() string {

@@ -54,7 +54,7 @@ func (l *loader) population(d *Dataset) {
 			continue
 		}
 		if math.IsNaN(r.AtLeast) || math.IsInf(r.AtLeast, 0) {
-			l.probs.Addf(b.File, r.Pos.Line, r.Pos.Column, "min_total of %q needs at_least: a number (found %v); write the smallest total to keep, e.g. at_least: 1000", r.Indicator, r.AtLeast)
+			l.probs.Addf(b.File, r.Pos.Line, r.Pos.Column, "min_total of %q needs at_least: a number (found %v); write the smallest total to keep, e.g. at_least: 600", r.Indicator, r.AtLeast)
 			continue
 		}
 		if ind < 0 {

@@ -29,11 +29,11 @@ func TestPopulationTextNumbers(t *testing.T) {
 		t.Errorf("yearRange = %q", got)
 	}
 	for label, want := range map[string]string{
-		"Papers":                         "papers",
-		"FWCI":                           "FWCI",
-		"PhD completions":                "PhD completions",
-		"A-level entrants":               "A-level entrants",
-		"Field-weighted citation impact": "field-weighted citation impact",
+		"Papers":                           "papers",
+		"FNCI":                             "FNCI",
+		"PhD completions":                  "PhD completions",
+		"A-level entrants":                 "A-level entrants",
+		"Field-normalised citation impact": "field-normalised citation impact",
 	} {
 		if got := runningText(Indicator{Key: "k", Label: label}); got != want {
 			t.Errorf("runningText(%q) = %q, want %q", label, got, want)

@@ -95,6 +95,13 @@ func TestBriefParsesAndRefersToScenario(t *testing.T) {
 	for _, p := range s.Check(b) {
 		t.Error(p)
 	}
+	// Size is context, never ranked as quality.
+	if len(s.Size) < 4 {
+		t.Errorf("the dictionary has %d size measures; want staff, students, papers and income at least", len(s.Size))
+	}
+	for _, p := range s.SizeRanked(b) {
+		t.Error(p)
+	}
 	for _, p := range demotest.Unscoped(b) {
 		t.Error(p)
 	}
@@ -186,5 +193,23 @@ func TestWriteRefusesToOverwrite(t *testing.T) {
 	// A path that is a file is refused with a message.
 	if err := Write(changed); err == nil || !strings.Contains(err.Error(), "not a folder") {
 		t.Errorf("Write into a file: got %v", err)
+	}
+}
+
+func TestSizeRankedIsCaught(t *testing.T) {
+	s, err := demotest.Load(FS(), RegisterName, DictionaryName)
+	if err != nil {
+		t.Fatal(err)
+	}
+	src := "---\ntitle: T\nfocus: KE007\nyear: 2025\ndata: {register: institutions.csv, values: values.csv, dictionary: indicators.yaml}\n---\n\n" +
+		"```table\nkind: position\nindicators: [papers, citation_impact]\n```\n\n" +
+		"```chart\nkind: box\nindicators: [total_income]\n```\n"
+	b, err := brief.Parse("size.md", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := s.SizeRanked(b)
+	if len(got) != 1 || !strings.Contains(got[0], "ranks papers") {
+		t.Errorf("a position table on papers: got %q, want one finding on papers (a box of total income is context)", got)
 	}
 }

@@ -543,3 +543,54 @@ func TestRecordSamples(t *testing.T) {
 		}
 	}
 }
+
+// TestRecordsGiveTheCitationImpact computes field-normalised citation
+// impact from the paper records as the published method does (each
+// paper's citations over the mean of all sampled papers of the same broad
+// field, year and type; an institution's value the mean over the papers it
+// leads: the item-oriented mean normalised citation score of Waltman et
+// al. 2011, from memory) and checks that it follows the values file.
+func TestRecordsGiveTheCitationImpact(t *testing.T) {
+	s := loadTable(t)
+	type paper struct {
+		lead, class string
+		cites       float64
+	}
+	var ps []paper
+	sum, n := map[string]float64{}, map[string]float64{}
+	for _, r := range readCSV(t, PapersName)[1:] {
+		class := r[1] + "/" + r[2] + "/" + r[3][:1]
+		c := parseNum(t, PapersName, r[4])
+		ps = append(ps, paper{strings.Split(r[5], ";")[0], class, c})
+		sum[class] += c
+		n[class]++
+	}
+	score, count := map[string]float64{}, map[string]float64{}
+	for _, p := range ps {
+		if mean := sum[p.class] / n[p.class]; mean > 0 {
+			score[p.lead] += p.cites / mean
+			count[p.lead]++
+		}
+	}
+	var x, y []float64
+	for id, c := range count {
+		if c < 40 {
+			continue
+		}
+		var vals []float64
+		for yr := FirstYear; yr <= LastYear; yr++ {
+			if v, ok := s.val[id][yr]["citation_impact"]; ok {
+				vals = append(vals, v)
+			}
+		}
+		x, y = append(x, mean(vals)), append(y, score[id]/c)
+	}
+	if len(x) < 20 {
+		t.Fatalf("only %d institutions lead 40 sampled papers", len(x))
+	}
+	r := pearson(x, y)
+	t.Logf("citation impact from the records against the values file: r = %.2f over %d institutions", r, len(x))
+	if r < 0.5 {
+		t.Errorf("citation impact from the records against the values file: r = %.2f over %d institutions", r, len(x))
+	}
+}

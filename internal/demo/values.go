@@ -139,7 +139,7 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 			surplus := 100 * logistic(-3.3+0.55*in.Finance+0.12*r.normal())
 			docs := math.Round(acad * math.Exp(-2.6+0.7*R+0.1*r.normal()))
 			spin := float64(r.poisson(math.Exp(-1.4 + 0.45*R + 0.6*in.ExchangeShift + 0.7*math.Log(acad/1000))))
-			esteem[t] = math.Exp(1.2 + 1.5*R + 0.6*math.Log(acad/1000))
+			esteem[t] = math.Exp(1.2 + 1.05*R + 0.5*math.Log(acad/1000))
 			iStaff := 100 * logistic(-1.6+0.6*I+0.3*R+staffOwn+0.05*r.normal())
 			iStud := 100 * logistic(-2.0+0.75*I+0.1*R+studOwn+0.06*r.normal())
 			S := in.Support + c.Outcomes

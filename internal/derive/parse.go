@@ -403,7 +403,7 @@ func formExample(form string) string {
 	case strings.HasPrefix(form, "ratio of"):
 		return "ratio of papers to academic_staff"
 	case strings.HasPrefix(form, "share of"):
-		return "share of intl_students in students"
+		return "share of research_income in total_income"
 	case strings.HasPrefix(form, "difference of"):
 		return "difference of income and spending"
 	}

@@ -40,24 +40,24 @@ func TestComputeReportsProblemsAtTheirLines(t *testing.T) {
 			[]string{`group "Home": no institution in the register has country "Kestira"; did you mean "Kestria"?`}},
 		{"unknown each field", "focus: KE02\nyear: 2025\ngroups:\n  - name: Systems\n    each: regoin\n", "",
 			[]string{`each "regoin" is not a column`, `did you mean "region"?`}},
-		{"nearest unknown indicator", "focus: KE02\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fwci, intl_shar]}\n", "",
+		{"nearest unknown indicator", "focus: KE02\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fnci, intl_shar]}\n", "",
 			[]string{`group "Like us": nearest: indicator "intl_shar" is not in the dictionary indicators.yaml; did you mean "intl_share"?`}},
 		{"block unknown indicator", "focus: KE02\nyear: 2025\ngroups:\n  - name: Home\n    where: {country: Kestria}\n",
-			"\n```chart\nkind: box\nindicators: [fwcii]\ngroups: [Home]\n```\n",
-			[]string{`b.md:14:1: chart block: indicator "fwcii" is not in the dictionary indicators.yaml; did you mean "fwci"?`}},
+			"\n```chart\nkind: box\nindicators: [fncii]\ngroups: [Home]\n```\n",
+			[]string{`b.md:14:1: chart block: indicator "fncii" is not in the dictionary indicators.yaml; did you mean "fnci"?`}},
 		{"block unknown group", "focus: KE02\nyear: 2025\ngroups:\n  - name: Home sector\n    where: {country: Kestria}\n",
-			"\n```table\nindicators: [fwci]\ngroups: [Home sectr]\n```\n",
+			"\n```table\nindicators: [fnci]\ngroups: [Home sectr]\n```\n",
 			[]string{`b.md:14:1: table block: group "Home sectr" is not defined under groups: in the front matter; did you mean "Home sector"?`}},
 		{"commentary outside span", "focus: KE02\nyear: 2025\nyears: [2023, 2025]\n",
 			"\n```commentary\nyears: [2021, 2025]\n```\n",
 			[]string{`commentary block: years [2021, 2025] reach outside the brief's years [2023, 2025]`}},
 		{"unknown label", "focus: KE02\nyear: 2025\n",
-			"\n```chart\nkind: box\nindicators: [fwci]\nlabel: [OR9]\n```\n",
+			"\n```chart\nkind: box\nindicators: [fnci]\nlabel: [OR9]\n```\n",
 			[]string{`chart label "OR9" is not in the register`}},
 		{"value slot outside each", "focus: KE02\nyear: 2025\ngroups:\n  - name: Home\n    where: {country: Kestria}\n    phrase: the {value} sector\n", "",
 			[]string{`b.md:10:5: group "Home": phrase "the {value} sector" uses {value}, which only an each group has; write the words in full`}},
-		{"focus lacks nearest indicator", "focus: OR03\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fwci]}\n", "",
-			[]string{`b.md:10:5: group "Like us": the focus OR03 has no value in 2025 of any of fwci, so no institution can be measured against it; choose indicators the focus reports`}},
+		{"focus lacks nearest indicator", "focus: OR03\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fnci]}\n", "",
+			[]string{`b.md:10:5: group "Like us": the focus OR03 has no value in 2025 of any of fnci, so no institution can be measured against it; choose indicators the focus reports`}},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -82,7 +82,7 @@ func TestComputeReportsProblemsAtTheirLines(t *testing.T) {
 func TestComputeCollectsAllProblems(t *testing.T) {
 	d, _ := loadFixture(t)
 	b := briefWith(t, "focus: KE2\nyear: 2025\ngroups:\n  - name: Peers\n    members: [KE01, AL3]\n",
-		"\n```chart\nkind: box\nindicators: [fwcii]\n```\n")
+		"\n```chart\nkind: box\nindicators: [fncii]\n```\n")
 	_, err := Compute(d, b)
 	var l *diag.List
 	if !errors.As(err, &l) || l.Len() != 3 {

@@ -80,17 +80,17 @@ func TestPositionOutsideGroup(t *testing.T) {
 		t.Fatal(err)
 	}
 	al01 := d.Register.Index("AL01")
-	p, ok := m.Position("Home sector", "fwci", al01, 2025)
-	dist, _ := m.Distribution("Home sector", "fwci", 2025)
+	p, ok := m.Position("Home sector", "fnci", al01, 2025)
+	dist, _ := m.Distribution("Home sector", "fnci", 2025)
 	if !ok || p.InGroup || p.Of != dist.N+1 {
 		t.Fatalf("AL01 in Home sector: %+v (n=%d)", p, dist.N)
 	}
-	insts, vals := m.Members("Home sector", "fwci", 2025)
+	insts, vals := m.Members("Home sector", "fnci", 2025)
 	if len(vals) != dist.N || slices.Contains(insts, al01) {
 		t.Fatal("members must not include an outsider")
 	}
 	// The same placement computed on demand.
-	q, ok := m.PlaceOf("Home sector", "fwci", al01, 2025)
+	q, ok := m.PlaceOf("Home sector", "fnci", al01, 2025)
 	if !ok || *q != *p {
 		t.Errorf("PlaceOf = %+v, stored %+v", q, p)
 	}

@@ -12,7 +12,7 @@ import (
 // over a whole sector does not stop at the first focus with a gap.
 func TestNearestLeavesOutWhatTheFocusLacks(t *testing.T) {
 	d, _ := loadFixture(t)
-	b := briefWith(t, "focus: OR03\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fwci, intl_share]}\n", "")
+	b := briefWith(t, "focus: OR03\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 3, indicators: [fnci, intl_share]}\n", "")
 	m, err := Compute(d, b)
 	if err != nil {
 		t.Fatal(err)
@@ -23,7 +23,7 @@ func TestNearestLeavesOutWhatTheFocusLacks(t *testing.T) {
 	}
 	// The definition is read in the pack: the focus's name and the
 	// indicators' labels (lowered as in running text), never ids or keys.
-	want := "the 3 institutions nearest Tessaly College on international students in 2025 (standardised Euclidean distance); field-weighted citation impact left out because Tessaly College reports no value of it in 2025"
+	want := "the 3 institutions nearest Tessaly College on international students in 2025 (standardised Euclidean distance); field-normalised citation impact left out because Tessaly College reports no value of it in 2025"
 	if !strings.HasPrefix(g.Defined, want) {
 		t.Errorf("definition\n%q\nwant it to open\n%q", g.Defined, want)
 	}
@@ -35,8 +35,8 @@ func TestNearestDefinitionUsesLabels(t *testing.T) {
 	cases := []struct {
 		label, key, want string
 	}{
-		{"Field-weighted citation impact", "fwci", "field-weighted citation impact"},
-		{"FWCI", "fwci", "FWCI"},
+		{"Field-normalised citation impact", "fnci", "field-normalised citation impact"},
+		{"FNCI", "fnci", "FNCI"},
 		{"PhD share", "phd", "PhD share"},
 		{"A-level entrants", "alevel", "A-level entrants"},
 		{"", "raw_key", "raw_key"},
@@ -50,13 +50,13 @@ func TestNearestDefinitionUsesLabels(t *testing.T) {
 		t.Errorf("listText = %q", got)
 	}
 	d, _ := loadFixture(t)
-	b := briefWith(t, "focus: KE02\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 4, indicators: [fwci, students_per_academic]}\n", "")
+	b := briefWith(t, "focus: KE02\nyear: 2025\ngroups:\n  - name: Like us\n    nearest: {count: 4, indicators: [fnci, students_per_academic]}\n", "")
 	m, err := Compute(d, b)
 	if err != nil {
 		t.Fatal(err)
 	}
 	g, _ := m.Group("Like us")
-	want := "the 4 institutions nearest University of Valmora on field-weighted citation impact and students per academic in 2025 (standardised Euclidean distance)"
+	want := "the 4 institutions nearest University of Valmora on field-normalised citation impact and students per academic in 2025 (standardised Euclidean distance)"
 	if g == nil || g.Defined != want {
 		t.Errorf("definition %q, want %q", g.Defined, want)
 	}

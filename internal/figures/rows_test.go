@@ -22,7 +22,7 @@ func TestRowsInKeyOrder(t *testing.T) {
 	fixture.Add(
 		Row{Key: Key{Section: SectionCommentary, Group: "summary", Institution: "#0001", Measure: "sentence"}, Text: "One sentence.", IsText: true},
 		Row{Key: Key{Section: SectionComposite, Group: "All", Indicator: "score", Institution: "ZU02", Measure: "value"}, Value: 0.5},
-		Row{Key: Key{Section: SectionPosition, Group: "All", Indicator: "fwci", Institution: "ZU02", Year: 2023, Measure: "extra"}, Value: 2},
+		Row{Key: Key{Section: SectionPosition, Group: "All", Indicator: "fnci", Institution: "ZU02", Year: 2023, Measure: "extra"}, Value: 2},
 	)
 	wd, wb := worldFixture(600, 8, 4)
 	world, err := Compute(wd, wb)

@@ -117,7 +117,7 @@ func (w *writer) annexHeading(title string, keep float64) {
 	w.keep = 0
 }
 
-// runIn sets a paragraph with a bold run-in lead ("Field-weighted citation
+// runIn sets a paragraph with a bold run-in lead ("Field-normalised citation
 // impact.") followed by plain text, at the given size.
 func (w *writer) runIn(lead, text string, size float64) {
 	var sp []span

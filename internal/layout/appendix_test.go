@@ -274,11 +274,11 @@ func TestDataAppendixValues(t *testing.T) {
 // by the figures stage, which checks every block, and by layout itself
 // when handed a model computed without that block.
 func TestAppendixErrorsArePositioned(t *testing.T) {
-	body := "# Annex\n\n```appendix\nkind: methodology\nindicators: [fwcx]\n```\n"
+	body := "# Annex\n\n```appendix\nkind: methodology\nindicators: [fncx]\n```\n"
 	src := fixtureBody(t, body)
 	line := bytes.Count(src[:bytes.Index(src, []byte("```appendix"))], []byte("\n")) + 1
 	cases := []struct{ body, want string }{
-		{"indicators: [fwcx]", `appendix block: indicator "fwcx"`},
+		{"indicators: [fncx]", `appendix block: indicator "fncx"`},
 		{"groups: [Valmora]", `did you mean "Valmoria"?`},
 	}
 	for _, c := range cases {

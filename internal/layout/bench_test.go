@@ -25,8 +25,8 @@ func benchBriefSections(t testing.TB, sections int) []byte {
 	var b strings.Builder
 	b.Write(src[:end])
 	text := "The figures below compare Université de Saint-Éluard with its national and regional peers; " +
-		"impact stands at {=value fwci}, {=rank fwci} in Valmoria, against a median of {=median fwci in Valmoria}. "
-	inds := []string{"fwci", "intl_staff", "students_per_academic", "income"}
+		"impact stands at {=value fnci}, {=rank fnci} in Valmoria, against a median of {=median fnci in Valmoria}. "
+	inds := []string{"fnci", "intl_staff", "students_per_academic", "income"}
 	n := 0
 	for s := 1; s <= sections; s++ {
 		fmt.Fprintf(&b, "\n# Section %d\n\n%s%s\n\n%s%s%s\n\n", s, text, text, text, text, text)
@@ -40,7 +40,7 @@ func benchBriefSections(t testing.TB, sections int) []byte {
 			case 1:
 				fmt.Fprintf(&b, "```chart\nkind: trend\nindicators: [%s]\ngroups: [Valmoria]\ncaption: Chart %d\n```\n\n", ind, n)
 			case 2:
-				fmt.Fprintf(&b, "```chart\nkind: scatter\nindicators: [fwci, intl_staff]\ngroups: [Northern region]\ncaption: Chart %d\n```\n\n", n)
+				fmt.Fprintf(&b, "```chart\nkind: scatter\nindicators: [fnci, intl_staff]\ngroups: [Northern region]\ncaption: Chart %d\n```\n\n", n)
 			default:
 				fmt.Fprintf(&b, "```chart\nkind: box\nindicators: [%s]\ngroups: [Valmoria]\nsize: half\ncaption: Chart %d\n```\n\n", ind, n)
 			}

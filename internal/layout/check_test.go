@@ -68,27 +68,29 @@ func TestPackPassesPDFTools(t *testing.T) {
 		"Where we stand", "Position in detail", "Peers", "Population and method", "About these figures", "Contents",
 		"Université de Saint-Éluard", "Høgskolen i Vårdø", "Politechnika Źródłowa",
 		"Commentary not available", "Page 3 of",
-		"{=value fwci}", // the escaped placeholder prints literally
+		"{=value fnci}", // the escaped placeholder prints literally
 	} {
 		if !strings.Contains(text, want) {
 			t.Errorf("pdftotext lacks %q", want)
 		}
 	}
-	if strings.Contains(text, "{=value fwci}.") && strings.Count(text, "{=") > 1 {
+	if strings.Contains(text, "{=value fnci}.") && strings.Count(text, "{=") > 1 {
 		t.Errorf("an unreplaced placeholder is left in the text")
 	}
 
-	// The position table's Field-weighted citation impact row shows the
+	// The position table's Field-normalised citation impact row shows the
 	// group median and quartiles R computes from the same values.
 	ref := readReference(t)
 	var row string
 	for _, l := range strings.Split(text, "\n") {
-		if strings.Contains(l, "Field-weighted citation") && strings.Contains(l, "10th of 18") {
+		// The position table's row carries the median and quartiles (the
+		// groups table's standing rows also give the rank).
+		if strings.Contains(l, "Field-normalised citation") && strings.Contains(l, "10th of 18") && strings.Contains(l, ref["median"]) {
 			row = l
 		}
 	}
 	if row == "" {
-		t.Fatalf("position table row for FWCI not found:\n%s", text)
+		t.Fatalf("position table row for FNCI not found:\n%s", text)
 	}
 	for _, k := range []string{"median", "q1", "q3"} {
 		if !strings.Contains(row, ref[k]) {
@@ -158,10 +160,16 @@ func TestPackWithCommentary(t *testing.T) {
 		t.Error("sources: true but no sources appendix")
 	}
 	if len(com.Sentences) > 0 && len(com.Sentences[0].Cites) > 0 {
-		// The first cited key's indicator part appears in the appendix.
+		// The appendix reads as evidence in words: the first cited
+		// figure's group is named after the table's head, and no machine
+		// key is printed.
 		k := com.Sentences[0].Cites[0]
-		if !strings.Contains(text, k.Section+"/") {
-			t.Errorf("appendix lacks the key %s", k)
+		at := strings.Index(text, "Rests on")
+		if at < 0 || !strings.Contains(text[at:], k.Group) {
+			t.Errorf("the evidence table does not name the group of %s", k)
+		}
+		if strings.Contains(text, k.String()) {
+			t.Errorf("the appendix prints the machine key %s", k)
 		}
 	}
 }
@@ -173,9 +181,9 @@ func TestPositionedProblems(t *testing.T) {
 	cases := []struct {
 		name, old, new, want string
 	}{
-		{"unknown indicator", "{=value fwci}\nin 2025", "{=value fwcx}\nin 2025", `brief.md:30:72: placeholder {=value fwcx} names indicator "fwcx", which the dictionary does not define; did you mean "fwci"?`},
-		{"unknown institution", "{=value fwci of OR002}", "{=value fwci of OR003}", `placeholder {=value fwci of OR003} names institution "OR003", which is not in the register; did you mean "OR002"?`},
-		{"unknown group", `{=percentile fwci in "Northern region"}`, `{=percentile fwci in "Northern regio"}`, `names group "Northern regio", which the brief does not define; did you mean "Northern region"?`},
+		{"unknown indicator", "{=value fnci}\nin 2025", "{=value fncx}\nin 2025", `brief.md:30:74: placeholder {=value fncx} names indicator "fncx", which the dictionary does not define; did you mean "fnci"?`},
+		{"unknown institution", "{=value fnci of OR002}", "{=value fnci of OR003}", `placeholder {=value fnci of OR003} names institution "OR003", which is not in the register; did you mean "OR002"?`},
+		{"unknown group", `{=percentile fnci in "Northern region"}`, `{=percentile fnci in "Northern regio"}`, `names group "Northern regio", which the brief does not define; did you mean "Northern region"?`},
 		{"nesting", "1. First ordered item", strings.Repeat("> ", 9) + "deep", "brief.md:45:19: lists and quotes are nested 9 deep here; at most 8 levels print legibly"},
 		{"logo", "organisation: Université de Saint-Éluard", "organisation: Université de Saint-Éluard\n  logo: missing.png", `logo: image "missing.png" cannot be opened`},
 	}

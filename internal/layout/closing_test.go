@@ -93,7 +93,7 @@ func TestFindOwnCautions(t *testing.T) {
 func TestStandardCautionsOnce(t *testing.T) {
 	leads := []string{"Only what is measured.", "Choices are judgements.", "Uncertainty.", "Coverage.", "Use with care."}
 	judgement := "Fewer students per academic is read as better here"
-	body := "# Results\n\nImpact is {=value fwci}.\n"
+	body := "# Results\n\nImpact is {=value fnci}.\n"
 
 	out, err := Render(fixtureInputFrom(t, 60, fixtureBody(t, body)))
 	if err != nil {
@@ -167,7 +167,7 @@ func TestWideTableKeepsFiguresWhole(t *testing.T) {
 
 // A chart's title is printed above it, its numbered caption below.
 func TestChartTitleAboveCaption(t *testing.T) {
-	body := "# Impact\n\n```chart\nkind: box\nindicators: [fwci]\ngroups: [Valmoria]\ntitle: Impact across the national sector\ncaption: Valmoria, 2025.\n```\n"
+	body := "# Impact\n\n```chart\nkind: box\nindicators: [fnci]\ngroups: [Valmoria]\ntitle: Impact across the national sector\ncaption: Valmoria, 2025.\n```\n"
 	out, err := Render(fixtureInputFrom(t, 60, fixtureBody(t, body)))
 	if err != nil {
 		t.Fatal(err)

@@ -203,7 +203,7 @@ func deriveWords(expr string, dict *dataset.Dictionary) string {
 }
 
 // lowerFirst lower-cases a label's first letter for use inside a sentence,
-// unless the label starts with an abbreviation ("FWCI", "PhD").
+// unless the label starts with an abbreviation ("FNCI", "PhD").
 func lowerFirst(s string) string {
 	if len(s) < 2 || s[0] < 'A' || s[0] > 'Z' || s[1] < 'a' || s[1] > 'z' {
 		return s

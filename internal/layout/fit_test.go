@@ -22,8 +22,8 @@ func TestRuntPageIsPulledBack(t *testing.T) {
 	para := "Impact and international staff moved together over the span in most of the national sector, with a few exceptions in the north.\n\n"
 	saved := false
 	for n := 1; n <= 40 && !saved; n++ {
-		body := "# Trends\n\n```chart\nkind: trend\nindicators: [fwci, intl_staff]\ngroups: [Valmoria]\ncaption: Trends.\n```\n\n" +
-			"```chart\nkind: scatter\nindicators: [fwci, intl_staff]\ngroups: [Northern region]\ncaption: Impact and staff.\n```\n\n" +
+		body := "# Trends\n\n```chart\nkind: trend\nindicators: [fnci, intl_staff]\ngroups: [Valmoria]\ncaption: Trends.\n```\n\n" +
+			"```chart\nkind: scatter\nindicators: [fnci, intl_staff]\ngroups: [Northern region]\ncaption: Impact and staff.\n```\n\n" +
 			strings.Repeat(para, n) + "# Next\n\nThe next section opens a page.\n"
 		in := fixtureInputFrom(t, 120, fixtureBody(t, body))
 		loose, err := pass(in, nil, nil)

@@ -31,7 +31,7 @@ var fixtureNames = []struct{ id, name, country, region string }{
 
 func fixtureIndicators() []dataset.Indicator {
 	return []dataset.Indicator{
-		{Key: "fwci", Label: "Field-weighted citation impact", Short: "FWCI", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter, Decimals: 2, Source: "Invented bibliometric service"},
+		{Key: "fnci", Label: "Field-normalised citation impact", Short: "FNCI", Unit: dataset.UnitIndex, Better: dataset.HigherIsBetter, Decimals: 2, Source: "Invented bibliometric service"},
 		{Key: "intl_staff", Label: "International staff share", Short: "Intl staff", Unit: dataset.UnitPercent, Better: dataset.HigherIsBetter, Decimals: 1, Source: "Institutional returns"},
 		{Key: "students_per_academic", Label: "Students per academic", Short: "Students/acad.", Unit: dataset.UnitRatio, Better: dataset.LowerIsBetter, Decimals: 1, Source: "Institutional returns",
 			Judgement: "Fewer students per academic is read as better here, but a low ratio can also mean small classes that are costly to run."},

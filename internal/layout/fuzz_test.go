@@ -22,9 +22,9 @@ func FuzzRenderBody(f *testing.F) {
 	end := bytes.Index(src[4:], []byte("\n---\n")) + 4 + 5
 	front := src[:end]
 	for _, seed := range []string{
-		"# A\n\ntext {=value fwci}\n",
+		"# A\n\ntext {=value fnci}\n",
 		"- a\n  - b\n    > c\n",
-		"| a | b |\n|---|--:|\n| {=rank fwci} | 2 |\n",
+		"| a | b |\n|---|--:|\n| {=rank fnci} | 2 |\n",
 		"```columns\ncount: 2\n```\n\npara\n\n## h\n\n```pagebreak\n```\n",
 		"x[^1]\n\n[^1]: note\n\n***\n\n    code\n",
 		strings.Repeat("word ", 2000),

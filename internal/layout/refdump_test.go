@@ -25,8 +25,8 @@ func fixtureColumnCSV(t testing.TB, ind string) string {
 // exactly what the fixture generates. Regenerate with -update and rerun
 // the Rscript command in testdata/layout/README.
 func TestFixtureValuesUnchanged(t *testing.T) {
-	path := filepath.Join(fixtureDir, "valmoria_fwci_2025.csv")
-	got := fixtureColumnCSV(t, "fwci")
+	path := filepath.Join(fixtureDir, "valmoria_fnci_2025.csv")
+	got := fixtureColumnCSV(t, "fnci")
 	if os.Getenv("PEERPACK_UPDATE") == "1" {
 		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
 			t.Fatal(err)
@@ -37,6 +37,6 @@ func TestFixtureValuesUnchanged(t *testing.T) {
 		t.Fatal(err)
 	}
 	if string(want) != got {
-		t.Fatal("the fixture's values changed; regenerate valmoria_fwci_2025.csv (PEERPACK_UPDATE=1) and the R reference")
+		t.Fatal("the fixture's values changed; regenerate valmoria_fnci_2025.csv (PEERPACK_UPDATE=1) and the R reference")
 	}
 }

@@ -370,34 +370,51 @@ func (w *writer) groupsTable(tb *brief.TableBlock, groups []*figures.Group, inds
 	if len(tb.Groups) == 0 {
 		groups = w.m.Groups
 	}
-	head := []string{"Indicator", focusName(w.m)}
+	// Two tables, each read one way: the groups' medians beside the
+	// focus's value, unmarked; then where the focus's value would fall in
+	// each group, marked by quarter. A quarter mark beside a median would
+	// read as the median's own standing.
+	name := focusName(w.m)
+	head := []string{"Indicator", name}
 	align := []byte{'L', 'R'}
+	standHead := []string{"Indicator"}
+	standAlign := []byte{'L'}
 	for _, gr := range groups {
 		// No-break spaces keep "(n = 52)" on one line of the header.
 		head = append(head, fmt.Sprintf("%s median (n\u00a0=\u00a0%s)", gr.Name, format.Int(len(gr.Members))))
 		align = append(align, 'R')
+		standHead = append(standHead, gr.Name)
+		standAlign = append(standAlign, 'R')
 	}
-	g := grid{head: head, align: align, legend: true, caption: tb.Caption}
+	g := grid{head: head, align: align, caption: tb.Caption}
 	if g.caption == "" {
-		g.caption = fmt.Sprintf("Group medians and %s, %d", focusName(w.m), year)
+		g.caption = fmt.Sprintf("Group medians and %s, %d", name, year)
 	}
+	stand := grid{head: standHead, align: standAlign, legend: true,
+		caption: fmt.Sprintf("Where %s's value would rank in each group, %d", name, year)}
 	for _, ind := range inds {
 		v, _ := w.m.Data.Value(w.m.Data.Dictionary.Index(ind.Key), w.m.Focus, year)
 		row := []cell{{text: unitLabel(ind, false)}, {text: tableValue(ind, v), bold: true}}
+		srow := []cell{{text: unitLabel(ind, false)}}
 		for _, gr := range groups {
 			cl := cell{text: "–"}
 			if d, ok := w.m.Distribution(gr.Name, ind.Key, year); ok && d.N > 0 {
 				cl.text = tableValue(ind, d.Median)
 			}
-			if p, ok := w.m.PlaceOf(gr.Name, ind.Key, w.m.Focus, year); ok && p.HasValue {
-				cl.shade = p.Quartile
-			}
 			row = append(row, cl)
+			sc := cell{text: "–"}
+			if p, ok := w.m.PlaceOf(gr.Name, ind.Key, w.m.Focus, year); ok && p.HasValue {
+				sc = cell{text: format.Rank(p.Rank, w.b.RankBands) + " of " + format.Int(p.Of), shade: p.Quartile}
+			}
+			srow = append(srow, sc)
 		}
 		g.rows = append(g.rows, row)
+		stand.rows = append(stand.rows, srow)
 	}
-	g.notes = append(g.notes, "The shading of a median marks the quarter of that group in which "+focusName(w.m)+" falls.")
+	g.notes = append(g.notes, "n is the number of members; each median is over the members reporting the indicator. The next table gives "+name+"'s standing in each group.")
+	stand.notes = append(stand.notes, "Each cell is the place "+name+"'s value would take among the group's members reporting the indicator, and its mark the quarter of that group it would fall in; it describes "+name+", not the group.")
 	w.setTable(g)
+	w.setTable(stand)
 }
 
 // populationTable shows who passed the population rules and how each

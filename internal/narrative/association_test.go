@@ -64,15 +64,15 @@ block: {style: detail, topics: [position], indicators: [intl, spa, size]}
 // The three strengths of association (Cohen 1988: 0.3 medium, 0.5 large,
 // from memory) read as written.
 func TestAssociationWording(t *testing.T) {
-	f := AssociationFact{Group: "the chosen peers", X: "papers per academic", Y: "field-weighted citation impact", N: "40", Year: "2025", Rho: "0.42", Strength: Level}
+	f := AssociationFact{Group: "the chosen peers", X: "papers per academic", Y: "field-normalised citation impact", N: "40", Year: "2025", Rho: "0.42", Strength: Level}
 	cases := []struct {
 		strength int
 		negative bool
 		rho      string
 		want     string
 	}{
-		{Level, false, "0.42", "Across the 40 members of the chosen peers reporting both in 2025, higher papers per academic goes loosely with higher field-weighted citation impact (Spearman's rank correlation 0.42); that is an association, not evidence that one causes the other."},
-		{Below, false, "0.12", "Across the 40 members of the chosen peers reporting both in 2025, papers per academic and field-weighted citation impact show little association (Spearman's rank correlation 0.12)."},
+		{Level, false, "0.42", "Across the 40 members of the chosen peers reporting both in 2025, higher papers per academic goes loosely with higher field-normalised citation impact (Spearman's rank correlation 0.42); that is an association, not evidence that one causes the other."},
+		{Below, false, "0.12", "Across the 40 members of the chosen peers reporting both in 2025, papers per academic and field-normalised citation impact show little association (Spearman's rank correlation 0.12)."},
 	}
 	for _, c := range cases {
 		f.Strength, f.Negative, f.Rho = c.strength, c.negative, c.rho

@@ -20,7 +20,7 @@ func TestDefaultGroupPhrase(t *testing.T) {
 		{"Our peers", "our peers"},
 		{"All institutions", "all institutions"},
 		{"The Kestrian sector", "the Kestrian sector"},
-		{"FWCI leaders", "the FWCI leaders"},
+		{"FNCI leaders", "the FNCI leaders"},
 		{"  Comparator   set ", "the comparator set"},
 	}
 	for _, c := range cases {

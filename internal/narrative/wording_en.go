@@ -64,7 +64,7 @@ func spellOutsideSlots(tmpl string) string {
 func capitalise(s string) string { return format.Capitalise(s) }
 
 // Indicator lowers the first letter of a label for use inside a sentence,
-// unless the label starts with an abbreviation ("FWCI", "PhD share").
+// unless the label starts with an abbreviation ("FNCI", "PhD share").
 func (english) Indicator(ind dataset.Indicator) string {
 	label := ind.Label
 	if label == "" {
@@ -694,7 +694,7 @@ func (e english) Judgement(f CaveatFact) string {
 
 // lowerFirst lowers the first letter of a text that goes inside a
 // sentence, unless its first word has another capital (an abbreviation
-// such as "FWCI" or "PhD") or its capital is joined to what follows
+// such as "FNCI" or "PhD") or its capital is joined to what follows
 // ("A-level").
 func lowerFirst(s string) string {
 	r, n := utf8.DecodeRuneInString(s)

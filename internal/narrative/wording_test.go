@@ -64,7 +64,7 @@ func TestListAndOrdinalsAndPlurals(t *testing.T) {
 	if pluralMembers("1") != "member" || pluralMembers("2") != "members" || pluralMembers("1,001") != "members" {
 		t.Error("member plural")
 	}
-	for label, want := range map[string]string{"International staff share": "international staff share", "FWCI": "FWCI", "PhD share": "PhD share", "A-level entry": "A-level entry", "Students (FTE)": "students (FTE)"} {
+	for label, want := range map[string]string{"International staff share": "international staff share", "FNCI": "FNCI", "PhD share": "PhD share", "A-level entry": "A-level entry", "Students (FTE)": "students (FTE)"} {
 		if got := gb.Indicator(dataset.Indicator{Label: label}); got != want {
 			t.Errorf("Indicator(%q) = %q, want %q", label, got, want)
 		}

@@ -24,7 +24,7 @@ func TestColumnName(t *testing.T) {
 func sample() []Sheet {
 	return []Sheet{
 		{Name: "distribution", Header: []string{"group", "indicator", "value"}, Rows: [][]any{
-			{"Home sector", "fwci", 1.25}, {"Høgskolen i Vårdø & co", "intl_staff_share", 0.3}, {"missing", "x", math.NaN()},
+			{"Home sector", "fnci", 1.25}, {"Høgskolen i Vårdø & co", "intl_staff_share", 0.3}, {"missing", "x", math.NaN()},
 		}},
 		{Name: "a/very:long*name that is over thirty-one characters", Header: []string{"n"}, Rows: [][]any{{42}}},
 	}
@@ -69,7 +69,7 @@ for ws in wb.worksheets:
 	want := strings.Join([]string{
 		"sheet distribution",
 		"'group'|'indicator'|'value'",
-		"'Home sector'|'fwci'|1.25",
+		"'Home sector'|'fnci'|1.25",
 		"'Høgskolen i Vårdø & co'|'intl_staff_share'|0.3",
 		"'missing'|'x'|",
 		"sheet a_very_long_name that is over t",

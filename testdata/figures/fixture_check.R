@@ -7,7 +7,7 @@
 dir <- "testdata/figures"
 reg <- read.csv(file.path(dir, "register.csv"), stringsAsFactors = FALSE)
 vals <- read.csv(file.path(dir, "values.csv"), stringsAsFactors = FALSE)
-polarity <- c(fwci = "higher", students_per_academic = "lower", intl_share = "higher", size = "neutral")
+polarity <- c(fnci = "higher", students_per_academic = "lower", intl_share = "higher", size = "neutral")
 ranked <- reg$id != "ZU01"
 groups <- list(
   "Everyone" = reg$id[ranked],
@@ -124,11 +124,11 @@ writeLines(c(paste("# R version:", R.version.string),
            file.path(dir, "fixture_r.csv"))
 suppressWarnings(write.table(out, file.path(dir, "fixture_r.csv"), append = TRUE, sep = ",",
                              row.names = FALSE, quote = TRUE))
-# Nearest-profile peers of KE02 on fwci and students_per_academic in 2025:
+# Nearest-profile peers of KE02 on fnci and students_per_academic in 2025:
 # each indicator standardised by the ranked population's mean and sample SD,
 # Euclidean distance, the four nearest (the focus excluded).
 ids <- reg$id[ranked]
-f <- sapply(ids, value_of, ind = "fwci", y = 2025)
+f <- sapply(ids, value_of, ind = "fnci", y = 2025)
 s <- sapply(ids, value_of, ind = "students_per_academic", y = 2025)
 zf <- (f - mean(f, na.rm = TRUE)) / sd(f, na.rm = TRUE)
 zs <- (s - mean(s, na.rm = TRUE)) / sd(s, na.rm = TRUE)

@@ -24,13 +24,16 @@ type Scenario struct {
 	// set of values it takes.
 	IDs    map[string]bool
 	Fields map[string]map[string]bool
-	// Indicators are the dictionary keys.
+	// Indicators are the dictionary keys; Size holds the keys of size
+	// measures (counts and money amounts with no better direction), which
+	// the scenario shows as context only.
 	Indicators map[string]bool
+	Size       map[string]bool
 }
 
 // Load reads the register and dictionary out of the scenario's files.
 func Load(fsys fs.FS, register, dictionary string) (*Scenario, error) {
-	s := &Scenario{Files: map[string][]byte{}, IDs: map[string]bool{}, Fields: map[string]map[string]bool{}, Indicators: map[string]bool{}}
+	s := &Scenario{Files: map[string][]byte{}, IDs: map[string]bool{}, Fields: map[string]map[string]bool{}, Indicators: map[string]bool{}, Size: map[string]bool{}}
 	names, err := fs.Glob(fsys, "*")
 	if err != nil {
 		return nil, err
@@ -71,8 +74,45 @@ func Load(fsys fs.FS, register, dictionary string) (*Scenario, error) {
 	}
 	for _, ind := range dict.Indicators {
 		s.Indicators[ind.Key] = true
+		if ind.Better == dataset.Neutral && (ind.Unit == dataset.UnitCount || ind.Unit == dataset.UnitCurrency) {
+			s.Size[ind.Key] = true
+		}
 	}
 	return s, nil
+}
+
+// SizeRanked lists the blocks of b that rank a size measure as if it were
+// quality: a position or peers table, a bars chart or heatmap (ranks and
+// percentiles), or commentary on strengths and gaps. Size (staff,
+// students, papers, income) is context in the scenario, never ranked as
+// quality; distributions, trends, scatters and group medians may show it.
+func (s *Scenario) SizeRanked(b *brief.Brief) []string {
+	var out []string
+	for _, blk := range b.Blocks {
+		var inds []string
+		switch v := blk.(type) {
+		case *brief.ChartBlock:
+			if v.Type == "bars" || v.Type == "heatmap" {
+				inds = v.Indicators
+			}
+		case *brief.TableBlock:
+			if v.Type == "" || v.Type == "position" || v.Type == "peers" {
+				inds = v.Indicators
+			}
+		case *brief.CommentaryBlock:
+			for _, t := range v.Topics {
+				if t == "strengths" || t == "gaps" {
+					inds = v.Indicators
+				}
+			}
+		}
+		for _, k := range inds {
+			if s.Size[k] {
+				out = append(out, fmt.Sprintf("line %d (%s block): ranks %s, a size measure shown for context only", blk.Position().Line, blk.Kind(), k))
+			}
+		}
+	}
+	return out
 }
 
 // Check returns one line per reference in b that the scenario cannot

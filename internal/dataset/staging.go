@@ -114,8 +114,8 @@ func (s *staging) unpack(code uint64) (string, int, int) {
 // place renders a where code as file:line:column.
 func (s *staging) place(code uint64) string {
 	f, l, c := s.unpack(code)
-	if f == "" {
-		return ""
+	if f == "" || l == 0 {
+		return f // a value computed from a record file has no line
 	}
 	return fmt.Sprintf("%s:%d:%d", f, l, c)
 }

@@ -22,6 +22,7 @@ import (
 	"peerpack/internal/brief"
 	"peerpack/internal/build"
 	"peerpack/internal/chartfiles"
+	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
 	"peerpack/internal/format"
 	"peerpack/internal/tabular"
@@ -53,7 +54,22 @@ type Outcome struct {
 var PlanColumns = []string{"focus", "output", "title", "subtitle", "audience", "accent"}
 
 // ReadPlan reads a plan CSV from fsys.
+// MaxPlanBytes bounds a batch plan: a million packs' rows fit well within
+// it (common practice, no source).
+const MaxPlanBytes = 64 << 20
+
 func ReadPlan(fsys fs.FS, name, display string) ([]Job, error) {
+	// Kind and size first, as for every input: opening a named pipe
+	// blocks until a writer comes, and a device such as /dev/zero never
+	// ends.
+	if fi, err := fs.Stat(fsys, name); err == nil {
+		if kind := dataset.NotAFile(fi.Mode()); kind != "" {
+			return nil, diag.At(display, 0, 0, "the plan is %s, not a file; name a CSV file with focus and output columns", kind)
+		}
+		if fi.Size() > MaxPlanBytes {
+			return nil, diag.At(display, 0, 0, "the plan is %s, over the limit of %s for a plan; a plan holds one row per pack", format.Bytes(int(min(fi.Size(), 1<<62))), format.Bytes(MaxPlanBytes))
+		}
+	}
 	t, err := tabular.ReadTable(fsys, name)
 	if err != nil {
 		return nil, err

@@ -6,6 +6,7 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"syscall"
 	"testing"
 	"testing/fstest"
 	"time"
@@ -329,5 +330,34 @@ func TestPlanFocusErrorAtPlanRow(t *testing.T) {
 	want := `plans/plan.csv:2:1: focus "` + id + `X" is not in the register institutions.csv; did you mean "` + id + `"?`
 	if outs[0].Err == nil || outs[0].Err.Error() != want {
 		t.Errorf("got  %v\nwant %s", outs[0].Err, want)
+	}
+}
+
+// A plan that is a named pipe or a folder is refused before it is opened
+// (opening a pipe blocks until a writer comes), like every other input.
+func TestPlanKindCheckedBeforeOpening(t *testing.T) {
+	dir := t.TempDir()
+	if err := syscall.Mkfifo(filepath.Join(dir, "plan.csv"), 0o644); err != nil {
+		t.Skip("no named pipes here:", err)
+	}
+	if err := os.Mkdir(filepath.Join(dir, "plans"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	done := make(chan error, 2)
+	go func() {
+		_, err := ReadPlan(os.DirFS(dir), "plan.csv", "plan.csv")
+		done <- err
+		_, err = ReadPlan(os.DirFS(dir), "plans", "plans")
+		done <- err
+	}()
+	for _, want := range []string{"plan.csv: the plan is a named pipe, not a file", "plans: the plan is a folder, not a file"} {
+		select {
+		case err := <-done:
+			if err == nil || !strings.HasPrefix(err.Error(), want) {
+				t.Errorf("got %v, want %s...", err, want)
+			}
+		case <-time.After(10 * time.Second):
+			t.Fatal("reading a plan that is a named pipe blocked")
+		}
 	}
 }

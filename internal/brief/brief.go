@@ -105,10 +105,10 @@ type DataPaths struct {
 	Values     PathList `yaml:"values"`
 	Dictionary string   `yaml:"dictionary"`
 	PPP        string   `yaml:"ppp"`
-	// Papers and Votes are record-level files, for later record-level
-	// indicators.
-	Papers string `yaml:"papers"`
-	Votes  string `yaml:"votes"`
+	// Papers and Votes are record-level files whose indicators are
+	// computed at load time (internal/records); see records.go.
+	Papers PaperSource `yaml:"papers"`
+	Votes  VoteSource  `yaml:"votes"`
 }
 
 // PathList is one path or a list of paths.

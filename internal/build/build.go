@@ -250,8 +250,10 @@ func rebaseDataPaths(b *brief.Brief, dir string) {
 	fix(&b.Data.Register)
 	fix(&b.Data.Dictionary)
 	fix(&b.Data.PPP)
-	fix(&b.Data.Papers)
-	fix(&b.Data.Votes)
+	fix(&b.Data.Papers.File)
+	fix(&b.Data.Papers.Baselines)
+	fix(&b.Data.Votes.File)
+	fix(&b.Data.Votes.Targets)
 	for i := range b.Data.Values {
 		fix(&b.Data.Values[i])
 	}

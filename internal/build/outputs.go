@@ -110,8 +110,10 @@ func InputFiles(src Source, b *brief.Brief) []InputFile {
 		add(v, "a values file (data.values)")
 	}
 	add(d.PPP, "the PPP file (data.ppp)")
-	add(d.Papers, "the paper records (data.papers)")
-	add(d.Votes, "the vote records (data.votes)")
+	add(d.Papers.File, "the paper records (data.papers)")
+	add(d.Papers.Baselines, "the baselines table (data.papers.baselines)")
+	add(d.Votes.File, "the vote records (data.votes)")
+	add(d.Votes.Targets, "the survey targets (data.votes.targets)")
 	add(b.Theme.Logo, "the logo (theme.logo)")
 	return files
 }

@@ -134,6 +134,9 @@ func (l *loader) load() *Dataset {
 		vr.read(name)
 	}
 	vr.reportUnknown()
+	if st.over == nil {
+		l.records(reg, dict, st)
+	}
 	if st.over != nil {
 		l.probs.Add(st.over)
 		return nil

@@ -25,6 +25,10 @@ type staging struct {
 	lastYear, lastInd int
 	lastVals          []float64
 	lastWhere         []uint64
+	// slotOf[year-MinYear] is the slot of a year + 1 (0: none yet), so a
+	// row whose indicator differs from the last one finds its column
+	// without a map lookup.
+	slotOf [MaxYear - MinYear + 1]int32
 	// lim caps the years and the values allocated; over is set (and no
 	// more is allocated) once one is reached.
 	lim       limits.Limits
@@ -45,6 +49,13 @@ func (s *staging) column(file string, c tabular.Cell, year, ind int) ([]float64,
 	if year == s.lastYear && ind == s.lastInd && s.lastVals != nil {
 		return s.lastVals, s.lastWhere
 	}
+	if year >= MinYear && year <= MaxYear && s.over == nil {
+		if sl := s.slotOf[year-MinYear] - 1; sl >= 0 && s.vals[sl][ind] != nil {
+			s.lastYear, s.lastInd = year, ind
+			s.lastVals, s.lastWhere = s.vals[sl][ind], s.where[sl][ind]
+			return s.lastVals, s.lastWhere
+		}
+	}
 	sl, ok := s.slot[year]
 	if !ok && s.over == nil && s.lim.Exceeded(limits.Years, int64(len(s.years)+1)) {
 		s.over = diag.At(file, c.Line, c.Col, "year %d makes %s", year, s.lim.Over(limits.Years, int64(len(s.years)+1), "check the year column for typing errors"))
@@ -64,6 +75,9 @@ func (s *staging) column(file string, c tabular.Cell, year, ind int) ([]float64,
 	if !ok {
 		sl = len(s.years)
 		s.slot[year] = sl
+		if year >= MinYear && year <= MaxYear {
+			s.slotOf[year-MinYear] = int32(sl + 1)
+		}
 		s.years = append(s.years, year)
 		s.vals = append(s.vals, make([][]float64, s.nInd))
 		s.where = append(s.where, make([][]uint64, s.nInd))
@@ -100,8 +114,8 @@ func (s *staging) unpack(code uint64) (string, int, int) {
 // place renders a where code as file:line:column.
 func (s *staging) place(code uint64) string {
 	f, l, c := s.unpack(code)
-	if f == "" {
-		return ""
+	if f == "" || l == 0 {
+		return f // a value computed from a record file has no line
 	}
 	return fmt.Sprintf("%s:%d:%d", f, l, c)
 }

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -105,16 +106,12 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 			cov = float64(present) / float64(n)
 		}
 		ic.Coverage = append(ic.Coverage, cov)
-		if len(buf) >= 4 {
-			sort.Float64s(buf)
-		}
 		// Hyndman and Fan (1996) type 7 quartiles, the stats package's
-		// default definition.
+		// default definition, by selection: only three order statistics
+		// are needed, so the column is never sorted.
 		var q1, med, q3 float64
 		if len(buf) >= 4 {
-			q1 = stats.Quantile(buf, 0.25, stats.Type7)
-			med = stats.Quantile(buf, 0.5, stats.Type7)
-			q3 = stats.Quantile(buf, 0.75, stats.Type7)
+			q1, med, q3 = stats.QuartilesOfUnsorted(buf, stats.Type7)
 		}
 		iqr := q3 - q1
 		for inst, v := range col {
@@ -204,7 +201,7 @@ func (l *loader) summariseIndicator(d *Dataset, ind int) indicatorSummary {
 		note(Suspicion{Kind: SuspectFarOut, Indicator: in.Key, Institution: id, Year: a.worstYear, Value: a.worstValue, Where: a.where, Msg: msg}, score)
 	}
 	if in.Derive == "" {
-		l.jumps(d, ind, lazy)
+		counts[SuspectJump] += l.jumps(d, ind, lazy)
 	}
 	var listed []Suspicion
 	for _, f := range topScored(found, MaxSuspicious) {
@@ -279,11 +276,21 @@ type scored struct {
 // mistyped digit, which the cross-sectional rule misses in skewed
 // indicators where large institutions are legitimately far from the median
 // (common practice, no source).
-func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Suspicion)) {
+func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Suspicion)) (unlisted int) {
 	if len(d.Years) < 3 {
-		return
+		return 0
 	}
 	in := d.Dictionary.Indicators[ind]
+	// Only the MaxSuspicious largest jumps are listed, so only they are
+	// kept (highest ratio first, ties in the order found, as topScored
+	// orders them); the rest are counted. Skewed data can hold hundreds of
+	// thousands of jumps, and a message for each would never be read.
+	type jump struct {
+		ratio, v, med float64
+		year, inst    int
+	}
+	var top []jump
+	found := 0
 	series := make([]float64, 0, len(d.Years))
 	sorted := make([]float64, 0, len(d.Years))
 	for inst := range d.Register.Institutions {
@@ -299,7 +306,7 @@ func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Su
 		if len(sorted) < 3 {
 			continue
 		}
-		sort.Float64s(sorted)
+		slices.Sort(sorted)
 		for y, v := range series {
 			if math.IsNaN(v) || v <= 0 {
 				continue
@@ -312,22 +319,36 @@ func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Su
 			if ratio <= JumpFactor {
 				continue
 			}
-			year, inst, v := d.Years[y], inst, v
-			note(SuspectJump, ratio, func() Suspicion {
-				id := d.Register.Institutions[inst].ID
-				dir := "below"
-				if v > med {
-					dir = "above"
-				}
-				s := Suspicion{Kind: SuspectJump, Indicator: in.Key, Institution: id, Year: year, Value: v,
-					Msg: fmt.Sprintf("%s %d of %s is %s, %s %s its median %s in the other years; check the unit and the digits", in.Key, year, id, fmtVal(v, in.Decimals), timesText(ratio), dir, fmtVal(med, in.Decimals))}
-				if f, line, col := l.st.placeOf(year, ind, inst); f != "" {
-					s.Where = fmt.Sprintf("%s:%d:%d", f, line, col)
-				}
-				return s
-			})
+			found++
+			if len(top) == MaxSuspicious && ratio <= top[MaxSuspicious-1].ratio {
+				continue
+			}
+			i := len(top)
+			for i > 0 && top[i-1].ratio < ratio {
+				i--
+			}
+			top = slices.Insert(top, i, jump{ratio, v, med, d.Years[y], inst})
+			if len(top) > MaxSuspicious {
+				top = top[:MaxSuspicious]
+			}
 		}
 	}
+	for _, j := range top {
+		note(SuspectJump, j.ratio, func() Suspicion {
+			id := d.Register.Institutions[j.inst].ID
+			dir := "below"
+			if j.v > j.med {
+				dir = "above"
+			}
+			s := Suspicion{Kind: SuspectJump, Indicator: in.Key, Institution: id, Year: j.year, Value: j.v,
+				Msg: fmt.Sprintf("%s %d of %s is %s, %s %s its median %s in the other years; check the unit and the digits", in.Key, j.year, id, fmtVal(j.v, in.Decimals), timesText(j.ratio), dir, fmtVal(j.med, in.Decimals))}
+			if f, line, col := l.st.placeOf(j.year, ind, j.inst); f != "" {
+				s.Where = fmt.Sprintf("%s:%d:%d", f, line, col)
+			}
+			return s
+		})
+	}
+	return found - len(top)
 }
 
 // fmtVal prints a value for the check report: with its decimals up to
@@ -395,7 +416,7 @@ func (l *loader) placeText(year, ind, inst int) string {
 // medianWithout is the median of sorted (ascending, at least two values)
 // with one occurrence of v left out: the type 7 median of the others.
 func medianWithout(sorted []float64, v float64) float64 {
-	k := sort.SearchFloat64s(sorted, v)
+	k, _ := slices.BinarySearch(sorted, v) // the first occurrence, as sort.SearchFloat64s
 	m := len(sorted) - 1
 	at := func(i int) float64 {
 		if i >= k {

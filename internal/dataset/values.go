@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"runtime"
 	"strconv"
 	"strings"
 
@@ -43,6 +44,12 @@ type valuesReader struct {
 	otherRows  int
 	otherFirst tabular.Cell
 	otherFile  string
+	// The last institution and indicator resolved: long files are grouped
+	// by institution, with the indicators in dictionary order within a
+	// year, so the next row usually names the same institution and the
+	// same or the next indicator; checking those first saves a map lookup
+	// per row.
+	lastInst, lastInd int
 }
 
 // maxUnknownNames caps the distinct unknown ids and keys remembered.
@@ -113,7 +120,11 @@ func (v *valuesReader) read(name string) {
 // institution resolves an id cell, aggregating unknown ids.
 func (v *valuesReader) institution(file string, c tabular.Cell) int {
 	id := strings.TrimSpace(c.Text)
+	if v.lastInst < len(v.reg.Institutions) && v.reg.Institutions[v.lastInst].ID == id {
+		return v.lastInst
+	}
 	if i := v.reg.Index(id); i >= 0 {
+		v.lastInst = i
 		return i
 	}
 	if id == "" {
@@ -135,6 +146,12 @@ func (v *valuesReader) institution(file string, c tabular.Cell) int {
 
 func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 	key := strings.TrimSpace(c.Text)
+	for _, i := range [2]int{v.lastInd + 1, v.lastInd} {
+		if i < len(v.dict.Indicators) && v.dict.Indicators[i].Key == key && v.dict.Indicators[i].Derive == "" {
+			v.lastInd = i
+			return i
+		}
+	}
 	if i := v.dict.Index(key); i >= 0 {
 		if v.dict.Indicators[i].Derive != "" {
 			if u, ok := v.derivedK[key]; ok {
@@ -146,6 +163,7 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 			}
 			return -1
 		}
+		v.lastInd = i
 		return i
 	}
 	if key == "" {
@@ -165,7 +183,25 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 	return -1
 }
 
+// plainYear is the year of a cell that year accepts without a problem.
+func plainYear(text string) (int, bool) {
+	s := strings.TrimSpace(text)
+	y, err := strconv.Atoi(s)
+	if err != nil {
+		if f, ferr := strconv.ParseFloat(s, 64); ferr == nil && f == math.Trunc(f) && math.Abs(f) < 1e6 {
+			y, err = int(f), nil
+		}
+	}
+	if err != nil || y < MinYear || y > MaxYear {
+		return 0, false
+	}
+	return y, true
+}
+
 func (v *valuesReader) year(file string, c tabular.Cell) int {
+	if y, ok := plainYear(c.Text); ok {
+		return y
+	}
 	s := strings.TrimSpace(c.Text)
 	y, err := strconv.Atoi(s)
 	if err != nil {
@@ -293,6 +329,13 @@ func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string
 			v.addf(file, h, "unexpected column %q in a long values file (institution,year,indicator,value[,note]); remove it, or use the wide shape with one column per indicator", r.Header()[i].Text)
 		}
 	}
+	cols := longColumns{ic: ic, yc: yc, kc: kc, vc: vc, nc: nc, hasNote: hasNote}
+	if cr, ok := r.(*tabular.CSVReader); ok && !hasNote && runtime.GOMAXPROCS(0) > 1 && cr.Unread() >= parallelBytes &&
+		len(v.dict.Indicators) <= math.MaxInt16 {
+		if parts := cr.Split(cr.Unread() / partBytes); parts != nil {
+			return v.readLongParts(parts, file, fileIdx, cols)
+		}
+	}
 	rows := 0
 	for {
 		row, err := r.Next()
@@ -307,28 +350,39 @@ func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string
 			break
 		}
 		rows++
-		inst := v.institution(file, row[ic])
-		ind := v.indicator(file, row[kc])
-		year := v.year(file, row[yc])
-		if ind < 0 {
-			continue
-		}
-		x, ok := v.value(file, row[vc], ind)
-		if inst < 0 || year == 0 || !ok {
-			continue
-		}
-		// An empty value claims no place, as in a wide file, so another
-		// file may supply it; its note is still kept.
-		if !math.IsNaN(x) {
-			v.store(file, fileIdx, row[vc], inst, ind, year, x)
-		}
-		if hasNote {
-			if n := strings.TrimSpace(row[nc].Text); n != "" {
-				v.l.notes = append(v.l.notes, stagedNote{CellRef{Indicator: ind, Year: year, Institution: inst}, strings.Clone(n)})
-			}
-		}
+		v.longRow(file, fileIdx, row, cols)
 	}
 	return rows
+}
+
+// longColumns are the positions of a long file's columns.
+type longColumns struct {
+	ic, yc, kc, vc, nc int
+	hasNote            bool
+}
+
+// longRow reads one row of a long values file.
+func (v *valuesReader) longRow(file string, fileIdx int, row []tabular.Cell, c longColumns) {
+	inst := v.institution(file, row[c.ic])
+	ind := v.indicator(file, row[c.kc])
+	year := v.year(file, row[c.yc])
+	if ind < 0 {
+		return
+	}
+	x, ok := v.value(file, row[c.vc], ind)
+	if inst < 0 || year == 0 || !ok {
+		return
+	}
+	// An empty value claims no place, as in a wide file, so another
+	// file may supply it; its note is still kept.
+	if !math.IsNaN(x) {
+		v.store(file, fileIdx, row[c.vc], inst, ind, year, x)
+	}
+	if c.hasNote {
+		if n := strings.TrimSpace(row[c.nc].Text); n != "" {
+			v.l.notes = append(v.l.notes, stagedNote{CellRef{Indicator: ind, Year: year, Institution: inst}, strings.Clone(n)})
+		}
+	}
 }
 
 func (v *valuesReader) readWide(r tabular.RowReader, fileIdx int, ic, yc int) int {

@@ -8,13 +8,17 @@ import (
 // The raw indicators the scenario writes, by the file they go into. The
 // derived indicators of the dictionary are left for peerpack to compute.
 //
-// citation_impact, top10_share, intl_coauthorship, industry_coauthorship and
-// peer_esteem can also be computed from the paper and vote records
-// (records.go); until peerpack reads those records itself, the scenario
-// ships them in values.csv as well, drawn from the same latent traits as
-// the records.
+// recordKeys (citation_impact, top10_share, intl_coauthorship,
+// industry_coauthorship, peer_esteem) are drawn here, since the paper and
+// vote records (records.go) are drawn from them, but no values file
+// carries them: the demo brief has peerpack compute them from the records
+// at build time (data.papers, data.votes).
 var (
-	longKeys = []string{"papers", "citation_impact", "top10_share", "intl_coauthorship", "industry_coauthorship",
+	longKeys   = []string{"papers", "total_income", "research_income", "exchange_income", "operating_surplus", "doctorates", "spinouts"}
+	recordKeys = []string{"citation_impact", "top10_share", "intl_coauthorship", "industry_coauthorship", "peer_esteem"}
+	// drawKeys is the order values are drawn in (it fixes the random
+	// streams, so it stays as the scenario was first written).
+	drawKeys = []string{"papers", "citation_impact", "top10_share", "intl_coauthorship", "industry_coauthorship",
 		"total_income", "research_income", "exchange_income", "operating_surplus", "doctorates", "spinouts", "peer_esteem"}
 	wideKeys = []string{"academic_staff", "students", "intl_staff_share", "intl_student_share",
 		"continuation_rate", "completion_rate", "graduate_outcomes",
@@ -87,7 +91,7 @@ func generateValues(seed uint64, insts []institution, ppp [][]float64) *values {
 	own := stream(seed, 6)
 	ys := years()
 	out := &values{notes: map[cell]string{}, na: map[cell]bool{}}
-	keys := append(append([]string(nil), longKeys...), wideKeys...)
+	keys := append(append([]string(nil), drawKeys...), wideKeys...)
 	for i := range insts {
 		in := &insts[i]
 		c := countries[in.Country]

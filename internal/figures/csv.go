@@ -1,9 +1,11 @@
 package figures
 
 import (
-	"encoding/csv"
+	"bufio"
 	"io"
 	"strconv"
+	"unicode"
+	"unicode/utf8"
 )
 
 // CSVHeader is the figures file's header row.
@@ -11,33 +13,92 @@ var CSVHeader = []string{"section", "group", "indicator", "institution", "year",
 
 // WriteCSV writes the figures file: RFC 4180 CSV in UTF-8 with the header
 // section,group,indicator,institution,year,measure,value and the model's
-// rows in Rows order, written as they are produced. Numbers are written unrounded in their shortest exact
-// form (strconv 'g', -1), so a spreadsheet reads back the very float64 the
-// pack used; text rows carry their sentence in the value column.
+// rows in Rows order, written as they are produced. Numbers are written
+// unrounded in their shortest exact form (strconv 'g', -1), so a
+// spreadsheet reads back the very float64 the pack used; text rows carry
+// their sentence in the value column.
+//
+// Each row is formatted into one reused buffer, with the quoting of Go's
+// encoding/csv Writer (LF line ends; a field is quoted when it holds a
+// comma, a double quote, CR or LF, starts with a space character, or is
+// exactly `\.`), so the file is byte for byte what that writer gives
+// (TestWriteCSVQuotesAsEncodingCSV) without a string per number.
 func WriteCSV(w io.Writer, m *Model) error {
-	cw := csv.NewWriter(w)
-	if err := cw.Write(CSVHeader); err != nil {
+	bw := bufio.NewWriterSize(w, 64<<10)
+	b := make([]byte, 0, 256)
+	for i, h := range CSVHeader {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = appendCSVField(b, h)
+	}
+	b = append(b, '\n')
+	if _, err := bw.Write(b); err != nil {
 		return err
 	}
-	rec := make([]string, len(CSVHeader))
 	for r := range m.Rows() {
-		rec[0], rec[1], rec[2], rec[3] = r.Section, r.Group, r.Indicator, r.Institution
-		rec[4] = ""
+		b = appendCSVField(b[:0], r.Section)
+		b = append(b, ',')
+		b = appendCSVField(b, r.Group)
+		b = append(b, ',')
+		b = appendCSVField(b, r.Indicator)
+		b = append(b, ',')
+		b = appendCSVField(b, r.Institution)
+		b = append(b, ',')
 		if r.Year != 0 {
-			rec[4] = strconv.Itoa(r.Year)
+			b = strconv.AppendInt(b, int64(r.Year), 10)
 		}
-		rec[5] = r.Measure
+		b = append(b, ',')
+		b = appendCSVField(b, r.Measure)
+		b = append(b, ',')
 		if r.IsText {
-			rec[6] = r.Text
+			b = appendCSVField(b, r.Text)
 		} else {
-			rec[6] = strconv.FormatFloat(r.Value, 'g', -1, 64)
+			// Shortest 'g' form: digits, sign, point and exponent only,
+			// never a character that needs quoting.
+			b = strconv.AppendFloat(b, r.Value, 'g', -1, 64)
 		}
-		if err := cw.Write(rec); err != nil {
+		b = append(b, '\n')
+		if _, err := bw.Write(b); err != nil {
 			return err
 		}
 	}
-	cw.Flush()
-	return cw.Error()
+	return bw.Flush()
+}
+
+// appendCSVField appends one field, quoted as encoding/csv quotes it with
+// a comma separator and LF line ends: inside quotes only a double quote
+// changes (written twice).
+func appendCSVField(b []byte, s string) []byte {
+	if !csvNeedsQuotes(s) {
+		return append(b, s...)
+	}
+	b = append(b, '"')
+	for i := 0; i < len(s); i++ {
+		if s[i] == '"' {
+			b = append(b, '"')
+		}
+		b = append(b, s[i])
+	}
+	return append(b, '"')
+}
+
+// csvNeedsQuotes is encoding/csv's rule for a comma separator.
+func csvNeedsQuotes(s string) bool {
+	if s == "" {
+		return false
+	}
+	if s == `\.` {
+		return true
+	}
+	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case ',', '"', '\r', '\n':
+			return true
+		}
+	}
+	r, _ := utf8.DecodeRuneInString(s)
+	return unicode.IsSpace(r)
 }
 
 func itoa(i int) string { return strconv.Itoa(i) }

@@ -558,7 +558,7 @@ func (m *Model) streamTrends(f rowSink, r *ranks) bool {
 		return cmp.Or(cmp.Compare(a.group, b.group), cmp.Compare(a.ind, b.ind), cmp.Compare(a.inst, b.inst))
 	})
 	for _, e := range es {
-		ok := true
+		var ok bool
 		if e.g != nil {
 			ok = groupTrendRows(f, e.g)
 		} else {

@@ -225,8 +225,16 @@ func TestDataAppendixValues(t *testing.T) {
 			continue
 		}
 		for i, y := range m.Years {
+			want, ok := ref[fmt.Sprintf(row.key, y)]
+			if !ok {
+				// Three-year windows from the paper records: no value
+				// before the first window ends.
+				if fields[i] != "–" {
+					t.Errorf("%s %d: printed %q, R has no value", row.lead, y, fields[i])
+				}
+				continue
+			}
 			got, err := strconv.ParseFloat(fields[i], 64)
-			want := refValue(t, ref, fmt.Sprintf(row.key, y))
 			// Two decimals as printed: within half a unit of the last.
 			if err != nil || math.Abs(got-want) > 0.005+1e-9 {
 				t.Errorf("%s %d: printed %q, R %.4f", row.lead, y, fields[i], want)

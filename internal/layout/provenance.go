@@ -76,10 +76,14 @@ func (w *writer) fileRole(name string) string {
 		return fmt.Sprintf("dictionary: %s %s", format.Int(n), format.Plural(n, "indicator", "indicators"))
 	case same(d.PPP):
 		return "purchasing-power-parity factors"
-	case same(d.Papers):
+	case same(d.Papers.File):
 		return "paper records"
-	case same(d.Votes):
+	case same(d.Papers.Baselines):
+		return "expected-citation baselines"
+	case same(d.Votes.File):
 		return "survey votes"
+	case same(d.Votes.Targets):
+		return "survey target shares"
 	}
 	for _, v := range d.Values {
 		if same(v) {

@@ -55,6 +55,12 @@ type Limits struct {
 	YAMLDepth  int64
 	YAMLScalar int64
 	YAMLNodes  int64
+	// RecordBytes, RecordRows and RecordKeys cap one record file (papers or
+	// votes), read as a stream: its size, its data rows, and the distinct
+	// names (institutions, fields, types, countries) held while reading.
+	RecordBytes int64
+	RecordRows  int64
+	RecordKeys  int64
 }
 
 // Default returns the limits used when none are given.
@@ -76,6 +82,11 @@ func Default() Limits {
 		YAMLDepth:    yamlx.MaxDepth,
 		YAMLScalar:   yamlx.MaxScalar,
 		YAMLNodes:    yamlx.MaxNodes,
+		// A world of 11.3 million papers with three affiliations each is
+		// about 34 million rows and 1.5 GiB in one-row-per-affiliation shape.
+		RecordBytes: 64 << 30,
+		RecordRows:  200_000_000,
+		RecordKeys:  5_000_000,
 	}
 }
 
@@ -118,6 +129,9 @@ var specs = []spec{
 	{"yaml-depth", "levels", false, "nesting of one YAML document", func(l *Limits) *int64 { return &l.YAMLDepth }},
 	{"yaml-scalar", "bytes", true, "length of one YAML value", func(l *Limits) *int64 { return &l.YAMLScalar }},
 	{"yaml-nodes", "nodes", false, "nodes of one YAML document", func(l *Limits) *int64 { return &l.YAMLNodes }},
+	{"record-file", "bytes", true, "size of one paper or vote record file", func(l *Limits) *int64 { return &l.RecordBytes }},
+	{"record-rows", "rows", false, "data rows of one paper or vote record file", func(l *Limits) *int64 { return &l.RecordRows }},
+	{"record-keys", "names", false, "distinct institutions, fields, types and countries in one record file", func(l *Limits) *int64 { return &l.RecordKeys }},
 }
 
 // Name identifies one limit by the name written after --limit.
@@ -141,6 +155,9 @@ const (
 	YAMLDepth    Name = "yaml-depth"
 	YAMLScalar   Name = "yaml-scalar"
 	YAMLNodes    Name = "yaml-nodes"
+	RecordBytes  Name = "record-file"
+	RecordRows   Name = "record-rows"
+	RecordKeys   Name = "record-keys"
 )
 
 func lookup(name Name) (spec, bool) {

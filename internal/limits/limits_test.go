@@ -74,7 +74,7 @@ func TestParse(t *testing.T) {
 
 func TestParseErrors(t *testing.T) {
 	cases := []struct{ spec, want string }{
-		{"row=5", `unknown limit "row"; did you mean "rows"? (limits: file, rows, columns, cell, sheet-cells, institutions, indicators, years, values, groups, charts, blocks, yaml, yaml-depth, yaml-scalar, yaml-nodes)`},
+		{"row=5", `unknown limit "row"; did you mean "rows"? (limits: file, rows, columns, cell, sheet-cells, institutions, indicators, years, values, groups, charts, blocks, yaml, yaml-depth, yaml-scalar, yaml-nodes, record-file, record-rows, record-keys)`},
 		{"zzzzzz=5", `unknown limit "zzzzzz" (limits: file, rows`},
 		{"rows", `limit "rows" has no value; write name=value, e.g. rows=20M`},
 		{"rows=", `limit rows=: the value is empty`},

@@ -16,14 +16,7 @@ func BoxOfUnsorted(values []float64, missing int, m QuantileMethod) Box {
 	if n == 0 {
 		return BoxOfSorted(nil, missing, m)
 	}
-	plans := [3]quantilePlan{planQuantile(n, 0.25, m), planQuantile(n, 0.5, m), planQuantile(n, 0.75, m)}
-	ks := make([]int, 0, 6)
-	for _, q := range plans {
-		ks = append(ks, q.lo, q.hi)
-	}
-	slices.Sort(ks)
-	ks = slices.Compact(ks)
-	SelectOrder(values, ks)
+	q1, med, q3 := QuartilesOfUnsorted(values, m)
 	b := Box{N: n, Missing: missing}
 	b.Min, b.Max = values[0], values[0]
 	for _, v := range values {
@@ -34,11 +27,30 @@ func BoxOfUnsorted(values []float64, missing int, m QuantileMethod) Box {
 			b.Max = v
 		}
 	}
-	b.Q1 = plans[0].value(values[plans[0].lo], values[plans[0].hi])
-	b.Median = plans[1].value(values[plans[1].lo], values[plans[1].hi])
-	b.Q3 = plans[2].value(values[plans[2].lo], values[plans[2].hi])
+	b.Q1, b.Median, b.Q3 = q1, med, q3
 	b.setWhiskers(values)
 	return b
+}
+
+// QuartilesOfUnsorted returns the first quartile, the median and the
+// third quartile of values (any order, no NaNs, at least one) by method
+// m, placing only the order statistics they need (SelectOrder). It
+// reorders values. The results are bit-identical to Quantile on the
+// sorted values.
+func QuartilesOfUnsorted(values []float64, m QuantileMethod) (q1, median, q3 float64) {
+	n := len(values)
+	plans := [3]quantilePlan{planQuantile(n, 0.25, m), planQuantile(n, 0.5, m), planQuantile(n, 0.75, m)}
+	var buf [6]int
+	ks := buf[:0]
+	for _, q := range plans {
+		ks = append(ks, q.lo, q.hi)
+	}
+	slices.Sort(ks)
+	ks = slices.Compact(ks)
+	SelectOrder(values, ks)
+	return plans[0].value(values[plans[0].lo], values[plans[0].hi]),
+		plans[1].value(values[plans[1].lo], values[plans[1].hi]),
+		plans[2].value(values[plans[2].lo], values[plans[2].hi])
 }
 
 // SelectOrder rearranges a (no NaNs) so that for every 0-based k in ks

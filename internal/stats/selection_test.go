@@ -52,6 +52,11 @@ func TestBoxOfUnsortedMatchesSorted(t *testing.T) {
 				slices.Sort(s)
 				want := BoxOfSorted(s, 3, m)
 				got := BoxOfUnsorted(slices.Clone(x), 3, m)
+				q1, med, q3 := QuartilesOfUnsorted(slices.Clone(x), m)
+				if q1 != Quantile(s, 0.25, m) || med != Quantile(s, 0.5, m) || q3 != Quantile(s, 0.75, m) {
+					t.Fatalf("%s n=%d %v: QuartilesOfUnsorted = %v %v %v, want %v %v %v", name, n, m, q1, med, q3,
+						Quantile(s, 0.25, m), Quantile(s, 0.5, m), Quantile(s, 0.75, m))
+				}
 				if got.Q1 != want.Q1 || got.Median != want.Median || got.Q3 != want.Q3 ||
 					got.Min != want.Min || got.Max != want.Max || got.WhiskerLow != want.WhiskerLow ||
 					got.WhiskerHigh != want.WhiskerHigh || got.N != want.N || got.Missing != want.Missing ||

@@ -29,6 +29,8 @@ type CSVReader struct {
 	header []Cell
 	row    []Cell
 	done   bool
+	// failed is set when a problem stopped the file (done, not at its end).
+	failed bool
 	buf    []byte
 	lim    limits.Limits
 	rows   int64
@@ -50,7 +52,7 @@ func NewCSVWith(file string, data []byte, lim limits.Limits) (*CSVReader, error)
 		return nil, diag.At(file, 1, 1, "the file is UTF-16 encoded; save it as UTF-8 (in a spreadsheet: \"CSV UTF-8 (comma delimited)\")")
 	}
 	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
-	if !utf8.Valid(data) {
+	if !validUTF8(data) {
 		return nil, encodingProblem(file, data)
 	}
 	r := &CSVReader{file: file, line: 1, col: 1, lim: lim}
@@ -128,7 +130,7 @@ func (r *CSVReader) Next() ([]Cell, error) {
 	}
 	r.rows++
 	if r.rows > r.lim.Rows {
-		r.done = true
+		r.done, r.failed = true, true
 		return nil, diag.At(r.file, row[0].Line, row[0].Col, "the file has %s", r.lim.Beyond(limits.Rows, "split it into several files (the brief's values: takes a list)"))
 	}
 	if len(row) != len(r.header) {
@@ -176,15 +178,15 @@ func (r *CSVReader) record() ([]Cell, error) {
 	for {
 		cell, end, err := r.field()
 		if err != nil {
-			r.done = true
+			r.done, r.failed = true, true
 			return nil, err
 		}
 		if int64(len(cell.Text)) > r.lim.CellBytes {
-			r.done = true
+			r.done, r.failed = true, true
 			return nil, diag.At(r.file, cell.Line, cell.Col, "the field starting here is %s", r.lim.Over(limits.CellBytes, int64(len(cell.Text)), "if it should not be this long, look for a stray double quote that joins many lines into one field"))
 		}
 		if int64(len(r.row)) >= r.lim.Columns {
-			r.done = true
+			r.done, r.failed = true, true
 			return nil, diag.At(r.file, cell.Line, cell.Col, "line %d has %s", r.row[0].Line, r.lim.Beyond(limits.Columns, "check the separators of this line"))
 		}
 		r.row = append(r.row, cell)

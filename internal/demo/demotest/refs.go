@@ -128,8 +128,8 @@ func (s *Scenario) Check(b *brief.Brief) []string {
 	file("register", b.Data.Register)
 	file("dictionary", b.Data.Dictionary)
 	file("ppp", b.Data.PPP)
-	file("papers", b.Data.Papers)
-	file("votes", b.Data.Votes)
+	file("papers", b.Data.Papers.File)
+	file("votes", b.Data.Votes.File)
 	for _, v := range b.Data.Values {
 		file("values", v)
 	}

@@ -150,13 +150,6 @@ func (c *composer) medianAgainst(g *figures.Group, ind dataset.Indicator, year i
 	return medianAhead, out, true
 }
 
-// leads reports whether a system's median is ahead of the focus on an
-// indicator by more than the data carries.
-func (c *composer) leads(g *figures.Group, ind dataset.Indicator, year int) bool {
-	st, _, ok := c.medianAgainst(g, ind, year)
-	return ok && st == medianAhead
-}
-
 // MinSharedSystems is how many competitor systems a scope needs before a
 // lead they all share is said once for all of them (with two, each
 // system's sentence reads as well; common practice, no source).

@@ -38,7 +38,7 @@ type Dendrogram struct {
 func Ward(x *Matrix) (*Dendrogram, error) {
 	n, p := x.N, x.P
 	if n > MaxWardRows {
-		return nil, fmt.Errorf("Ward's method is limited to %d institutions (this population has %d); use method: kmeans", MaxWardRows, n)
+		return nil, fmt.Errorf("the Ward method is limited to %d institutions (this population has %d); use method: kmeans", MaxWardRows, n)
 	}
 	if n < 2 {
 		return &Dendrogram{N: n}, nil
@@ -141,8 +141,7 @@ func (d *Dendrogram) Cut(k int) []int {
 	for i := range parent {
 		parent[i] = i
 	}
-	var find func(int) int
-	find = func(i int) int {
+	find := func(i int) int {
 		for parent[i] != i {
 			parent[i] = parent[parent[i]]
 			i = parent[i]

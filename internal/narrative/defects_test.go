@@ -365,3 +365,31 @@ func TestSummarySaysWhatItLeavesOut(t *testing.T) {
 		t.Errorf("want %q in\n%s", want, allText(c))
 	}
 }
+
+// "Since 2020, Wendholm's figure has risen from 2.7% to 2.7%": two values
+// that print alike were called a rise because their unrounded difference
+// (2.749 - 2.651 = 0.098) rounds to 0.1. Printed alike, they differ by
+// less than one unit of the last decimal, which is what the sentence now
+// claims (-0.1 < change < 0.1); no rise or fall is stated.
+func TestDefectRiseBetweenValuesPrintedAlike(t *testing.T) {
+	c, _, _ := parseSituation(t, defectIndicators+`
+columns: [intl@2020, intl@2025, staff@2025, spa@2025]
+institutions:
+  F: [Kestria, Arlen University, 2.651, 2.749, 10, 14]
+  K1: [Kestria, Kestrel College, 1, 1, 11, 14]
+  K2: [Kestria, Kestrel Institute, 2, 2, 12, 14]
+  K3: [Kestria, Kestrel University, 3, 3, 13, 14]
+  K4: [Kestria, Kestrel School, 4, 4, 14, 14]
+groups:
+  - {name: Kestria sector, where: {country: Kestria}}
+block: {style: detail, topics: [change], indicators: [intl]}
+years: [2020, 2025]
+`).compose(t)
+	text := allText(c)
+	if strings.Contains(text, "risen from 2.7% to 2.7%") || strings.Contains(text, "fallen from 2.7% to 2.7%") || strings.Contains(text, "rose from 2.7% to 2.7%") || strings.Contains(text, "fell from 2.7% to 2.7%") {
+		t.Errorf("a change between values printed alike is called a rise or fall:\n%s", text)
+	}
+	if !strings.Contains(text, "2.7%") {
+		t.Errorf("the change is not spoken of at all:\n%s", text)
+	}
+}

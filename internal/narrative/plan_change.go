@@ -68,6 +68,12 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 	if f.Direction == Level && format.Round(change, ind.Decimals) != 0 {
 		f.NoiseIQR = printAmount(ind, iqr)
 	}
+	// Two values that print alike did not rise or fall as far as the
+	// reader can see ("risen from 2.7% to 2.7%"): the change is less than
+	// one unit of the last decimal, and the sentence says so.
+	if f.Direction != Level && f.From == f.To {
+		f.Direction = Level
+	}
 	if cd.useTrend && f.Direction != Level && gapAgrees(ind, p1.Value, p0.Value, t.Change) {
 		f.Diff = printAmount(ind, t.Change)
 	}
@@ -75,6 +81,9 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		cd.hasMed = true
 		f.MedianFrom, f.MedianTo = printValue(ind, d0.Median), printValue(ind, d1.Median)
 		f.MedianDirection = direction(ind, d1.Median-d0.Median, iqr)
+		if f.MedianFrom == f.MedianTo {
+			f.MedianDirection = Level
+		}
 	}
 	// Below the small-group floor at either end no percentile is printed.
 	if p0.Rank > 0 && p1.Rank > 0 && !c.small(d0) && !c.small(d1) {
@@ -185,7 +194,9 @@ func (c *composer) valueChangeClaims(g *figures.Group, ind dataset.Indicator, cd
 		return nil
 	}
 	ch := Fig(trendKey(g.Name, ind.Key, id, mChange))
-	if format.Round(cd.t.Change, ind.Decimals) == 0 {
+	if format.Round(cd.t.Change, ind.Decimals) == 0 || cd.f.From == cd.f.To {
+		// Values that round alike differ by less than one unit of the
+		// last decimal.
 		return levelClaims(ind, ch)
 	}
 	return []Claim{Claimed(Fig(trendKey(g.Name, ind.Key, id, "change_per_iqr")), OpLess, Num(NoiseIQRShare))}

@@ -106,7 +106,7 @@ func traitText(pm *figures.Peers, k figures.Cluster) string {
 func (w *writer) clusterTable(pm *figures.Peers) {
 	reg := w.m.Data.Register
 	g := grid{head: []string{"No.", "Generated name", "Members", "Stands out (centre vs population)", "Main countries", "Most typical member"},
-		align: []byte{'R', 'L', 'R', 'L', 'L', 'L'}, caption: "Peer clusters, largest first", maxLines: 6}
+		align: []byte{'R', 'L', 'R', 'L', 'L', 'L'}, caption: "Peer clusters, largest first", maxLines: 14}
 	for c, k := range pm.Clusters {
 		var cs []string
 		for _, cc := range k.Countries {

@@ -102,14 +102,40 @@ func Analyse(x *Matrix, o Options) (*Analysis, error) {
 		r := KMeans(x, k, o.Restarts, o.Seed)
 		return r.Labels, r.Converged
 	}
+	// The values of k are independent: they run side by side, as many at
+	// once as there are processors, each writing only its own slot, so
+	// the curve is the same on any number of processors. This also keeps
+	// both processors busy while one k refines its best start on all rows.
+	nk := max(kmax-AutoKMin+1, 0)
+	curve := make([]KScore, nk)
+	labelsOf := make([][]int, nk)
+	convOf := make([]bool, nk)
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for w := 0; w < min(runtime.GOMAXPROCS(0), nk); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				k := AutoKMin + i
+				labels, conv := cluster(k)
+				c, _ := Centres(x, labels, k)
+				s := SilhouetteOf(x, labels, k, o.SilhouetteLimit, o.Seed)
+				curve[i] = KScore{K: k, Silhouette: s.Mean, WithinSS: WithinSS(x, labels, c)}
+				labelsOf[i], convOf[i] = labels, conv
+			}
+		}()
+	}
+	for i := 0; i < nk; i++ {
+		next <- i
+	}
+	close(next)
+	wg.Wait()
 	labelsAt := map[int][]int{}
-	for k := AutoKMin; k <= kmax; k++ {
-		labels, conv := cluster(k)
-		a.Converged = a.Converged && conv
-		c, _ := Centres(x, labels, k)
-		s := SilhouetteOf(x, labels, k, o.SilhouetteLimit, o.Seed)
-		a.Curve = append(a.Curve, KScore{K: k, Silhouette: s.Mean, WithinSS: WithinSS(x, labels, c)})
-		labelsAt[k] = labels
+	for i := 0; i < nk; i++ {
+		a.Converged = a.Converged && convOf[i]
+		a.Curve = append(a.Curve, curve[i])
+		labelsAt[AutoKMin+i] = labelsOf[i]
 	}
 	k := o.K
 	if k == 0 {

@@ -49,7 +49,7 @@ func (c *composer) composite() []Paragraph {
 		exKey := key(figures.CompositeOverall, "", y, "n_excluded")
 		ex, _ := val(exKey)
 		ps = append(ps, Paragraph{Sentences: []Sentence{sent(fmt.Sprintf("%s has too few of the composite's indicators in %d to be scored; %s of the institutions are scored and %s are not.",
-			c.focus, y, format.Int(int(n)), format.Int(int(ex))), nil, nKey, exKey)}})
+			c.focus, y, format.Int(int(n)), format.Int(int(ex))), nil, nKey, exKey).claim(Claimed(Fig(exKey), OpGreaterEq, Num(1)))}})
 		return ps
 	}
 	rk := key(figures.CompositeOverall, fid, y, "rank")
@@ -71,20 +71,22 @@ func (c *composer) composite() []Paragraph {
 		}
 		if lo == hi {
 			first = append(first, sent(fmt.Sprintf("On the composite score %s ranks %s of %s in %d, and it kept that rank in every one of %s runs with %s.",
-				c.focus, rank(r0), format.Int(int(n)), y, format.Int(int(runs)), varied), nil, rk, nKey, lowK, highK, runsK, spreadK))
+				c.focus, rank(r0), format.Int(int(n)), y, format.Int(int(runs)), varied), nil, rk, nKey, lowK, highK, runsK, spreadK).
+				claim(Claimed(Fig(rk), OpLessEq, Fig(nKey)), Claimed(Fig(lowK), OpEqual, Fig(rk)), Claimed(Fig(highK), OpEqual, Fig(rk))))
 		} else {
 			med, _ := val(medK)
 			first = append(first, sent(fmt.Sprintf("On the composite score %s ranks %s of %s in %d; across %s runs with %s, its rank lay between %s and %s in %d %% of them (median %s).",
-				c.focus, rank(r0), format.Int(int(n)), y, format.Int(int(runs)), varied, rank(lo), rank(hi), IntervalShare, rank(med)), []float64{IntervalShare}, rk, nKey, lowK, highK, medK, runsK, spreadK))
+				c.focus, rank(r0), format.Int(int(n)), y, format.Int(int(runs)), varied, rank(lo), rank(hi), IntervalShare, rank(med)), []float64{IntervalShare}, rk, nKey, lowK, highK, medK, runsK, spreadK).
+				claim(Claimed(Fig(rk), OpLessEq, Fig(nKey)), Claimed(Fig(lowK), OpLess, Fig(highK)), Claimed(Fig(lowK), OpLessEq, Fig(medK)), Claimed(Fig(medK), OpLessEq, Fig(highK))))
 		}
 		ovK := key(figures.CompositeOverall, fid, y, "n_overlapping")
 		if ov, ok := val(ovK); ok && ov > 0 {
 			first = append(first, sent(fmt.Sprintf("Its interval overlaps those of %s other %s, which this composite cannot tell apart from it.",
-				format.Int(int(ov)), format.Plural(int(ov), "institution", "institutions")), nil, ovK))
+				format.Int(int(ov)), format.Plural(int(ov), "institution", "institutions")), nil, ovK).claim(Claimed(Fig(ovK), OpGreater, Num(0))))
 		}
 	} else {
 		first = append(first, sent(fmt.Sprintf("On the composite score %s ranks %s of %s in %d; no uncertainty analysis was run, so this rank comes without an interval and should not be read on its own.",
-			c.focus, rank(r0), format.Int(int(n)), y), nil, rk, nKey))
+			c.focus, rank(r0), format.Int(int(n)), y), nil, rk, nKey).claim(Claimed(Fig(rk), OpLessEq, Fig(nKey))))
 	}
 	ps = append(ps, Paragraph{Sentences: first})
 
@@ -122,15 +124,22 @@ func (c *composer) composite() []Paragraph {
 		sh, _ := val(shK)
 		el, _ := val(elK)
 		eh, _ := val(ehK)
+		// The verdict claims the distinguishability figure and, for
+		// overlap, the comparison of the two intervals' ends; an unchanged
+		// rank claims the two ranks equal.
 		verdict := "the two intervals overlap, so the movement is not distinguishable from the uncertainty of the composite"
+		mvClaims := []Claim{Claimed(Fig(dk), OpEqual, Num(0)), Claimed(Fig(slK), OpLessEq, Fig(ehK)), Claimed(Fig(elK), OpLessEq, Fig(shK))}
 		if mv.Distinguishable {
 			verdict = "the two intervals do not overlap, so the movement stands out from the uncertainty of the composite"
+			mvClaims = []Claim{Claimed(Fig(dk), OpEqual, Num(1))}
 		}
 		if mv.StartRank == mv.EndRank {
 			verdict = "the intervals show how far it could have moved unseen"
+			mvClaims = []Claim{Claimed(Fig(sk), OpEqual, Fig(ek))}
 		}
 		if m.CompositeSpec.WeightSpread == 0 && c.variedChoices() == "" {
 			verdict = "no choice of method was varied, so these figures cannot say how much of the movement the method alone could produce"
+			mvClaims = nil
 		}
 		span := func(lo, hi float64) string {
 			if lo == hi {
@@ -139,7 +148,7 @@ func (c *composer) composite() []Paragraph {
 			return "interval " + rank(lo) + " to " + rank(hi)
 		}
 		ps = append(ps, Paragraph{Heading: "Over time", Sentences: []Sentence{sent(fmt.Sprintf("Between %d and %d its composite rank went from %s (%s) to %s (%s); %s.",
-			mv.StartYear, mv.EndYear, rank(float64(mv.StartRank)), span(sl, sh), rank(float64(mv.EndRank)), span(el, eh), verdict), nil, sk, ek, slK, shK, elK, ehK, dk)}})
+			mv.StartYear, mv.EndYear, rank(float64(mv.StartRank)), span(sl, sh), rank(float64(mv.EndRank)), span(el, eh), verdict), nil, sk, ek, slK, shK, elK, ehK, dk).claim(mvClaims...)}})
 	}
 	// coverage
 	exK, impK := key(figures.CompositeOverall, "", y, "n_excluded"), key(figures.CompositeOverall, "", y, "n_imputed")
@@ -249,17 +258,27 @@ func (c *composer) compositeSensitivity(key keyFunc, val valFunc, sent sentFunc)
 	}
 	varK := key(figures.CompositeOverall, fid, y, "rank_variance")
 	if v, ok := val(varK); ok && v == 0 {
-		return []Sentence{sent("Its rank did not move in any run, so no choice varied here matters for it.", nil, varK)}
+		return []Sentence{sent("Its rank did not move in any run, so no choice varied here matters for it.", nil, varK).claim(Claimed(Fig(varK), OpEqual, Num(0)))}
 	}
 	if best < 0 {
 		return nil
 	}
+	// "matters most" is one claim per other choice weighed (common
+	// practice, no source).
+	var most []Claim
+	for i, cd := range cands {
+		if _, ok := val(cd.k); ok && i != best {
+			most = append(most, Claimed(Fig(cands[best].k), OpGreaterEq, Fig(cd.k)))
+		}
+	}
 	share := format.Number(100*bestV, 0)
 	if share == "0" {
-		return []Sentence{sent("No single choice varied here accounts on its own for a visible share of the movement of its rank; the choices matter together.", nil, cands[best].k)}
+		// Prints as 0 %: under half a percentage point.
+		return []Sentence{sent("No single choice varied here accounts on its own for a visible share of the movement of its rank; the choices matter together.", nil, cands[best].k).
+			claim(append(most, Claimed(Fig(cands[best].k), OpLess, Num(0.005)))...)}
 	}
 	return []Sentence{sent(fmt.Sprintf("Of the choices varied, %s matters most for its rank: on its own it accounts for about %s %% of the variation of the rank across runs (a first-order index; the rest comes from the other choices and from how they combine).",
-		cands[best].what, share), nil, cands[best].k)}
+		cands[best].what, share), nil, cands[best].k).claim(most...)}
 }
 
 // compositeHeadroom reports, for up to two indicators needing the smallest
@@ -277,10 +296,12 @@ func (c *composer) compositeHeadroom(cy *figures.CompositeYear, key keyFunc, val
 	}
 	var rooms []room
 	unreachable := 0
+	var unreachClaims []Claim // one per indicator counted as unable
 	for j, ind := range cy.Indicators {
 		if r, ok := val(key(ind.Key, fid, y, "headroom_reachable")); ok {
 			if r == 0 {
 				unreachable++
+				unreachClaims = append(unreachClaims, Claimed(Fig(key(ind.Key, fid, y, "headroom_reachable")), OpEqual, Num(0)))
 				continue
 			}
 			p, ok := val(key(ind.Key, fid, y, "headroom_change_pct"))
@@ -320,11 +341,15 @@ func (c *composer) compositeHeadroom(cy *figures.CompositeYear, key keyFunc, val
 			cites = cites[:len(cites)-2]
 			cites = append(cites, toK)
 		}
-		out = append(out, sent(text+".", nil, cites...))
+		// "would lift its rank": the rank reached is better than the
+		// rank held, and the indicator can do it alone.
+		reachK := key(ind.Key, fid, y, "headroom_reachable")
+		out = append(out, sent(text+".", nil, cites...).claim(Claimed(Fig(hrK), OpLess, Fig(rk)), Claimed(Fig(reachK), OpEqual, Num(1))))
 	}
 	if unreachable > 0 {
 		out = append(out, sent(fmt.Sprintf("%s of the %s %s could not do it alone, even at the best value observed.",
-			format.Int(unreachable), format.Int(len(cy.Indicators)), format.Plural(len(cy.Indicators), "indicator", "indicators")), []float64{float64(unreachable), float64(len(cy.Indicators))}))
+			format.Int(unreachable), format.Int(len(cy.Indicators)), format.Plural(len(cy.Indicators), "indicator", "indicators")), []float64{float64(unreachable), float64(len(cy.Indicators))}).
+			claim(unreachClaims...))
 	}
 	if len(rooms) == 0 && unreachable == 0 {
 		return nil

@@ -47,6 +47,10 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 	}
 	s := say(fmt.Sprintf("Institutions were grouped by %s on %s in %d: %s institutions in %s clusters, numbered from the largest.",
 		how, joinAnd(labels), pm.Year, format.Int(len(pm.Rows)), format.Int(a.K)), top("n_clustered"), top("k"))
+	// "numbered from the largest": each cluster at least as large as the next.
+	for i := 1; i < len(pm.Clusters); i++ {
+		s = s.claim(Claimed(Fig(key(figures.ClusterGroup(pm.Clusters[i-1].Number), "", "", "size")), OpGreaterEq, Fig(key(figures.ClusterGroup(pm.Clusters[i].Number), "", "", "size"))))
+	}
 	if pm.LeftOut > 0 {
 		s.Text = strings.TrimSuffix(s.Text, ".") + fmt.Sprintf("; %s of the ranked population lacked a value and were left out.", format.Int(pm.LeftOut))
 		s.Cites = append(s.Cites, top("n_left_out"))
@@ -67,19 +71,33 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 		}
 		method = append(method, ws)
 	}
+	// The structure's word claims the silhouette against the levels of
+	// Kaufman and Rousseeuw (1990, from memory).
+	sil := Fig(top("silhouette"))
 	structure := "a reasonable structure"
+	structClaims := []Claim{Claimed(sil, OpGreaterEq, Num(figures.ReasonableSilhouette))}
 	switch {
 	case a.Silhouette.Mean < figures.WeakSilhouette:
 		structure = "no substantial structure: the clusters cut a continuum into parts rather than find separate groups"
+		structClaims = []Claim{Claimed(sil, OpLess, Num(figures.WeakSilhouette))}
 	case a.Silhouette.Mean < figures.ReasonableSilhouette:
 		structure = "a weak structure, which the method may partly have imposed"
+		structClaims = []Claim{Claimed(sil, OpGreaterEq, Num(figures.WeakSilhouette)), Claimed(sil, OpLess, Num(figures.ReasonableSilhouette))}
 	}
 	if pm.Spec.K.Auto() {
-		method = append(method, say(fmt.Sprintf("The number of clusters gives the widest average silhouette width of those tried (%s), which indicates %s.",
-			format.Number(a.Silhouette.Mean, 2), structure), top("silhouette")))
+		// "the widest of those tried": one claim per other k on the curve.
+		chosen := top(figures.CurveMeasure(a.K))
+		widest := say(fmt.Sprintf("The number of clusters gives the widest average silhouette width of those tried (%s), which indicates %s.",
+			format.Number(a.Silhouette.Mean, 2), structure), top("silhouette")).claim(structClaims...)
+		for _, sc := range a.Curve {
+			if sc.K != a.K && !math.IsNaN(sc.Silhouette) {
+				widest = widest.claim(Claimed(Fig(chosen), OpGreaterEq, Fig(top(figures.CurveMeasure(sc.K)))))
+			}
+		}
+		method = append(method, widest)
 	} else {
 		method = append(method, say(fmt.Sprintf("The brief sets the number of clusters; their average silhouette width is %s, which indicates %s.",
-			format.Number(a.Silhouette.Mean, 2), structure), top("silhouette")))
+			format.Number(a.Silhouette.Mean, 2), structure), top("silhouette")).claim(structClaims...))
 	}
 	if a.Silhouette.Sampled {
 		method = append(method, say(fmt.Sprintf("Silhouette widths are estimated from a random sample of %s institutions.", format.Int(len(a.Silhouette.Rows))), top("silhouette_rows")))
@@ -115,15 +133,21 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 		}
 		if st := a.Stability; st != nil {
 			comp := pm.FocusCompanions
+			// The word claims the cluster's Jaccard against the levels
+			// of Hennig (2007, from memory).
+			jk := Fig(key(g, "", "", "jaccard"))
 			word := "a stable grouping"
+			stab := []Claim{Claimed(jk, OpGreaterEq, Fig(top("jaccard_stable")))}
 			if k.Fragile() {
 				word = "a fragile grouping: read membership of this cluster as tentative"
+				stab = []Claim{Claimed(jk, OpLess, Fig(top("jaccard_fragile")))}
 			} else if k.Jaccard < peers.StableJaccard {
 				word = "a grouping of middling stability"
+				stab = []Claim{Claimed(jk, OpGreaterEq, Fig(top("jaccard_fragile"))), Claimed(jk, OpLess, Fig(top("jaccard_stable")))}
 			}
 			focus = append(focus, say(fmt.Sprintf("Clustered again on %s bootstrap resamples, %s kept most of the same companions (at least three quarters in common) in %s of them; the cluster itself has a mean Jaccard similarity of %s across resamples, %s.",
 				format.Int(st.Resamples), c.focus, pct(comp), format.Number(k.Jaccard, 2), word),
-				top("resamples"), key("", "", fid, "companions"), key(g, "", "", "jaccard")))
+				top("resamples"), key("", "", fid, "companions"), key(g, "", "", "jaccard")).claim(stab...))
 		}
 	}
 	if len(focus) > 0 {
@@ -132,10 +156,13 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 	if st := a.Stability; st != nil {
 		var fragile []string
 		var cites []figures.Key
+		var fc []Claim
 		for _, k := range pm.Clusters {
 			if k.Fragile() {
 				fragile = append(fragile, fmt.Sprintf("%s (%s)", format.Int(k.Number), format.Number(k.Jaccard, 2)))
-				cites = append(cites, key(figures.ClusterGroup(k.Number), "", "", "jaccard"))
+				jk := key(figures.ClusterGroup(k.Number), "", "", "jaccard")
+				cites = append(cites, jk)
+				fc = append(fc, Claimed(Fig(jk), OpLess, Fig(top("jaccard_fragile"))))
 			}
 		}
 		if len(fragile) > 0 {
@@ -144,26 +171,33 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 				word = "Clusters " + joinAnd(fragile) + " are"
 			}
 			cites = append(cites, top("jaccard_fragile"))
-			out = append(out, Paragraph{Sentences: []Sentence{say(word+fmt.Sprintf(" fragile: mean Jaccard similarity under %s across resamples (in brackets), so they may not exist as groups at all.", format.Number(peers.FragileJaccard, 2)), cites...)}})
+			out = append(out, Paragraph{Sentences: []Sentence{say(word+fmt.Sprintf(" fragile: mean Jaccard similarity under %s across resamples (in brackets), so they may not exist as groups at all.", format.Number(peers.FragileJaccard, 2)), cites...).claim(fc...)}})
 		}
 	}
 	if len(pm.Nearest) > 0 {
 		var items []string
 		var cites []figures.Key
-		for _, nb := range pm.Nearest {
+		var nc []Claim
+		for i, nb := range pm.Nearest {
+			if i > 0 {
+				// "nearest first"
+				nc = append(nc, Claimed(Fig(key(figures.NearestGroup, "", c.m.InstitutionID(pm.Nearest[i-1].Institution), "distance")), OpLessEq, Fig(key(figures.NearestGroup, "", c.m.InstitutionID(nb.Institution), "distance"))))
+			}
 			id := c.m.InstitutionID(nb.Institution)
 			name := c.m.Data.Register.Institutions[nb.Institution].Name
 			var diffs []string
 			for _, j := range nb.Differs {
 				ind := pm.Indicators[j]
 				r, _ := c.m.Lookup(key(figures.NearestGroup, ind.Key, id, "difference"))
-				dir := "higher"
+				dk := key(figures.NearestGroup, ind.Key, id, "difference")
+				dir, dc := "higher", Claimed(Fig(dk), OpGreater, Num(0))
 				if r.Value < 0 {
-					dir = "lower"
+					dir, dc = "lower", Claimed(Fig(dk), OpLess, Num(0))
 				}
 				if format.Round(r.Value, ind.Decimals) == 0 {
 					continue
 				}
+				nc = append(nc, dc)
 				diffs = append(diffs, fmt.Sprintf("%s %s on %s", format.Difference(ind, r.Value), dir, ind.RunningLabel()))
 				cites = append(cites, key(figures.NearestGroup, ind.Key, id, "difference"))
 			}
@@ -174,7 +208,7 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 			items = append(items, item)
 			cites = append(cites, key(figures.NearestGroup, "", id, "order"))
 		}
-		out = append(out, Paragraph{Sentences: []Sentence{say(fmt.Sprintf("The profiles nearest %s's, nearest first, with where each differs most: %s.", c.focus, strings.Join(items, "; ")), cites...)}})
+		out = append(out, Paragraph{Sentences: []Sentence{say(fmt.Sprintf("The profiles nearest %s's, nearest first, with where each differs most: %s.", c.focus, strings.Join(items, "; ")), cites...).claim(nc...)}})
 	}
 	out = append(out, Paragraph{Sentences: []Sentence{say("Clusters describe resemblance on the chosen indicators and weights, not quality; other indicators, weights or another number of clusters would draw other groups, and the names are generated from the figures, not given by anyone.")}})
 	return out
@@ -185,6 +219,14 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 func (c *composer) traitSentence(pm *figures.Peers, k figures.Cluster, part string) Sentence {
 	g := figures.ClusterGroup(k.Number)
 	var cites []figures.Key
+	var cl []Claim
+	z := func(j int) Operand { return Fig(pm.Key(g, pm.Indicators[j].Key, "", "centroid_z")) }
+	for _, j := range k.Above {
+		cl = append(cl, Claimed(z(j), OpGreaterEq, Num(figures.DistinctZ)))
+	}
+	for _, j := range k.Below {
+		cl = append(cl, Claimed(z(j), OpLessEq, Num(-figures.DistinctZ)))
+	}
 	side := func(js []int) string {
 		var items []string
 		for _, j := range js {
@@ -202,9 +244,16 @@ func (c *composer) traitSentence(pm *figures.Peers, k figures.Cluster, part stri
 		parts = append(parts, "low on "+side(k.Below))
 	}
 	if len(parts) == 0 {
-		return Sentence{Text: "Its centre lies within half a standard deviation of the population mean on every indicator.", Part: part, Cites: []figures.Key{pm.Key(g, "", "", "size")}}
+		// "within half a standard deviation on every indicator": two claims per indicator.
+		for j := range pm.Indicators {
+			if math.IsNaN(k.CentroidZ[j]) { // a constant indicator has no z
+				continue
+			}
+			cl = append(cl, Claimed(z(j), OpLess, Num(figures.DistinctZ)), Claimed(z(j), OpGreater, Num(-figures.DistinctZ)))
+		}
+		return Sentence{Text: "Its centre lies within half a standard deviation of the population mean on every indicator.", Part: part, Cites: []figures.Key{pm.Key(g, "", "", "size")}, Claims: cl}
 	}
-	return Sentence{Text: "What sets the cluster apart is that it is " + strings.Join(parts, ", and ") + ".", Cites: cites, Part: part}
+	return Sentence{Text: "What sets the cluster apart is that it is " + strings.Join(parts, ", and ") + ".", Cites: cites, Part: part, Claims: cl}
 }
 
 // joinAnd joins items as running text: "a, b and c".

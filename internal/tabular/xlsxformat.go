@@ -60,7 +60,7 @@ func (bk *xlsxBook) calc(ref string) (string, error) {
 		err = fmt.Errorf("it gives %s", v)
 	}
 	if err != nil {
-		return "", fmt.Errorf("cell %s holds the formula =%s with no stored result, and it cannot be computed here (%v); open the workbook in a spreadsheet and save it, which stores the results, or replace the formula by its value", ref, formula, err)
+		return "", fmt.Errorf("cell %s holds the formula =%s with no stored result, and it cannot be computed here (the calculation engine says: %v); open the workbook in a spreadsheet and save it, which stores the results, or replace the formula by its value", ref, formula, err)
 	}
 	if x, err := strconv.ParseFloat(v, 64); err == nil {
 		v = strconv.FormatFloat(x, 'f', -1, 64)

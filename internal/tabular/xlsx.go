@@ -67,7 +67,8 @@ type xlsxBook struct {
 // ParseXLSX reads one sheet of an Office Open XML workbook (ECMA-376)
 // into a Table: the named sheet, or the first when sheet is empty. Shared
 // strings, inline strings, numbers, booleans and cached formula results are
-// read; styles are not, so a date shows as its serial number. Cell "C12" is
+// read here; number formats (percent, date) and formulas saved without a
+// result go to excelize (xlsxformat.go). Cell "C12" is
 // line 12, column 3. The first non-empty row is the header; empty rows are
 // skipped; short rows are padded with empty cells.
 func ParseXLSX(file string, data []byte, sheet string) (*Table, error) {
@@ -488,12 +489,22 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 				}
 				kind := KindPlain
 				if cur.formula && cur.v.Len() == 0 && cur.typ != "inlineStr" {
-					if text, err = bk.calc(ColumnName(cur.col) + strconv.Itoa(rowNum)); err != nil {
+					text, err = bk.calc(ColumnName(cur.col) + strconv.Itoa(rowNum))
+					if bk.libErr != nil {
+						// The workbook as a whole cannot be read for
+						// formulas and styles: say so once.
+						return nil, diag.At(bk.file, rowNum, cur.col, "%v", bk.libErr)
+					}
+					if err != nil {
 						probs.Add(diag.At(bk.file, rowNum, cur.col, "%v", err))
 					}
 				}
 				if cur.style > 0 && (cur.typ == "" || cur.typ == "n") && text != "" {
-					if text, kind, err = bk.styled(cur.style, text); err != nil {
+					text, kind, err = bk.styled(cur.style, text)
+					if bk.libErr != nil {
+						return nil, diag.At(bk.file, rowNum, cur.col, "%v", bk.libErr)
+					}
+					if err != nil {
 						probs.Add(diag.At(bk.file, rowNum, cur.col, "cell %s%d: %v", ColumnName(cur.col), rowNum, err))
 					}
 				}

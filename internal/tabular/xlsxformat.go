@@ -7,6 +7,8 @@ import (
 	"strings"
 
 	"github.com/xuri/excelize/v2"
+
+	"peerpack/internal/limits"
 )
 
 // Kind says how a spreadsheet cell's number format asks it to be read. A
@@ -36,6 +38,19 @@ func (bk *xlsxBook) library() (*excelize.File, error) {
 		return bk.lib, bk.libErr
 	}
 	part := min(bk.part, bk.lim.FileBytes)
+	// excelize reads every part but the sheets and shared strings whole,
+	// capped only by UnzipSizeLimit; hold each part to the project's cap
+	// on one part first, by its stated size (which archive/zip enforces
+	// while inflating), so a bomb in the styles is refused before it is
+	// inflated.
+	total := uint64(0)
+	for _, zf := range bk.zr.File {
+		total += zf.UncompressedSize64
+		if zf.UncompressedSize64 > uint64(part) || total > uint64(bk.lim.FileBytes) {
+			bk.libErr = fmt.Errorf("workbook part %s would take the workbook beyond the limit of %s bytes for one part or %s bytes in all; the file may be damaged or hostile: save it again from the spreadsheet, or export the sheet as CSV UTF-8", zf.Name, limits.Group(part), limits.Group(bk.lim.FileBytes))
+			return nil, bk.libErr
+		}
+	}
 	bk.lib, bk.libErr = excelize.OpenReader(bytes.NewReader(bk.data), excelize.Options{
 		UnzipSizeLimit:    bk.lim.FileBytes,
 		UnzipXMLSizeLimit: part,

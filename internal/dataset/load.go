@@ -134,6 +134,7 @@ func (l *loader) load() *Dataset {
 		vr.read(name)
 	}
 	vr.reportUnknown()
+	l.rep.Notes = append(l.rep.Notes, vr.percentNotes()...)
 	if st.over == nil {
 		l.records(reg, dict, st)
 	}

@@ -50,6 +50,15 @@ type valuesReader struct {
 	// same or the next indicator; checking those first saves a map lookup
 	// per row.
 	lastInst, lastInd int
+	// percents counts the percent-formatted workbook cells read into a
+	// percent indicator, by file and indicator, in first-seen order.
+	percents []*percentNote
+}
+
+type percentNote struct {
+	file, key string
+	first     tabular.Cell
+	n         int
 }
 
 // maxUnknownNames caps the distinct unknown ids and keys remembered.
@@ -240,6 +249,20 @@ func (v *valuesReader) value(file string, c tabular.Cell, ind int) (float64, boo
 		return math.NaN(), true
 	}
 	in := &v.dict.Indicators[ind]
+	if c.Kind == tabular.KindDate {
+		v.addf(file, c, "the cell is formatted as a date (%s), but %s is a number (unit %s); format the cell as a number and enter the value", c.Text, in.Key, in.Unit)
+		return 0, false
+	}
+	if c.Kind == tabular.KindPercent && in.Unit == UnitPercent && err == nil {
+		// A spreadsheet shows 0.036 formatted as a percentage as 3.6 %;
+		// the dictionary's percent runs 0..100. Shifting the decimal
+		// point in the text ("0.036e2") parses to the nearest float to
+		// 3.6, where x*100 would give 3.5999999999999996.
+		if y, perr := strconv.ParseFloat(strings.TrimSpace(c.Text)+"e2", 64); perr == nil {
+			x = y
+			v.notePercent(file, c, in.Key)
+		}
+	}
 	if err != nil {
 		var ne *tabular.NumberError
 		if errors.As(err, &ne) && ne.Token != "" {
@@ -259,6 +282,29 @@ func (v *valuesReader) value(file string, c tabular.Cell, ind int) (float64, boo
 		return 0, false
 	}
 	return x, true
+}
+
+func (v *valuesReader) notePercent(file string, c tabular.Cell, key string) {
+	for _, p := range v.percents {
+		if p.file == file && p.key == key {
+			p.n++
+			return
+		}
+	}
+	v.percents = append(v.percents, &percentNote{file: file, key: key, first: c, n: 1})
+}
+
+// percentNotes tells the report which cells were read in another unit.
+func (v *valuesReader) percentNotes() []string {
+	var out []string
+	for _, p := range v.percents {
+		cells := "1 cell"
+		if p.n > 1 {
+			cells = fmt.Sprintf("%d cells", p.n)
+		}
+		out = append(out, fmt.Sprintf("%s: %s of %s formatted as a percentage (first %s%d, holding %s) read as percent: the spreadsheet stores 3.6 %% as 0.036, and %s is in percent (0..100), so each was multiplied by 100", p.file, cells, p.key, tabular.ColumnName(p.first.Col), p.first.Line, p.first.Text, p.key))
+	}
+	return out
 }
 
 // unitViolation checks a value against its indicator's unit: a percent

@@ -34,6 +34,9 @@ type Cell struct {
 	Text string
 	Line int
 	Col  int
+	// Kind is how a workbook cell's number format reads it (percent,
+	// date); always KindPlain for CSV.
+	Kind Kind
 }
 
 // Table is a whole sheet: the header row and the data rows.

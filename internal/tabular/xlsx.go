@@ -11,6 +11,8 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/xuri/excelize/v2"
+
 	"peerpack/internal/diag"
 	"peerpack/internal/limits"
 	"peerpack/internal/yamlx"
@@ -50,17 +52,23 @@ type xlsxRels struct {
 }
 
 type xlsxBook struct {
-	file  string
-	zr    *zip.Reader
-	total int64
-	lim   limits.Limits
-	part  int64 // the cap on one part
+	file      string
+	data      []byte
+	sheetName string
+	lib       *excelize.File // opened on first need; see library
+	libErr    error
+	kinds     map[int]Kind // style index -> how its number format reads
+	zr        *zip.Reader
+	total     int64
+	lim       limits.Limits
+	part      int64 // the cap on one part
 }
 
 // ParseXLSX reads one sheet of an Office Open XML workbook (ECMA-376)
 // into a Table: the named sheet, or the first when sheet is empty. Shared
 // strings, inline strings, numbers, booleans and cached formula results are
-// read; styles are not, so a date shows as its serial number. Cell "C12" is
+// read here; number formats (percent, date) and formulas saved without a
+// result go to excelize (xlsxformat.go). Cell "C12" is
 // line 12, column 3. The first non-empty row is the header; empty rows are
 // skipped; short rows are padded with empty cells.
 func ParseXLSX(file string, data []byte, sheet string) (*Table, error) {
@@ -78,7 +86,7 @@ func ParseXLSXWith(file string, data []byte, sheet string, lim limits.Limits) (*
 	if len(zr.File) > maxZipParts {
 		return nil, diag.At(file, 0, 0, "the workbook has %d parts, over the limit of %d", len(zr.File), maxZipParts)
 	}
-	bk := &xlsxBook{file: file, zr: zr, lim: lim, part: min(partLimit, lim.FileBytes)}
+	bk := &xlsxBook{file: file, data: data, zr: zr, lim: lim, part: min(partLimit, lim.FileBytes)}
 	wbPath := "xl/workbook.xml"
 	if rels, err := bk.rels("_rels/.rels"); err == nil {
 		for _, r := range rels.Rels {
@@ -136,7 +144,12 @@ func ParseXLSXWith(file string, data []byte, sheet string, lim limits.Limits) (*
 			return nil, err
 		}
 	}
-	return bk.sheet(target, sst)
+	bk.sheetName = wb.Sheets[idx].Name
+	t, err := bk.sheet(target, sst)
+	if bk.lib != nil {
+		bk.lib.Close()
+	}
+	return t, err
 }
 
 func resolve(dir, target string) string {
@@ -307,6 +320,7 @@ func ColumnName(col int) string {
 type xlsxCell struct {
 	col  int
 	text string
+	kind Kind
 }
 
 func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
@@ -324,6 +338,9 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 		cur             struct {
 			ref, typ string
 			col      int
+			style    int
+			formula  bool
+			phonetic int
 			v        strings.Builder
 			inV, inT bool
 			inIS     bool
@@ -384,6 +401,7 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 				continue
 			}
 			row[c.col-1].Text = c.text
+			row[c.col-1].Kind = c.kind
 		}
 		t.Rows = append(t.Rows, row)
 	}
@@ -417,6 +435,7 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 				lastRow = rowNum
 			case "c":
 				cur.ref, cur.typ = "", ""
+				cur.style, cur.formula, cur.phonetic = 0, false, 0
 				cur.v.Reset()
 				cur.col = nextCol
 				for _, a := range e.Attr {
@@ -425,6 +444,8 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 						cur.ref = a.Value
 					case "t":
 						cur.typ = a.Value
+					case "s":
+						cur.style, _ = strconv.Atoi(a.Value)
 					}
 				}
 				if cur.ref != "" {
@@ -441,6 +462,10 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 				cur.inIS = true
 			case "t":
 				cur.inT = true
+			case "f":
+				cur.formula = true
+			case "rPh":
+				cur.phonetic++
 			}
 		case xml.EndElement:
 			switch e.Name.Local {
@@ -455,10 +480,33 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 				cur.inIS = false
 			case "t":
 				cur.inT = false
+			case "rPh":
+				cur.phonetic--
 			case "c":
 				text, err := cellText(cur.typ, cur.v.String(), sst)
 				if err != nil {
 					probs.Addf(bk.file, rowNum, cur.col, "cell %s%d: %v", ColumnName(cur.col), rowNum, err)
+				}
+				kind := KindPlain
+				if cur.formula && cur.v.Len() == 0 && cur.typ != "inlineStr" {
+					text, err = bk.calc(ColumnName(cur.col) + strconv.Itoa(rowNum))
+					if bk.libErr != nil {
+						// The workbook as a whole cannot be read for
+						// formulas and styles: say so once.
+						return nil, diag.At(bk.file, rowNum, cur.col, "%v", bk.libErr)
+					}
+					if err != nil {
+						probs.Add(diag.At(bk.file, rowNum, cur.col, "%v", err))
+					}
+				}
+				if cur.style > 0 && (cur.typ == "" || cur.typ == "n") && text != "" {
+					text, kind, err = bk.styled(cur.style, text)
+					if bk.libErr != nil {
+						return nil, diag.At(bk.file, rowNum, cur.col, "%v", bk.libErr)
+					}
+					if err != nil {
+						probs.Add(diag.At(bk.file, rowNum, cur.col, "cell %s%d: %v", ColumnName(cur.col), rowNum, err))
+					}
 				}
 				if int64(len(text)) > bk.lim.CellBytes {
 					probs.Addf(bk.file, rowNum, cur.col, "cell %s%d is %s", ColumnName(cur.col), rowNum, bk.lim.Over(limits.CellBytes, int64(len(text)), ""))
@@ -469,11 +517,13 @@ func (bk *xlsxBook) sheet(name string, sst []string) (*Table, error) {
 					// never pass the column limit; count them instead.
 					return nil, diag.At(bk.file, rowNum, cur.col, "row %d has %s", rowNum, bk.lim.Beyond(limits.Columns, "the workbook may be damaged: save it again from the spreadsheet"))
 				}
-				cells = append(cells, xlsxCell{col: cur.col, text: text})
+				cells = append(cells, xlsxCell{col: cur.col, text: text, kind: kind})
 				nextCol = cur.col + 1
 			}
 		case xml.CharData:
-			if cur.inV || (cur.inIS && cur.inT) {
+			// Phonetic runs (<rPh>) guide pronunciation and are not part
+			// of the value (ECMA-376 Part 1, 18.4.6).
+			if cur.inV || (cur.inIS && cur.inT && cur.phonetic == 0) {
 				cur.v.Write(e)
 			}
 		}

@@ -37,6 +37,7 @@ var kinds = map[string]planner{
 	"scatter": newScatter,
 	"heatmap": newHeatmap,
 	"bars":    newBars,
+	"esteem":  newEsteem,
 }
 
 // New plans the chart a block asks for. Errors are *diag.Problem values

@@ -1,4 +1,4 @@
-// Package charts draws peerpack's chart kinds (box, radar, trend, scatter,
+// Package charts draws peerpack's chart kinds (box, radar, trend, scatter, esteem,
 // heatmap, bars) with gonum/plot from the figures model. A chart draws; it
 // never decides what a quartile is: every statistic comes precomputed from
 // the model, and each kind's plotter takes plain structs (BoxRow,
@@ -37,6 +37,7 @@ var kinds = map[string]planner{
 	"scatter": newScatter,
 	"heatmap": newHeatmap,
 	"bars":    newBars,
+	"esteem":  newEsteem,
 }
 
 // New plans the chart a block asks for. Errors are *diag.Problem values

@@ -51,7 +51,11 @@ func buildModel(t testing.TB, n int, body string) (*figures.Model, *brief.Brief)
 		if i == 5 {
 			attrs["short_name"] = "Ostmark College"
 		}
-		insts[i] = dataset.Institution{ID: fmt.Sprintf("%s%03d", prefix, i), Name: name, Country: country, Region: "North", Attrs: attrs}
+		region := "North"
+		if country == "Aldmere" {
+			region = "West"
+		}
+		insts[i] = dataset.Institution{ID: fmt.Sprintf("%s%03d", prefix, i), Name: name, Country: country, Region: region, Attrs: attrs}
 	}
 	reg := dataset.NewRegister("register.csv", insts, []string{"mission", "short_name"})
 	dict := dataset.NewDictionary("indicators.yaml", fixtureIndicators)
@@ -108,7 +112,8 @@ const goldenBody = "# Charts\n" +
 	"\n```chart\nkind: trend\nindicators: [intl_staff]\ngroups: [Kestria national, Aldmere national]\nlabel: [KE002]\n```\n" +
 	"\n```chart\nkind: scatter\nindicators: [intl_staff, fnci]\ngroups: [Kestria national, Aldmere national]\nlabel: [AL001]\nfit: true\n```\n" +
 	"\n```chart\nkind: heatmap\nindicators: [fnci, intl_staff, ssr, income]\ngroups: [Kestria national]\nlabel: [KE002]\nlimit: 12\n```\n" +
-	"\n```chart\nkind: bars\nindicators: [fnci]\ngroups: [Kestria national]\nlimit: 10\n```\n"
+	"\n```chart\nkind: bars\nindicators: [fnci]\ngroups: [Kestria national]\nlimit: 10\n```\n" +
+	"\n```chart\nkind: esteem\nindicators: [intl_staff, fnci]\ngroups: [Kestria national, Aldmere national]\nlabel: [AL001]\n```\n"
 
 // chartBlocks returns the brief's chart blocks.
 func chartBlocks(b *brief.Brief) []*brief.ChartBlock {

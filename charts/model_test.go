@@ -175,7 +175,7 @@ func TestBlockErrors(t *testing.T) {
 		spec brief.ChartBlock
 		want string
 	}{
-		{brief.ChartBlock{Type: "pie", Indicators: []string{"fnci"}}, `kind "pie" is not drawn; use one of bars, box, heatmap, radar, scatter, trend`},
+		{brief.ChartBlock{Type: "pie", Indicators: []string{"fnci"}}, `kind "pie" is not drawn; use one of bars, box, esteem, heatmap, radar, scatter, trend`},
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fncii"}}, `indicator "fncii" is not in the dictionary (did you mean "fnci"?)`},
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fnci"}, Groups: []string{"Kestria nationl"}}, `group "Kestria nationl" is not defined in the brief (did you mean "Kestria national"?)`},
 		{brief.ChartBlock{Type: "scatter", Indicators: []string{"fnci"}}, "a scatter takes exactly two indicators, x then y; found 1"},

@@ -552,6 +552,9 @@ func (b *Brief) validateBlocks() error {
 			if v.Type == "scatter" && len(v.Indicators) != 2 {
 				bad(v, "a scatter chart takes exactly two indicators (x then y), found %d", len(v.Indicators))
 			}
+			if v.Type == "esteem" && len(v.Indicators) != 2 {
+				bad(v, "an esteem chart takes exactly two indicators, the home-country share of votes (x) then the esteem position (y), found %d", len(v.Indicators))
+			}
 			if v.Type == "radar" && len(v.Indicators) < 3 {
 				bad(v, "a radar chart needs at least three indicators, found %d", len(v.Indicators))
 			}

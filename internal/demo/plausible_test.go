@@ -491,6 +491,14 @@ func TestRecordSamples(t *testing.T) {
 		}
 		named[r[3]]++
 	}
+	// The vote sample covers every institution of the register, so the
+	// baselines computed from it are baselines of the whole world (issue
+	// requirement; common practice, no source).
+	for id := range s.country {
+		if named[id] == 0 {
+			t.Errorf("votes.csv: institution %s receives no vote", id)
+		}
+	}
 	if len(votes) < 5000 {
 		t.Errorf("votes.csv: only %d nominations", len(votes)-1)
 	}

@@ -232,13 +232,54 @@ func votesCSV(seed uint64, insts []institution, v *values) ([]byte, []float64) {
 		}
 		homeOf[k], nominated[k] = home, chosen
 	}
-	sample := make([]float64, len(countries))
+	// Every institution receives at least one nomination, so the vote
+	// records cover the whole world and baselines computed from them are
+	// baselines of every institution. An institution the draws above never
+	// named gets one further respondent from its own country, in its
+	// largest broad field, who names it and draws the rest of a usual list
+	// as every respondent does: one weighted vote keeps its esteem near the
+	// bottom, where its weight put it.
+	named := make([]bool, len(insts))
 	for k := 1; k <= respondents; k++ {
+		for _, j := range nominated[k] {
+			named[j] = true
+		}
+	}
+	for i, in := range insts {
+		if named[i] {
+			continue
+		}
+		field := 0
+		for f, s := range in.Profile {
+			if s > in.Profile[field] {
+				field = f
+			}
+		}
+		weights := weightsFor(wkey{in.Country, field})
+		count := 1 + r.intn(maxNominated)
+		chosen := []int{i}
+		for len(chosen) < count {
+			j := drawIndex(r, weights)
+			if !contains(chosen, j) {
+				chosen = append(chosen, j)
+			}
+		}
+		sort.Ints(chosen)
+		k := len(homeOf)
+		for _, j := range chosen {
+			w.row(fmt.Sprintf("R%05d", k), countries[in.Country].Name, fields[field].Key[len("field_"):], insts[j].ID)
+			named[j] = true
+		}
+		homeOf, nominated = append(homeOf, in.Country), append(nominated, chosen)
+	}
+	total := len(homeOf) - 1
+	sample := make([]float64, len(countries))
+	for k := 1; k <= total; k++ {
 		sample[homeOf[k]]++
 	}
 	weighted := make([]float64, len(insts))
-	for k := 1; k <= respondents; k++ {
-		wgt := targets[homeOf[k]] / (sample[homeOf[k]] / respondents)
+	for k := 1; k <= total; k++ {
+		wgt := targets[homeOf[k]] / (sample[homeOf[k]] / float64(total))
 		for _, j := range nominated[k] {
 			weighted[j] += wgt
 		}

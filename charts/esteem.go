@@ -66,18 +66,6 @@ func newEsteem(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error
 	for _, r := range names {
 		sc.Groups = append(sc.Groups, *byRegion[r])
 	}
-	fx, okx := valueOf(m, sc.XInd, m.Focus, year)
-	fy, oky := valueOf(m, sc.YInd, m.Focus, year)
-	if okx && oky {
-		sc.HasFocus = true
-		sc.Focus = ScatterMark{Label: fitName(institution(m, m.Focus), th.focusLabelStyle(), markNameWidth), X: fx, Y: fy}
-	}
-	for _, inst := range marks {
-		x, okx := valueOf(m, sc.XInd, inst, year)
-		y, oky := valueOf(m, sc.YInd, inst, year)
-		if okx && oky {
-			sc.Marks = append(sc.Marks, ScatterMark{Label: fitName(institution(m, inst), th.labelStyle(), markNameWidth), X: x, Y: y})
-		}
-	}
+	sc.markFocusAndNamed(m, marks, year)
 	return sc, nil
 }

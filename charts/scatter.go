@@ -307,6 +307,24 @@ func newScatter(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 		allX, allY = append(allX, sg.X...), append(allY, sg.Y...)
 		sc.Groups = append(sc.Groups, sg)
 	}
+	sc.markFocusAndNamed(m, marks, year)
+	if spec.Fit {
+		// A line over a handful of points claims an association the data
+		// cannot carry: the same floor as any statement that two
+		// indicators move together.
+		if len(allX) < figures.MinCorrelationPairs {
+			sc.NoFit = fmt.Sprintf("No line is drawn: %d institutions have both values, fewer than the %d needed before an association is read.", len(allX), figures.MinCorrelationPairs)
+		} else if f, ok := stats.FitLine(allX, allY); ok {
+			sc.Fit = &f
+		}
+	}
+	return sc, nil
+}
+
+// markFocusAndNamed places the focus and the named institutions that have
+// both values in the year, for every chart drawn as a scatter.
+func (sc *ScatterChart) markFocusAndNamed(m *figures.Model, marks []int, year int) {
+	th := sc.Theme
 	fx, okx := valueOf(m, sc.XInd, m.Focus, year)
 	fy, oky := valueOf(m, sc.YInd, m.Focus, year)
 	if okx && oky {
@@ -320,15 +338,4 @@ func newScatter(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 			sc.Marks = append(sc.Marks, ScatterMark{Label: fitName(institution(m, inst), th.labelStyle(), markNameWidth), X: x, Y: y})
 		}
 	}
-	if spec.Fit {
-		// A line over a handful of points claims an association the data
-		// cannot carry: the same floor as any statement that two
-		// indicators move together.
-		if len(allX) < figures.MinCorrelationPairs {
-			sc.NoFit = fmt.Sprintf("No line is drawn: %d institutions have both values, fewer than the %d needed before an association is read.", len(allX), figures.MinCorrelationPairs)
-		} else if f, ok := stats.FitLine(allX, allY); ok {
-			sc.Fit = &f
-		}
-	}
-	return sc, nil
 }

@@ -154,10 +154,8 @@ var measureWords = map[string]string{
 // institutionName names a register id as the pack prints it.
 func (w *writer) institutionName(id string) string {
 	reg := w.m.Data.Register
-	for i := range reg.Institutions {
-		if reg.Institutions[i].ID == id {
-			return reg.Institutions[i].Name
-		}
+	if i := reg.Index(id); i >= 0 {
+		return reg.Institutions[i].Name
 	}
 	return id
 }

@@ -436,6 +436,12 @@ func (w *writer) columnWidths(g grid, avail float64, bodyF, boldF, headF pdf.Fon
 		}
 		kept := map[int]bool{}
 		for _, c := range short {
+			if nat[c]+2*cellPadX > shortTextCol {
+				// Longer text (descriptions, lists of names) shares
+				// the width with the other wrapping columns rather
+				// than squeezing them to their longest word.
+				break
+			}
 			extra := nat[c] + 2*cellPadX - minOf(c)
 			if need+extra > room {
 				if nat[c]+2*cellPadX <= shortTextCol {

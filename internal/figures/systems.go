@@ -31,6 +31,11 @@ import (
 //   - `system/G/I//Y/weighted_minus_median`: median_weighted minus the
 //     unweighted median (distribution/G/I//Y/median) of the same members
 //     reporting I;
+//   - `system/G/I///median_change_per_iqr`: the absolute change of G's
+//     median of I over the span (trend/G/I///median_change) divided by
+//     G's interquartile range of I in the last year of that change, the
+//     share the "broadly unchanged" rule reads (as change_per_iqr does for
+//     an institution);
 //   - `system/////size_weight` (text): the size_weight indicator's key.
 const SectionSystem = "system"
 
@@ -43,6 +48,7 @@ const (
 	MeasureWeightN        = "weight_n"
 	MeasureWeightedGap    = "weighted_minus_median"
 	MeasureSizeWeight     = "size_weight"
+	MeasureMedianPerIQR   = "median_change_per_iqr"
 )
 
 // SystemKey is the key of a system-section figure.
@@ -152,6 +158,17 @@ func (m *Model) systemRows(b *brief.Brief) []Row {
 			Row{Key: SystemKey(g.Name, "", 0, MeasureDefined), Value: float64(c[0])},
 			Row{Key: SystemKey(g.Name, "", 0, MeasureRanked), Value: float64(c[1])},
 			Row{Key: SystemKey(g.Name, "", 0, MeasureShareRanked), Value: 100 * float64(c[1]) / float64(c[0])})
+	}
+	for _, g := range groups {
+		for _, k := range inds {
+			gt, ok := m.GroupTrend(g.Name, k)
+			if !ok || !gt.Valid {
+				continue
+			}
+			if dist, ok := m.Distribution(g.Name, k, gt.EndYear); ok && dist.N > 0 && dist.IQR > 0 {
+				out = append(out, Row{Key: SystemKey(g.Name, k, 0, MeasureMedianPerIQR), Value: math.Abs(gt.Change) / dist.IQR})
+			}
+		}
 	}
 	if b.SizeWeight == "" {
 		return out

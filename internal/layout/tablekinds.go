@@ -35,6 +35,8 @@ func (w *writer) tableBlock(tb *brief.TableBlock) {
 		w.groupsTable(tb, groups, inds, year)
 	case "population":
 		w.populationTable(tb)
+	case "systems":
+		w.systemsTable(tb, groups, inds, year)
 	default:
 		w.positionTable(tb, groups, inds, year)
 	}

@@ -2,6 +2,7 @@ package narrative
 
 import (
 	"math"
+	"sort"
 
 	"peerpack/internal/dataset"
 	"peerpack/internal/figures"
@@ -34,6 +35,9 @@ type SystemsCountFact struct {
 	High, Low SystemShare
 	Rest      []SystemShare
 	Same      bool
+	// HighLevel and LowLevel are the other groups whose share prints as
+	// the largest's or the smallest's.
+	HighLevel, LowLevel []SystemShare
 }
 
 // SystemMedian is one group's median (or other figure) on an indicator,
@@ -76,6 +80,8 @@ type SystemsWeightFact struct {
 	// above and below the plain one (Value weighted, From plain); nil when
 	// none prints apart.
 	Lift, Drop *SystemMedian
+	// Explain adds what a weighted median describes (once a part).
+	Explain bool
 }
 
 // SystemsWording is the wording of the systems topic.
@@ -184,7 +190,15 @@ func (c *composer) systemsCounts(sc *scope, gs []*figures.Group) (Sentence, bool
 		if i != lo {
 			claims = append(claims, Claimed(Fig(sysKey(rows[lo].g.Name, "", 0, figures.MeasureShareRanked)), OpLessEq, Fig(sysKey(r.g.Name, "", 0, figures.MeasureShareRanked))))
 		}
-		if i != hi && (i != lo || f.Same) {
+		switch {
+		case i == hi || (i == lo && !f.Same):
+		case f.Same:
+			f.Rest = append(f.Rest, r.p)
+		case r.p.Share == rows[hi].p.Share:
+			f.HighLevel = append(f.HighLevel, r.p)
+		case r.p.Share == rows[lo].p.Share:
+			f.LowLevel = append(f.LowLevel, r.p)
+		default:
 			f.Rest = append(f.Rest, r.p)
 		}
 	}
@@ -246,7 +260,21 @@ func (c *composer) systemsStanding(sc *scope, gs []*figures.Group, ind dataset.I
 // decimal and the share of the IQR against the rule), each unchanged
 // group, and the order of the largest.
 func (c *composer) systemsMove(sc *scope, gs []*figures.Group, ind dataset.Indicator) (Sentence, bool) {
-	first, last := c.m.First, c.m.Last
+	// The span is the one most groups' medians share (a measure computed
+	// from windows of records starts later than the brief's span); groups
+	// with other ends are named as left out.
+	spans := map[[2]int]int{}
+	var best [2]int
+	for _, g := range gs {
+		if gt, ok := c.m.GroupTrend(g.Name, ind.Key); ok && gt.Valid {
+			k := [2]int{gt.StartYear, gt.EndYear}
+			spans[k]++
+			if spans[k] > spans[best] || (spans[k] == spans[best] && k[1]-k[0] > best[1]-best[0]) {
+				best = k
+			}
+		}
+	}
+	first, last := best[0], best[1]
 	if first == last {
 		return Sentence{}, false
 	}
@@ -268,6 +296,9 @@ func (c *composer) systemsMove(sc *scope, gs []*figures.Group, ind dataset.Indic
 		}
 		f.Groups++
 		tk := func(m string) figures.Key { return trendKey(g.Name, ind.Key, "", m) }
+		if f.Groups == 1 {
+			cites = append(cites, tk("median_start_year"), tk("median_end_year"))
+		}
 		ch := Fig(tk(mMedianChange))
 		perIQR, hasIQR := c.m.SystemFigure(g.Name, ind.Key, 0, figures.MeasureMedianPerIQR)
 		cites = append(cites, tk("median_start"), tk("median_end"), tk(mMedianChange))
@@ -300,22 +331,20 @@ func (c *composer) systemsMove(sc *scope, gs []*figures.Group, ind dataset.Indic
 	}
 	// The largest move first: claims that it is at least (at most) every
 	// other of its direction.
+	// Largest move first, each at least (at most) the next.
 	order := func(ms []mv, up bool) {
-		best := 0
-		for i, m := range ms {
-			if (up && m.change > ms[best].change) || (!up && m.change < ms[best].change) {
-				best = i
+		sort.SliceStable(ms, func(a, b int) bool {
+			if up {
+				return ms[a].change > ms[b].change
 			}
+			return ms[a].change < ms[b].change
+		})
+		op := OpGreaterEq
+		if !up {
+			op = OpLessEq
 		}
-		if len(ms) > 1 {
-			ms[0], ms[best] = ms[best], ms[0]
-			for _, m := range ms[1:] {
-				op := OpGreaterEq
-				if !up {
-					op = OpLessEq
-				}
-				claims = append(claims, Claimed(Fig(trendKey(ms[0].g.Name, ind.Key, "", mMedianChange)), op, Fig(trendKey(m.g.Name, ind.Key, "", mMedianChange))))
-			}
+		for i := 1; i < len(ms); i++ {
+			claims = append(claims, Claimed(Fig(trendKey(ms[i-1].g.Name, ind.Key, "", mMedianChange)), op, Fig(trendKey(ms[i].g.Name, ind.Key, "", mMedianChange))))
 		}
 	}
 	order(rose, true)
@@ -368,7 +397,15 @@ func (c *composer) systemsWeight(sc *scope, gs []*figures.Group, ind dataset.Ind
 		}
 	}
 	gapKey := func(i int) figures.Key { return sysKey(rows[i].g.Name, ind.Key, sc.year, figures.MeasureWeightedGap) }
-	f := SystemsWeightFact{Seed: c.part + "/" + ind.Key + "/weight", Weight: lowerFirst(c.w.Indicator(size)), Groups: len(rows), Kind: groupsKind(sc)}
+	label := size.Short
+	if label == "" {
+		label = c.w.Indicator(size)
+	}
+	f := SystemsWeightFact{Seed: c.part + "/" + ind.Key + "/weight", Weight: lowerFirst(label), Groups: len(rows), Kind: groupsKind(sc)}
+	if k := c.part + "/weight-explained"; !c.said[k] {
+		c.said[k] = true
+		f.Explain = true
+	}
 	var cites []figures.Key
 	var claims []Claim
 	named := func(i int) *SystemMedian {

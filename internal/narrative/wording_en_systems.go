@@ -35,6 +35,11 @@ func (e english) SystemsCounts(f SystemsCountFact) string {
 	share := func(s SystemShare) string {
 		return s.System + " " + s.Ranked + " of " + s.Defined + " (" + s.Share + ")"
 	}
+	if len(f.HighLevel)+len(f.LowLevel) > 0 {
+		share = func(s SystemShare) string {
+			return s.System + " (" + s.Ranked + " of " + s.Defined + ", " + s.Share + ")"
+		}
+	}
 	rest := make([]string, len(f.Rest))
 	for i, r := range f.Rest {
 		rest[i] = share(r)
@@ -48,11 +53,18 @@ func (e english) SystemsCounts(f SystemsCountFact) string {
 			"all", groupCount(f.Groups, f.Kind), "list", e.List(rest))
 	}
 	tmpl := [...]string{
-		"{hi} has the largest share of its institutions passing the population rules among {all}, {hr} of {hd} ({hs}), and {lo} the smallest, {lr} of {ld} ({ls})",
-		"Of {hi}'s {hd} institutions in the register, {hr} ({hs}) pass the population rules, the largest share among {all}; of {lo}'s {ld}, {lr} ({ls}), the smallest",
+		"{hi} has the largest share of its institutions passing the population rules among {all}, {hr} of {hd} ({hs}){hl}, and {lo} the smallest, {lr} of {ld} ({ls}){ll}",
+		"Of the {hd} institutions of {hi} in the register, {hr} ({hs}) pass the population rules, the largest share among {all}{hl}; of the {ld} of {lo}, {lr} ({ls}), the smallest{ll}",
 	}
-	out := e.fill(tmpl[variant(f.Seed, len(tmpl))], "hi", f.High.System, "hr", f.High.Ranked, "hd", f.High.Defined, "hs", f.High.Share,
-		"lo", f.Low.System, "lr", f.Low.Ranked, "ld", f.Low.Defined, "ls", f.Low.Share, "all", groupCount(f.Groups, f.Kind))
+	level := func(ss []SystemShare) string {
+		if len(ss) == 0 {
+			return ""
+		}
+		return ", with " + e.List(levelShares(ss, share)) + " level with it as printed"
+	}
+	hi, lo := f.High.System, f.Low.System
+	out := e.fill(tmpl[variant(f.Seed, len(tmpl))], "hl", level(f.HighLevel), "ll", level(f.LowLevel), "hi", hi, "hr", f.High.Ranked, "hd", f.High.Defined, "hs", f.High.Share,
+		"lo", lo, "lr", f.Low.Ranked, "ld", f.Low.Defined, "ls", f.Low.Share, "all", groupCount(f.Groups, f.Kind))
 	if len(rest) > 0 {
 		out += "; in between, " + e.List(rest)
 	}
@@ -94,7 +106,7 @@ func (e english) SystemsMove(f SystemsMoveFact) string {
 	if len(f.Rose) > 0 {
 		p := "the median rose in " + n(len(f.Rose))
 		if len(f.Rose) > 1 {
-			p += ", most in " + moved(f.Rose[:1])[0] + ", then " + e.List(moved(f.Rose[1:]))
+			p += ", most in " + moved(f.Rose[:1])[0] + ", then in " + e.List(moved(f.Rose[1:]))
 		} else {
 			p += ", " + moved(f.Rose)[0]
 		}
@@ -106,7 +118,7 @@ func (e english) SystemsMove(f SystemsMoveFact) string {
 			p = "the median fell in " + n(len(f.Fell))
 		}
 		if len(f.Fell) > 1 {
-			p += ", most in " + moved(f.Fell[:1])[0] + ", then " + e.List(moved(f.Fell[1:]))
+			p += ", most in " + moved(f.Fell[:1])[0] + ", then in " + e.List(moved(f.Fell[1:]))
 		} else {
 			p += ", " + moved(f.Fell)[0]
 		}
@@ -139,6 +151,18 @@ func (e english) SystemsWeight(f SystemsWeightFact) string {
 	if f.Drop != nil {
 		parts = append(parts, "it lowers "+possessive(f.Drop.System)+" most, to "+f.Drop.Value+" from "+f.Drop.From)
 	}
-	return e.fill("Counting each institution by its {w} rather than as one, "+strings.Join(parts, ", and ")+"; weighted, the median is that of the {w} rather than of the institutions.",
+	tail := "."
+	if f.Explain {
+		tail = "; weighted, a median is that of the {w} rather than of the institutions."
+	}
+	return e.fill("Counting each institution by its {w} rather than as one, "+strings.Join(parts, ", and ")+tail,
 		"w", f.Weight)
+}
+
+func levelShares(ss []SystemShare, share func(SystemShare) string) []string {
+	out := make([]string, len(ss))
+	for i, s := range ss {
+		out[i] = share(s)
+	}
+	return out
 }

@@ -5,6 +5,7 @@ import (
 
 	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
+	"peerpack/internal/diag"
 	"peerpack/internal/figures"
 	"peerpack/internal/format"
 )
@@ -72,35 +73,71 @@ func tableRows(tb *brief.TableBlock, groups []*figures.Group, inds []dataset.Ind
 // tableTooBig refuses a table block whose rows or parts are past reading,
 // at the block's line, saying what to change. It reports whether it did.
 func (w *writer) tableTooBig(tb *brief.TableBlock, groups []*figures.Group, inds []dataset.Indicator) bool {
-	if tb.Type == "groups" && len(tb.Groups) == 0 {
-		groups = w.m.Groups
+	if msg := tableSizeProblem(tb, groups, inds, w.m.Groups); msg != "" {
+		w.failAt(tb.At, "%s", msg)
+		return true
 	}
-	if tb.Type == "systems" && len(tb.Groups) == 0 {
-		groups = w.m.Groups
+	return false
+}
+
+// tableSizeProblem says what is past reading in a table block, or "".
+func tableSizeProblem(tb *brief.TableBlock, groups []*figures.Group, inds []dataset.Indicator, all []*figures.Group) string {
+	if (tb.Type == "groups" || tb.Type == "systems") && len(tb.Groups) == 0 {
+		groups = all
 	}
 	if n := tableRows(tb, groups, inds); n > MaxTableRows {
-		w.failAt(tb.At, "this %s table would set %s rows (%d indicators in %d groups), over the %s a table may have; name fewer groups or indicators in the block, or split it into several blocks",
+		return fmt.Sprintf("this %s table would set %s rows (%d indicators in %d groups), over the %s a table may have; name fewer groups or indicators in the block, or split it into several blocks",
 			tb.Type, format.Int(n), len(inds), len(groups), format.Int(MaxTableRows))
-		return true
 	}
 	switch tb.Type {
 	case "groups":
 		if k := len(parts(len(groups), MaxGroupColumns)); k > MaxTableParts {
-			w.failAt(tb.At, "a groups table of %d groups would be set as %d tables of %d groups side by side; name at most %d groups in the block's groups:, or use kind: systems, which sets one row per group",
+			return fmt.Sprintf("a groups table of %d groups would be set as %d tables of %d groups side by side; name at most %d groups in the block's groups:, or use kind: systems, which sets one row per group",
 				len(groups), k, MaxGroupColumns, MaxGroupColumns*MaxTableParts)
-			return true
 		}
 	case "peers":
 		if len(tb.Indicators) == 0 {
 			break // the first six of the dictionary (peersTable)
 		}
 		if k := len(parts(len(inds)-1, MaxIndicatorColumns-1)); k > MaxTableParts {
-			w.failAt(tb.At, "a peers table of %d indicators would be set as %d tables of %d indicators side by side; name at most %d indicators in the block's indicators:, or split them over several blocks",
+			return fmt.Sprintf("a peers table of %d indicators would be set as %d tables of %d indicators side by side; name at most %d indicators in the block's indicators:, or split them over several blocks",
 				len(inds), k, MaxIndicatorColumns, 1+(MaxIndicatorColumns-1)*MaxTableParts)
-			return true
 		}
 	}
-	return false
+	return ""
+}
+
+// CheckTableSizes finds, without laying anything out, the table blocks
+// that would be refused as past reading (tableSizeProblem), so that
+// `peerpack check` reports them at their lines as the build would.
+func CheckTableSizes(b *brief.Brief, m *figures.Model) error {
+	var l diag.List
+	for _, blk := range b.Blocks {
+		tb, ok := blk.(*brief.TableBlock)
+		if !ok {
+			continue
+		}
+		var groups []*figures.Group
+		for _, name := range tb.Groups {
+			groups = append(groups, m.GroupsOf(name)...)
+		}
+		if len(tb.Groups) == 0 && len(m.Groups) > 0 {
+			groups = m.Groups[:1]
+		}
+		inds := m.Data.Dictionary.Indicators
+		if len(tb.Indicators) > 0 {
+			inds = nil
+			for _, k := range tb.Indicators {
+				if ind, ok := m.Data.Dictionary.Lookup(k); ok {
+					inds = append(inds, ind)
+				}
+			}
+		}
+		if msg := tableSizeProblem(tb, groups, inds, m.Groups); msg != "" {
+			l.Addf(b.File, tb.At.Line, tb.At.Column, "%s", msg)
+		}
+	}
+	return l.Err()
 }
 
 // partCaption is a block's caption (or the default a table kind would

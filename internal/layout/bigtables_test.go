@@ -100,6 +100,11 @@ func TestLargeTablesSplitOrRefused(t *testing.T) {
 			if err == nil || !strings.Contains(err.Error(), c.want) {
 				t.Errorf("got %v\nwant %s", err, c.want)
 			}
+			// check reports the tables' refusals without laying out.
+			err = CheckTableSizes(in.Brief, in.Model)
+			if isTable := !strings.Contains(c.want, "heatmap"); isTable != (err != nil) || (err != nil && !strings.Contains(err.Error(), c.want)) {
+				t.Errorf("CheckTableSizes: got %v, want %s", err, c.want)
+			}
 		})
 	}
 

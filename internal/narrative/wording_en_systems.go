@@ -146,16 +146,20 @@ func (e english) SystemsWeight(f SystemsWeightFact) string {
 	}
 	var parts []string
 	if f.Lift != nil {
-		parts = append(parts, "it lifts "+possessive(f.Lift.System)+" median most, to "+f.Lift.Value+" from "+f.Lift.From)
+		parts = append(parts, "lifts "+possessive(f.Lift.System)+" median most, to "+f.Lift.Value+" from "+f.Lift.From)
 	}
 	if f.Drop != nil {
-		parts = append(parts, "it lowers "+possessive(f.Drop.System)+" most, to "+f.Drop.Value+" from "+f.Drop.From)
+		what := "most"
+		if f.Lift == nil {
+			what = "median most"
+		}
+		parts = append(parts, "lowers "+possessive(f.Drop.System)+" "+what+", to "+f.Drop.Value+" from "+f.Drop.From)
 	}
 	tail := "."
 	if f.Explain {
 		tail = "; weighted, a median is that of the {w} rather than of the institutions."
 	}
-	return e.fill("Counting each institution by its {w} rather than as one, "+strings.Join(parts, ", and ")+tail,
+	return e.fill("Counting each institution by its {w} rather than as one "+strings.Join(parts, ", and ")+tail,
 		"w", f.Weight)
 }
 

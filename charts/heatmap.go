@@ -166,6 +166,13 @@ func (hc *HeatmapChart) geometry(w vg.Length) heatGeometry {
 		g.nameW = w * 0.42
 	}
 	g.cellW = (w - g.nameW) / vg.Length(max(len(hc.Columns), 1))
+	if minCell := hc.minCellW(); g.cellW < minCell {
+		// Many columns: the names give up room (down to minHeatNameW,
+		// names shortened as fitText does) before a cell grows too narrow
+		// for its percentile.
+		g.nameW = max(min(g.nameW, w-minCell*vg.Length(len(hc.Columns))), min(g.nameW, minHeatNameW))
+		g.cellW = (w - g.nameW) / vg.Length(max(len(hc.Columns), 1))
+	}
 	for _, col := range hc.Columns {
 		for _, line := range wrapText(col, g.head, g.cellW-4, 3) {
 			if strings.HasSuffix(line, "…") && !strings.HasSuffix(col, "…") {
@@ -228,8 +235,37 @@ func (hc *HeatmapChart) panels() *panels {
 // Height implements Chart.
 func (hc *HeatmapChart) Height(w vg.Length) vg.Length { return hc.panels().Height(w) }
 
-// Draw implements Chart.
-func (hc *HeatmapChart) Draw(c draw.Canvas) error { return hc.panels().Draw(c) }
+// Draw implements Chart. A heatmap whose cells would be too narrow for
+// their percentiles at this width is refused with how many columns fit.
+func (hc *HeatmapChart) Draw(c draw.Canvas) error {
+	if err := hc.CheckWidth(c.Max.X - c.Min.X); err != nil {
+		return err
+	}
+	return hc.panels().Draw(c)
+}
+
+// minHeatNameW is the narrowest the name column is set to make room for
+// many columns.
+const minHeatNameW = vg.Length(90)
+
+// minCellW is the narrowest cell that prints a percentile ("100") with a
+// little room either side.
+func (hc *HeatmapChart) minCellW() vg.Length {
+	return hc.Theme.text(sizeTick, false, PaletteBlack).Width("100") + 4
+}
+
+// CheckWidth reports, at a width, whether every cell is wide enough for its
+// percentile; if not, the error says how many columns would fit and what
+// to change.
+func (hc *HeatmapChart) CheckWidth(w vg.Length) error {
+	g := hc.geometry(w)
+	min := hc.minCellW()
+	if g.cellW >= min {
+		return nil
+	}
+	fit := max(int((w-g.nameW)/min), 1)
+	return fmt.Errorf("a heatmap of %d indicators is too wide to read: at this width at most %d columns keep their percentiles legible; list at most %d indicators in the block's indicators:, or split them over several heatmap blocks", len(hc.Columns), fit, fit)
+}
 
 // defaultHeatRows is the number of rows when a block sets no limit.
 const defaultHeatRows = 20

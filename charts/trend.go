@@ -55,10 +55,26 @@ type TrendPlotter struct {
 	EndRoom, DataWidth vg.Length
 	// Dropped counts labels left out for lack of room, after Plot.
 	Dropped int
+	// NameEnds puts each group's name before its latest value when the
+	// panel draws medians only (TrendPanel.bandEndText).
+	NameEnds bool
 }
 
 // showBands reports whether the panel's bands are drawn.
 func (pn TrendPanel) showBands() bool { return len(pn.Bands) <= MaxBandGroups }
+
+// bandEndText is the end label of a group's median line: its latest
+// value, and, when the panel draws medians only (more than MaxBandGroups
+// groups, whose colours and dashes a reader cannot match to the legend
+// line by line), the group's name before it, so each line is named where
+// it ends. named is false where the names would not fit the end column
+// (TrendChart.panels decides it per width).
+func (pn TrendPanel) bandEndText(b TrendBand, v float64, named bool) string {
+	if !named || pn.showBands() || b.Label == "" {
+		return axisValueText(pn.Indicator, v)
+	}
+	return b.Label + " " + axisValueText(pn.Indicator, v)
+}
 
 // End labels: a short leader from the line's end to a column of values,
 // each value after its group's marker so it is tied to the line in print.
@@ -198,7 +214,7 @@ func (t *TrendPlotter) Plot(c draw.Canvas, p *plot.Plot) {
 		// Group medians' latest values, so the gap to the focus can be
 		// read.
 		if y, v, ok := lastValue(pn.Years, b.Median); ok {
-			ends = append(ends, endLabel{anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, text: axisValueText(pn.Indicator, v), style: t.Theme.labelStyle(), mark: &mk})
+			ends = append(ends, endLabel{anchor: vg.Point{X: trX(float64(y)), Y: trY(v)}, text: pn.bandEndText(b, v, t.NameEnds), style: t.Theme.labelStyle(), mark: &mk})
 		}
 	}
 	named := NamedMarker()
@@ -324,28 +340,40 @@ func (tc *TrendChart) panels() *panels {
 	}
 	th := tc.Theme
 	ps := &panels{legend: &legend{th: th}, count: len(tc.Panels), minPanel: vg.Points(170), legendInGap: true}
-	// The end-label column is as wide as the widest latest value.
-	var endRoom vg.Length
-	for _, pn := range tc.Panels {
-		for _, b := range pn.Bands {
-			if _, v, ok := lastValue(pn.Years, b.Median); ok {
-				endRoom = max(endRoom, endLabelWidth(th.labelStyle(), axisValueText(pn.Indicator, v)))
+	// The end-label column is as wide as the widest latest value (with
+	// its group's name when named).
+	endRoomOf := func(named bool) vg.Length {
+		var endRoom vg.Length
+		for _, pn := range tc.Panels {
+			for _, b := range pn.Bands {
+				if _, v, ok := lastValue(pn.Years, b.Median); ok {
+					endRoom = max(endRoom, endLabelWidth(th.labelStyle(), pn.bandEndText(b, v, named)))
+				}
+			}
+			if _, v, ok := lastValue(pn.Years, pn.Focus.Values); ok {
+				endRoom = max(endRoom, endLabelWidth(th.focusLabelStyle(), axisValueText(pn.Indicator, v)))
 			}
 		}
-		if _, v, ok := lastValue(pn.Years, pn.Focus.Values); ok {
-			endRoom = max(endRoom, endLabelWidth(th.focusLabelStyle(), axisValueText(pn.Indicator, v)))
-		}
+		return endRoom
 	}
+	plainRoom, namedRoom := endRoomOf(false), endRoomOf(true)
 	var drawn []*TrendPlotter
 	ps.dropped = func() int { return sumDropped(drawn, func(t *TrendPlotter) int { return t.Dropped }) }
 	ps.make = func(w vg.Length, cols int) []*plot.Plot {
 		drawn = drawn[:0]
 		ph := ps.panelHeight(ps.panelWidth(w))
 		dw := ps.dataWidth(w, cols, vg.Points(40))
+		// Names go before the latest values when the column they need
+		// still leaves the years three fifths of the data area.
+		named := namedRoom <= dw*0.4
+		endRoom := plainRoom
+		if named {
+			endRoom = namedRoom
+		}
 		out := make([]*plot.Plot, len(tc.Panels))
 		for k, pn := range tc.Panels {
 			p := newPlot(th)
-			tp := &TrendPlotter{Panel: pn, Theme: th, EndRoom: endRoom, DataWidth: dw}
+			tp := &TrendPlotter{Panel: pn, Theme: th, EndRoom: endRoom, DataWidth: dw, NameEnds: named}
 			drawn = append(drawn, tp)
 			p.Add(grid(false, true), tp)
 			// Year labels share the data area with the end labels.

@@ -71,13 +71,34 @@ func TestTrendEndLabelsInOneOrderedColumn(t *testing.T) {
 		var labs []lab
 		for _, a := range rec.Actions {
 			if fs, ok := a.(*recorder.FillString); ok {
-				if v, ok := want[fs.String]; ok {
+				// Medians-only panels name each group before its value
+				// where the width allows.
+				text := fs.String
+				for _, b := range pn.Bands {
+					text = strings.TrimPrefix(text, b.Label+" ")
+				}
+				if v, ok := want[text]; ok {
 					labs = append(labs, lab{y: float64(fs.Point.Y), v: v, x: fs.Point.X})
 				}
 			}
 		}
 		if len(labs) != len(want) {
 			t.Fatalf("at %.0f pt: found %d end labels, want %d", w, len(labs), len(want))
+		}
+		if w == fullWidth {
+			// At full width every medians-only line is named where it ends.
+			for _, b := range pn.Bands {
+				name := b.Label + " " + valueText(fxFNCI, b.Median[len(b.Median)-1])
+				found := false
+				for _, a := range rec.Actions {
+					if fs, ok := a.(*recorder.FillString); ok && fs.String == name {
+						found = true
+					}
+				}
+				if !found {
+					t.Errorf("at full width no end label %q", name)
+				}
+			}
 		}
 		sort.Slice(labs, func(i, j int) bool { return labs[i].y < labs[j].y })
 		for i := 1; i < len(labs); i++ {

@@ -83,7 +83,7 @@ func TestEveryTemplateBuilds(t *testing.T) {
 // wantText are headings each template's pack must show.
 var wantText = map[string][]string{
 	"governing-body":      {"Executive summary", "Position dashboard", "Distributions against the home sector", "Trends since 2020", "Reading these figures"},
-	"country-competition": {"Our standing inside each system", "System medians side by side", "Staff and students from abroad", "Research partners abroad", "Where each system is moving", "Who is compared in each system"},
+	"country-competition": {"The six systems at a glance", "How the systems move", "Medians counted two ways", "Weighted by students", "Staff, students and partners from abroad", "Where we would stand in each system", "Who is compared in each system", "Share that pass", "Who is counted in each."},
 	"client-report":       {"Summary for the rectorate", "Methodology", "Data appendix", "Brightmere Higher Education Advisory"},
 }
 

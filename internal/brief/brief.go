@@ -69,6 +69,10 @@ type Brief struct {
 	SmallGroup *int     `yaml:"small_group"`
 	// Composite, when given, builds a composite score (see composite.go).
 	Composite *CompositeSpec `yaml:"composite"`
+	// SizeWeight names the indicator (an institution's size, such as its
+	// students) by which group medians are also taken weighted, for the
+	// systems table and the systems commentary topic.
+	SizeWeight string `yaml:"size_weight"`
 
 	// Body is the Markdown after the front matter; BodyLine is the line
 	// of the brief on which it starts (1-based).
@@ -403,13 +407,13 @@ var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem"}
 
 // TableKinds are the table kinds.
-var TableKinds = []string{"position", "peers", "groups", "population"}
+var TableKinds = []string{"position", "peers", "groups", "population", "systems"}
 
 // CommentaryStyles are the commentary styles.
 var CommentaryStyles = []string{"summary", "detail", "bullets"}
 
 // CommentaryTopics are the commentary topics.
-var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association"}
+var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association", "systems"}
 
 func oneOf(v string, set []string) bool {
 	for _, s := range set {

@@ -152,6 +152,10 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		probs.Add(err)
 		return nil, probs.Err()
 	}
+	if err := layout.CheckTableSizes(b, m); err != nil {
+		probs.Add(err)
+		return nil, probs.Err()
+	}
 	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS, Sources: rec.Files(), Rebuild: src.Rebuild}, nil
 }
 

@@ -33,6 +33,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 	groups := r.resolveGroups()
 	checkBlocks(d, b, groups, r.emptied, probs)
 	checkComposite(d, b, groups, probs)
+	checkSizeWeight(d, b, probs)
 	if err := probs.Err(); err != nil {
 		return nil, err
 	}
@@ -81,6 +82,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		probs.Add(err)
 		return nil, probs
 	}
+	m.Add(m.systemRows(b)...)
 	return m, nil
 }
 

@@ -102,7 +102,8 @@ func (w *writer) coverageGroup() *figures.Group {
 // packIndicators are the indicators the pack shows: those its charts,
 // tables, commentary, inline figures and nearest-peer groups name. A block
 // that names none stands for the dictionary as its kind reads it (a peers
-// table its first six, a population table none; a commentary block on
+// table its first six, a population table and a systems table without
+// indicators none; a commentary block on
 // caveats alone writes about no indicator's figures).
 func (w *writer) packIndicators() map[string]bool {
 	dict := w.m.Data.Dictionary
@@ -127,6 +128,8 @@ func (w *writer) packIndicators() map[string]bool {
 		case *brief.TableBlock:
 			switch {
 			case v.Type == "population":
+			case v.Type == "systems" && len(v.Indicators) == 0:
+				// Counts of institutions only (systemstable.go).
 			case len(v.Indicators) > 0:
 				add(v.Indicators)
 			case v.Type == "peers":

@@ -28,13 +28,18 @@ func (w *writer) tableBlock(tb *brief.TableBlock) {
 	if year == 0 {
 		year = w.m.Year
 	}
+	if w.tableTooBig(tb, groups, inds) {
+		return
+	}
 	switch tb.Type {
 	case "peers":
-		w.peersTable(tb, groups[0], inds, year)
+		w.peersTableParts(tb, groups[0], inds, year)
 	case "groups":
-		w.groupsTable(tb, groups, inds, year)
+		w.groupsTableParts(tb, groups, inds, year)
 	case "population":
 		w.populationTable(tb)
+	case "systems":
+		w.systemsTable(tb, groups, inds, year)
 	default:
 		w.positionTable(tb, groups, inds, year)
 	}

@@ -139,6 +139,9 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	if r.Section == figures.SectionPeers {
 		return append(out, peersRenderings(m, r)...)
 	}
+	if r.Section == figures.SectionSystem {
+		return append(out, systemRenderings(m, r)...)
+	}
 	v := r.Value
 	ind, hasInd := m.Indicator(r.Indicator)
 	whole := int(math.Round(v))

@@ -27,6 +27,8 @@ type Wording interface {
 	// (figures.Group.Phrase) when it has one, else a default made from
 	// the group's name ("the Kestrian sector", "Aldmere").
 	GroupPhrase(g *figures.Group) string
+	// SystemsWording words the systems topic (wording_en_systems.go).
+	SystemsWording
 
 	Position(f PositionFact) string
 	Distance(f PositionFact) string

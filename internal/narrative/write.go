@@ -47,6 +47,9 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 		// No run-in heading: the section it opens already names it.
 		out = append(out, Paragraph{Sentences: main})
 	}
+	if sc.has("systems") {
+		out = append(out, c.systemsParagraphs(sc)...)
+	}
 	if sc.has("competition") {
 		comp, sh := c.sharedLeads(sc)
 		for _, g := range sc.systems {
@@ -99,6 +102,9 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 		if s := c.association(sc); len(s) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("association"), Sentences: s})
 		}
+	}
+	if sc.has("systems") {
+		out = append(out, c.systemsParagraphs(sc)...)
 	}
 	if sc.has("competition") && len(sc.systems) > 0 {
 		comp, sh := c.sharedLeads(sc)

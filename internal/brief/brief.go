@@ -351,7 +351,9 @@ type CommentaryBlock struct {
 	Indicators []string `yaml:"indicators"`
 	Groups     []string `yaml:"groups"`
 	// Topics restricts what is written: position, change, strengths,
-	// competition, gaps, caveats. Empty means all that apply to the style.
+	// competition, gaps, caveats, association, and (never by default)
+	// standouts, moves, questions, peerchoice. Empty means all that apply
+	// to the style.
 	Topics []string `yaml:"topics"`
 	Years  *Span    `yaml:"years"`
 }
@@ -403,13 +405,13 @@ var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem"}
 
 // TableKinds are the table kinds.
-var TableKinds = []string{"position", "peers", "groups", "population"}
+var TableKinds = []string{"position", "peers", "groups", "population", "standing", "scale", "definitions"}
 
 // CommentaryStyles are the commentary styles.
 var CommentaryStyles = []string{"summary", "detail", "bullets"}
 
 // CommentaryTopics are the commentary topics.
-var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association"}
+var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association", "standouts", "moves", "questions", "peerchoice"}
 
 func oneOf(v string, set []string) bool {
 	for _, s := range set {

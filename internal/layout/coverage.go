@@ -126,7 +126,7 @@ func (w *writer) packIndicators() map[string]bool {
 			add(v.Indicators)
 		case *brief.TableBlock:
 			switch {
-			case v.Type == "population":
+			case v.Type == "population", v.Type == "definitions":
 			case len(v.Indicators) > 0:
 				add(v.Indicators)
 			case v.Type == "peers":

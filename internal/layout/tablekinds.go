@@ -35,6 +35,12 @@ func (w *writer) tableBlock(tb *brief.TableBlock) {
 		w.groupsTable(tb, groups, inds, year)
 	case "population":
 		w.populationTable(tb)
+	case "standing":
+		w.standingTable(tb, groups, inds, year)
+	case "scale":
+		w.scaleTable(tb, groups[0], inds, year)
+	case "definitions":
+		w.definitionsTable(tb, groups)
 	default:
 		w.positionTable(tb, groups, inds, year)
 	}

@@ -3,6 +3,7 @@ package templates
 import (
 	"bytes"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
@@ -103,15 +104,56 @@ func TestTemplateShapes(t *testing.T) {
 		}
 		return n
 	}
-	// governing-body: 6-10 pages, so 5-9 page breaks; the composite
-	// section waits in a comment and must not be read as a block.
+	// governing-body: the answer first (a summary leading with the
+	// chosen peers and a standing table), the composite with its
+	// interval, strengths and risks with evidence, movements beyond
+	// noise, questions, the scale table, and a definitions table naming
+	// every group any block of the pack names.
 	gb := parse("governing-body")
-	if n := count(gb, "pagebreak"); n < 5 || n > 9 {
-		t.Errorf("governing-body has %d page breaks; want a 6-10 page pack", n)
+	topics := map[string]bool{}
+	named := map[string]bool{}
+	defined := map[string]bool{}
+	var kinds []string
+	for _, blk := range gb.Blocks {
+		switch v := blk.(type) {
+		case *brief.CommentaryBlock:
+			for _, tp := range v.Topics {
+				topics[tp] = true
+			}
+			for _, g := range v.Groups {
+				named[g] = true
+			}
+		case *brief.TableBlock:
+			kinds = append(kinds, v.Type)
+			for _, g := range v.Groups {
+				named[g] = true
+				if v.Type == "definitions" {
+					defined[g] = true
+				}
+			}
+		case *brief.ChartBlock:
+			for _, g := range v.Groups {
+				named[g] = true
+			}
+		}
 	}
-	src, _ := Brief("governing-body")
-	if !bytes.Contains(src, []byte("# Composite position")) {
-		t.Error("governing-body lacks the commented composite placeholder")
+	for _, tp := range []string{"standouts", "moves", "questions"} {
+		if !topics[tp] {
+			t.Errorf("governing-body has no commentary with topic %s", tp)
+		}
+	}
+	for _, k := range []string{"standing", "scale", "definitions"} {
+		if !slices.Contains(kinds, k) {
+			t.Errorf("governing-body has no %s table (tables: %v)", k, kinds)
+		}
+	}
+	for g := range named {
+		if !defined[g] {
+			t.Errorf("governing-body names the group %q but its definitions table does not define it", g)
+		}
+	}
+	if count(gb, "composite") == 0 {
+		t.Error("governing-body has no composite block (the overall position with its interval)")
 	}
 	// It is the demo brief's shape: same focus, years, data and population.
 	db, err := brief.Parse(demo.BriefName, demo.Files()[demo.BriefName])

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 
 	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
@@ -182,7 +183,7 @@ func (w *writer) definitionsTable(tb *brief.TableBlock, groups []*figures.Group)
 			}
 		}
 	}
-	g := grid{head: []string{"Group", "Who is in it", "Members", "Includes " + focusName(w.m)}, align: []byte{'L', 'L', 'R', 'L'}, caption: tb.Caption, maxLines: 6}
+	g := grid{head: []string{"Group", "Who is in it", "Members", "Includes " + focusShortName(w.m)}, align: []byte{'L', 'L', 'R', 'L'}, caption: tb.Caption, maxLines: 6}
 	if g.caption == "" {
 		g.caption = "The groups this pack compares with"
 	}
@@ -211,4 +212,17 @@ func (w *writer) definitionsTable(tb *brief.TableBlock, groups []*figures.Group)
 		}
 	}
 	w.setTable(g)
+}
+
+// focusShortName is the register's short_name of the focus when it has
+// one, else its name, for a column header.
+func focusShortName(m *figures.Model) string {
+	name := focusName(m)
+	if name == "" {
+		return name
+	}
+	if s, ok := m.Data.Register.Institutions[m.Focus].Attr("short_name"); ok && strings.TrimSpace(s) != "" {
+		return strings.TrimSpace(s)
+	}
+	return name
 }

@@ -183,7 +183,7 @@ func (w *writer) definitionsTable(tb *brief.TableBlock, groups []*figures.Group)
 			}
 		}
 	}
-	g := grid{head: []string{"Group", "Who is in it", "Members", "Includes " + focusShortName(w.m)}, align: []byte{'L', 'L', 'R', 'L'}, caption: tb.Caption, maxLines: 6}
+	g := grid{head: []string{"Group", "Who is in it", "Members", "Includes " + focusShortName(w.m)}, align: []byte{'L', 'L', 'R', 'L'}, caption: tb.Caption, maxLines: 9}
 	if g.caption == "" {
 		g.caption = "The groups this pack compares with"
 	}

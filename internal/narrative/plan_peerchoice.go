@@ -101,6 +101,10 @@ func (c *composer) peerChoice(sc *scope) []Paragraph {
 				case Below:
 					f.Below = append(f.Below, pl)
 					claims = append(claims, Claimed(Fig(pk(x)), OpLess, Num(50)))
+				default:
+					// At the middle: the percentile prints as 50.
+					f.Level = append(f.Level, pl)
+					claims = append(claims, Claimed(Fig(pk(x)), OpGreaterEq, Num(49.5)), Claimed(Fig(pk(x)), OpLess, Num(50.5)))
 				}
 			}
 			mixed = append(mixed, c.say(ind.Key, c.council().PeerDepends(f), cites...).claim(claims...))
@@ -115,7 +119,7 @@ func (c *composer) peerChoice(sc *scope) []Paragraph {
 		same = append(same, c.say("", c.council().PeerSame(f), upCites...).claim(upClaims...))
 	}
 	if len(allDown) > 0 {
-		f := PeerChoiceFact{Seed: "down", Focus: c.focus, Groups: groupNames, Indicators: c.indicatorNames(allDown)}
+		f := PeerChoiceFact{Seed: "down", Focus: c.focus, Groups: groupNames, Indicators: c.indicatorNames(allDown), After: len(same) > 0}
 		same = append(same, c.say("", c.council().PeerSame(f), downCites...).claim(downClaims...))
 	}
 	if len(same) > 0 {

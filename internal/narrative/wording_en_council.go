@@ -104,10 +104,12 @@ type PeerChoiceFact struct {
 	Indicator  string
 	Above      []PeerPlace
 	Below      []PeerPlace
+	Level      []PeerPlace
 	Indicators []string
 	Groups     []string
-	// Up: PeerSame's indicators are above the middle of every set.
-	Up bool
+	// Up: PeerSame's indicators are above the middle of every set;
+	// After: a PeerSame sentence has just named the sets.
+	Up, After bool
 }
 
 var councilHeadings = map[string]string{
@@ -193,14 +195,22 @@ func (e english) peerPlaces(ps []PeerPlace) string {
 }
 
 func (e english) PeerDepends(f PeerChoiceFact) string {
-	return e.fill("The reading depends on the peers chosen: {focus} is above the middle of {above} but below the middle of {below}.",
-		"focus", f.Focus, "above", e.peerPlaces(f.Above), "below", e.peerPlaces(f.Below))
+	level := ""
+	if len(f.Level) > 0 {
+		level = ", and at the middle of {level}"
+	}
+	return e.fill("The reading depends on the peers chosen: {focus} is above the middle of {above} but below the middle of {below}"+level+".",
+		"focus", f.Focus, "above", e.peerPlaces(f.Above), "below", e.peerPlaces(f.Below), "level", e.peerPlaces(f.Level))
 }
 
 func (e english) PeerSame(f PeerChoiceFact) string {
 	side := "below"
 	if f.Up {
 		side = "above"
+	}
+	if f.After {
+		// The sets were named by the sentence before.
+		return e.fill("Against every one of them it stands "+side+" the middle on {list}.", "list", e.List(f.Indicators))
 	}
 	return e.fill("Whichever of {groups} is taken, {focus} stands "+side+" the middle on {list}.",
 		"groups", e.List(f.Groups), "focus", f.Focus, "list", e.List(f.Indicators))

@@ -93,7 +93,14 @@ func (c *composer) moves(sc *scope) []Paragraph {
 	}
 	var rest []Sentence
 	if len(steady) > 0 {
-		f := SteadyFact{Seed: g.Name + "/steady", Focus: c.focus, Group: c.phrase(g), Noise: printCount(int(c.noise()))}
+		f := SteadyFact{Seed: g.Name + "/steady", Focus: c.focus, Group: c.phrase(g)}
+		// The rule is printed when it is a whole number of points (a
+		// threshold reads as format.Number(n, 0)); otherwise the sentence
+		// names the rule without its figure.
+		whole := c.noise() == math.Trunc(c.noise())
+		if whole {
+			f.Noise = printCount(int(c.noise()))
+		}
 		var claims []Claim
 		var cites []figures.Key
 		for _, ind := range steady {
@@ -103,7 +110,9 @@ func (c *composer) moves(sc *scope) []Paragraph {
 			claims = append(claims, Claimed(Fig(k), OpLess, Num(c.noise())))
 		}
 		s := c.say("", c.council().Steady(f), cites...).claim(claims...)
-		s.Thresholds = []float64{c.noise()}
+		if whole {
+			s.Thresholds = []float64{c.noise()}
+		}
 		rest = append(rest, s)
 	}
 	for i, list := range [][]dataset.Indicator{unread, small} {

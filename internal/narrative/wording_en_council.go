@@ -142,6 +142,10 @@ func (e english) StandoutLead(f RankedFact, strong bool) string {
 }
 
 func (e english) Steady(f SteadyFact) string {
+	if f.Noise == "" {
+		return e.fill("On {list}, {focus}'s percentile {in} moved by less than the noise rule over the span, within the year-to-year noise of the data.",
+			"list", e.List(f.Indicators), "focus", f.Focus, "in", e.in(f.Group))
+	}
 	return e.fill("On {list}, {focus}'s percentile {in} moved by less than {noise} points over the span, within the year-to-year noise of the data.",
 		"list", e.List(f.Indicators), "focus", f.Focus, "in", e.in(f.Group), "noise", f.Noise)
 }

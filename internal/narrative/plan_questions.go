@@ -1,6 +1,7 @@
 package narrative
 
 import (
+	"fmt"
 	"sort"
 
 	"peerpack/internal/dataset"
@@ -34,7 +35,7 @@ type question struct {
 	kind   int
 	order  int // indicator's place in the block, for a stable order
 	ind    dataset.Indicator
-	text   string
+	fact   QuestionFact
 	cites  []figures.Key
 	claims []Claim
 }
@@ -63,7 +64,11 @@ func (c *composer) questions(sc *scope) []Paragraph {
 	}
 	var out []Paragraph
 	for _, q := range qs {
-		s := c.say(q.ind.Key, q.text, q.cites...).claim(q.claims...)
+		// Phrasings of a kind rotate through the block (the text was
+		// written with turn 0 while the indicators were weighed).
+		f := q.fact
+		f.Seed, f.Turn = c.next(fmt.Sprintf("question-%d", q.kind))
+		s := c.say(q.ind.Key, c.council().Question(f), q.cites...).claim(q.claims...)
 		out = append(out, Paragraph{Bullet: true, Heading: headingOf(q.ind), Sentences: []Sentence{s}})
 	}
 	if len(out) == 0 {
@@ -92,7 +97,7 @@ func (c *composer) questionOn(sc *scope, g *figures.Group, ind dataset.Indicator
 			return question{}, false
 		}
 		f.Kind, f.Of = QuestionLast, printCount(p.Of)
-		return question{kind: QuestionLast, ind: ind, text: c.council().Question(f),
+		return question{kind: QuestionLast, ind: ind, fact: f,
 			cites:  []figures.Key{pk(y, mRank), pk(y, mOf)},
 			claims: []Claim{Claimed(Fig(pk(y, mRank)), OpEqual, Fig(pk(y, mOf)))}}, true
 	}
@@ -112,23 +117,23 @@ func (c *composer) questionOn(sc *scope, g *figures.Group, ind dataset.Indicator
 		f.Kind, f.PctFrom, f.FromYear = QuestionFalling, printOrdinalPct(cd.p0.Percentile), printYear(cd.p0.Year)
 		cl := append(quarterClaims(ind, value, g.Name, ind.Key, y, 4), c.percentileChangeClaims(g, ind, cd)...)
 		cl = append(cl, c.notEdgeClaims(pk(y, mPercentile), 4)...)
-		return question{kind: QuestionFalling, ind: ind, text: c.council().Question(f),
+		return question{kind: QuestionFalling, ind: ind, fact: f,
 			cites:  append(cites, pk(cd.p0.Year, mPercentile), trendKey(g.Name, ind.Key, id, mPercentileChange)),
 			claims: cl}, true
 	case fell && p.Quartile == 1 && edge != 1:
 		f.Kind, f.PctFrom, f.FromYear = QuestionSlipping, printOrdinalPct(cd.p0.Percentile), printYear(cd.p0.Year)
 		cl := append(quarterClaims(ind, value, g.Name, ind.Key, y, 1), c.percentileChangeClaims(g, ind, cd)...)
 		cl = append(cl, c.notEdgeClaims(pk(y, mPercentile), 1)...)
-		return question{kind: QuestionSlipping, ind: ind, text: c.council().Question(f),
+		return question{kind: QuestionSlipping, ind: ind, fact: f,
 			cites:  append(cites, pk(cd.p0.Year, mPercentile), trendKey(g.Name, ind.Key, id, mPercentileChange)),
 			claims: cl}, true
 	case edge == 4:
 		f.Kind, f.Edge = QuestionBottom, true
-		return question{kind: QuestionBottom, ind: ind, text: c.council().Question(f), cites: cites,
+		return question{kind: QuestionBottom, ind: ind, fact: f, cites: cites,
 			claims: c.edgeClaims(pk(y, mPercentile), 4)}, true
 	case p.Quartile == 4:
 		f.Kind = QuestionBottom
-		return question{kind: QuestionBottom, ind: ind, text: c.council().Question(f), cites: cites,
+		return question{kind: QuestionBottom, ind: ind, fact: f, cites: cites,
 			claims: quarterClaims(ind, value, g.Name, ind.Key, y, 4)}, true
 	}
 	return question{}, false

@@ -71,7 +71,10 @@ const (
 
 // QuestionFact is one question, with the figures it rests on printed.
 type QuestionFact struct {
+	// Seed and Turn pick the phrasing: questions of one kind in a block
+	// rotate through theirs (vary.go).
 	Seed      string
+	Turn      int
 	Kind      int
 	Focus     string
 	Indicator string
@@ -166,17 +169,23 @@ func (e english) Question(f QuestionFact) string {
 	case QuestionFalling:
 		return e.fill("In the bottom quarter of {group} ({pct} percentile in {year}) and down from the {pf} percentile in {from}: what is being done to reverse the fall, and when should the council expect to see it move?", kv...)
 	case QuestionLast:
-		if f.Better == dataset.Neutral {
-			return ""
+		tmpl := [...]string{
+			"Last of {of} {in}: is this the gap to close first, or do these peers differ from {focus} in a way that explains it?",
+			"Last of {of} {in}: what would it take to reach the next place, and is that the right ambition?",
+			"Last of {of} {in}: does the executive see this as a weakness to address or as a consequence of {focus}'s mission?",
 		}
-		return e.fill("Last of {of} {in}: is this the gap to close first, or do these peers differ from {focus} in a way that explains it?", kv...)
+		return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 	case QuestionSlipping:
 		return e.fill("Still in the top quarter of {group} ({pct} percentile in {year}) but down from the {pf} percentile in {from}: is the lead at risk, and what sustains it?", kv...)
 	case QuestionBottom:
 		if f.Edge {
 			return e.fill("At the edge of the bottom quarter of {group} ({pct} percentile in {year}): is this a position {focus} accepts by choice, or one it plans to change?", kv...)
 		}
-		return e.fill("In the bottom quarter of {group} ({pct} percentile in {year}): is this a position {focus} accepts by choice, or one it plans to change?", kv...)
+		tmpl := [...]string{
+			"In the bottom quarter of {group} ({pct} percentile in {year}): is this a position {focus} accepts by choice, or one it plans to change?",
+			"In the bottom quarter of {group} ({pct} percentile in {year}): which plan addresses it, and what would count as progress?",
+		}
+		return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 	}
 	return ""
 }

@@ -39,6 +39,7 @@ func (c *composer) peerChoice(sc *scope) []Paragraph {
 		groupNames = append(groupNames, c.phrase(g))
 	}
 	var mixed []Sentence
+	var unread []dataset.Indicator
 	for _, ind := range sc.inds {
 		if !judged(ind) {
 			continue
@@ -60,8 +61,9 @@ func (c *composer) peerChoice(sc *scope) []Paragraph {
 			sides = append(sides, peerSide{g, s, p, d})
 		}
 		if len(sides) < len(sc.groups) {
-			// A set without a place for the focus: nothing is said of the
-			// indicator here (the position tables show the dash).
+			// A set without a place for the focus: the indicator is named
+			// among those not read across the sets.
+			unread = append(unread, ind)
 			continue
 		}
 		pk := func(x peerSide) figures.Key { return posKey(x.g.Name, ind.Key, c.m.FocusID, sc.year, mPercentile) }
@@ -87,7 +89,7 @@ func (c *composer) peerChoice(sc *scope) []Paragraph {
 				downClaims = append(downClaims, Claimed(Fig(pk(x)), OpLess, Num(50)))
 				downCites = append(downCites, pk(x))
 			}
-		case nUp > 0 && nDown > 0:
+		default:
 			f := PeerChoiceFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind)}
 			var cites []figures.Key
 			var claims []Claim
@@ -124,6 +126,15 @@ func (c *composer) peerChoice(sc *scope) []Paragraph {
 	}
 	if len(same) > 0 {
 		out = append(out, Paragraph{Heading: c.council().TopicHeading("peerchoice"), Sentences: same})
+	}
+	if len(unread) > 0 {
+		f := PeerChoiceFact{Seed: "unread", Focus: c.focus, Indicators: c.indicatorNames(unread)}
+		s := c.say("", c.council().PeerUnread(f))
+		if len(out) > 0 {
+			out[0].Sentences = append(out[0].Sentences, s)
+		} else {
+			out = append(out, Paragraph{Heading: c.council().TopicHeading("peerchoice"), Sentences: []Sentence{s}})
+		}
 	}
 	for _, s := range mixed {
 		ind, _ := c.m.Indicator(s.About)

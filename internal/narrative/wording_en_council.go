@@ -31,6 +31,9 @@ type councilWording interface {
 	PeerSame(f PeerChoiceFact) string
 	// PeerDepends: on this indicator the reading depends on the peers.
 	PeerDepends(f PeerChoiceFact) string
+	// PeerUnread: the indicators on which the focus has no place in
+	// every set, so no reading across them is given.
+	PeerUnread(f PeerChoiceFact) string
 }
 
 // council returns the composer's wording of these topics.
@@ -208,12 +211,31 @@ func (e english) peerPlaces(ps []PeerPlace) string {
 }
 
 func (e english) PeerDepends(f PeerChoiceFact) string {
-	level := ""
-	if len(f.Level) > 0 {
-		level = ", and at the middle of {level}"
+	var parts []string
+	if len(f.Above) > 0 {
+		parts = append(parts, "above the middle of "+e.peerPlaces(f.Above))
 	}
-	return e.fill("The reading depends on the peers chosen: {focus} is above the middle of {above} but below the middle of {below}"+level+".",
-		"focus", f.Focus, "above", e.peerPlaces(f.Above), "below", e.peerPlaces(f.Below), "level", e.peerPlaces(f.Level))
+	if len(f.Below) > 0 {
+		w := "below the middle of "
+		if len(parts) > 0 {
+			w = "but " + w
+		}
+		parts = append(parts, w+e.peerPlaces(f.Below))
+	}
+	if len(f.Level) > 0 {
+		parts = append(parts, "at the middle of "+e.peerPlaces(f.Level))
+	}
+	joined := parts[0]
+	switch len(parts) {
+	case 2:
+		joined = parts[0] + " " + parts[1]
+		if len(f.Below) == 0 {
+			joined = parts[0] + " and " + parts[1]
+		}
+	case 3:
+		joined = parts[0] + " " + parts[1] + ", and " + parts[2]
+	}
+	return e.fill("The reading depends on the peers chosen: {focus} is {parts}.", "focus", f.Focus, "parts", joined)
 }
 
 func (e english) PeerSame(f PeerChoiceFact) string {
@@ -227,4 +249,9 @@ func (e english) PeerSame(f PeerChoiceFact) string {
 	}
 	return e.fill("Whichever of {groups} is taken, {focus} stands "+side+" the middle on {list}.",
 		"groups", e.List(f.Groups), "focus", f.Focus, "list", e.List(f.Indicators))
+}
+
+func (e english) PeerUnread(f PeerChoiceFact) string {
+	return e.fill("No reading across the sets is given for {list}: {focus} has no place in every one of them (no value, or too few members reporting).",
+		"list", e.List(f.Indicators), "focus", f.Focus)
 }

@@ -112,15 +112,20 @@ func (c *composer) questionOn(sc *scope, g *figures.Group, ind dataset.Indicator
 		fell, cd = true, x
 	}
 	edge := c.edge(p.Percentile)
+	// Beyond the noise rule of the quarter's boundary, on its side: what
+	// notEdgeClaims records (the quarter by value and the percentile can
+	// disagree where values tie).
+	n := c.noise()
+	farBottom, farTop := p.Percentile < 25-n, p.Percentile > 75+n
 	switch {
-	case fell && p.Quartile == 4 && edge != 4:
+	case fell && p.Quartile == 4 && farBottom:
 		f.Kind, f.PctFrom, f.FromYear = QuestionFalling, printOrdinalPct(cd.p0.Percentile), printYear(cd.p0.Year)
 		cl := append(quarterClaims(ind, value, g.Name, ind.Key, y, 4), c.percentileChangeClaims(g, ind, cd)...)
 		cl = append(cl, c.notEdgeClaims(pk(y, mPercentile), 4)...)
 		return question{kind: QuestionFalling, ind: ind, fact: f,
 			cites:  append(cites, pk(cd.p0.Year, mPercentile), trendKey(g.Name, ind.Key, id, mPercentileChange)),
 			claims: cl}, true
-	case fell && p.Quartile == 1 && edge != 1:
+	case fell && p.Quartile == 1 && farTop:
 		f.Kind, f.PctFrom, f.FromYear = QuestionSlipping, printOrdinalPct(cd.p0.Percentile), printYear(cd.p0.Year)
 		cl := append(quarterClaims(ind, value, g.Name, ind.Key, y, 1), c.percentileChangeClaims(g, ind, cd)...)
 		cl = append(cl, c.notEdgeClaims(pk(y, mPercentile), 1)...)
@@ -144,9 +149,6 @@ func (c *composer) questionOn(sc *scope, g *figures.Group, ind dataset.Indicator
 // without "at the edge".
 func (c *composer) notEdgeClaims(pct figures.Key, edge int) []Claim {
 	n := c.noise()
-	if n <= 0 {
-		return nil
-	}
 	if edge == 4 {
 		return []Claim{Claimed(Fig(pct), OpLess, Num(25-n))}
 	}

@@ -404,6 +404,10 @@ var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak
 // ChartKinds are the chart kinds.
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem"}
 
+// MaxScaleIndicators is the most size measures a scale table shows, so its
+// rows of institutions stay readable on a portrait page.
+const MaxScaleIndicators = 6
+
 // TableKinds are the table kinds.
 var TableKinds = []string{"position", "peers", "groups", "population", "standing", "scale", "definitions"}
 

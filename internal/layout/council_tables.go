@@ -112,14 +112,18 @@ func (w *writer) scaleTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 		}
 		return va > vb
 	})
+	all := len(rows)
+	cut := ""
 	if len(rows) > limit {
 		kept := rows[:limit]
 		focusKept := false
 		for _, i := range kept {
 			focusKept = focusKept || i == w.m.Focus
 		}
+		cut = fmt.Sprintf("Showing the %d largest of the %d institutions on %s", limit, all, indicatorLabel(inds[0], false))
 		if !focusKept {
 			kept = append(append([]int(nil), rows[:limit-1]...), w.m.Focus)
+			cut = fmt.Sprintf("Showing the %d largest of the %d institutions on %s, and %s", limit-1, all, indicatorLabel(inds[0], false), focusName(w.m))
 		}
 		rows = kept
 	}
@@ -162,8 +166,8 @@ func (w *writer) scaleTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 		note += "; " + focusName(w.m) + " is not a member and is not counted in it"
 	}
 	g.notes = append(g.notes, note+".")
-	if len(gr.Members) > len(rows) {
-		g.notes = append(g.notes, fmt.Sprintf("Showing %d of the group's %d members, the largest on %s.", len(rows), len(gr.Members), indicatorLabel(inds[0], false)))
+	if cut != "" {
+		g.notes = append(g.notes, cut+"; the median is over all the group's members.")
 	}
 	w.setTable(g)
 }

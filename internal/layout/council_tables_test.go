@@ -132,3 +132,48 @@ func TestGoverningBodyTablesAgainstPandas(t *testing.T) {
 	}
 	check("median", "median", fields)
 }
+
+// TestScaleTableKeepsTheFocus: a scale table over a large group shows
+// the largest members up to its limit and always the focus, and says so.
+func TestScaleTableKeepsTheFocus(t *testing.T) {
+	if testing.Short() {
+		t.Skip("lays out the governing-body pack")
+	}
+	files, err := templates.Files("governing-body")
+	if err != nil {
+		t.Fatal(err)
+	}
+	src := string(files["brief.md"])
+	old := "kind: scale\ngroups: [Chosen peers]\n"
+	if !strings.Contains(src, old) {
+		t.Fatal("the template's scale block has changed; update this test")
+	}
+	files["brief.md"] = []byte(strings.Replace(src, old, "kind: scale\ngroups: [Kestrian sector]\nlimit: 5\n", 1))
+	out, m := scenarioPack(t, files)
+	text := runTool(t, out, "pdftotext", "-layout")
+	at := strings.Index(text, "Size of the university and its chosen peers")
+	if at < 0 {
+		t.Fatal("no scale table")
+	}
+	table := text[at:]
+	table = table[:strings.Index(table, "Median of Kestrian sector")]
+	rows := 0
+	reg := m.Data.Register
+	focusRow := false
+	for _, in := range reg.Institutions {
+		if in.Country != "Kestria" {
+			continue
+		}
+		if _, ok := layoutLine(table, in.Name); ok {
+			rows++
+			focusRow = focusRow || in.ID == "KE007"
+		}
+	}
+	if rows != 5 || !focusRow {
+		t.Errorf("%d rows (focus among them: %v), want 5 with the focus", rows, focusRow)
+	}
+	note := strings.Join(strings.Fields(text[at:]), " ")
+	if !strings.Contains(note, "Showing the 4 largest of the 121 institutions on Academic staff (full-time equivalent), and University of Wendholm") {
+		t.Errorf("no note on the rows left out:\n%s", note[:min(len(note), 2000)])
+	}
+}

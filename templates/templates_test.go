@@ -185,10 +185,60 @@ func TestTemplateShapes(t *testing.T) {
 		t.Errorf("client-report should set logo, accent, font and paper; got %+v", cr.Theme)
 	}
 	csrc, _ := Brief("client-report")
-	for _, h := range []string{"# Methodology", "# Data appendix"} {
+	for _, h := range []string{"# Methodology", "# Data appendix", "# Recommendations"} {
 		if !bytes.Contains(csrc, []byte(h)) {
 			t.Errorf("client-report lacks %q", h)
 		}
+	}
+	// The peer choice reads the agreed list against both sets the data
+	// propose, in a table and in sentences; the recommendations are
+	// written around inline figures; the evidence appendix is on.
+	kindOf := map[string]string{}
+	for _, g := range cr.Groups {
+		switch {
+		case len(g.Members) > 0:
+			kindOf[g.Name] = "members"
+		case g.Nearest != nil:
+			kindOf[g.Name] = "nearest"
+		case g.Cluster != nil:
+			kindOf[g.Name] = "cluster"
+		}
+	}
+	covers := func(groups []string) bool {
+		seen := map[string]bool{}
+		for _, g := range groups {
+			seen[kindOf[g]] = true
+		}
+		return seen["members"] && seen["nearest"] && seen["cluster"]
+	}
+	var choiceTable, choiceText bool
+	for _, blk := range cr.Blocks {
+		switch v := blk.(type) {
+		case *brief.TableBlock:
+			choiceTable = choiceTable || (v.Type == "standing" && covers(v.Groups))
+		case *brief.CommentaryBlock:
+			choiceText = choiceText || (slices.Contains(v.Topics, "peerchoice") && covers(v.Groups))
+		}
+	}
+	if !choiceTable || !choiceText {
+		t.Errorf("client-report needs a standing table (%v) and peerchoice commentary (%v) over agreed, nearest and cluster peers", choiceTable, choiceText)
+	}
+	ps, err := brief.Placeholders(cr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	recLine := bytes.Count(csrc[:bytes.Index(csrc, []byte("# Recommendations"))], []byte("\n")) + 1
+	inRec := 0
+	for _, p := range ps {
+		if p.Pos.Line > recLine {
+			inRec++
+		}
+	}
+	if inRec < 6 {
+		t.Errorf("client-report's recommendations hold %d inline figures; they are written around the figures", inRec)
+	}
+	if !cr.Sources {
+		t.Error("client-report should print the evidence behind every sentence (sources: true)")
 	}
 }
 

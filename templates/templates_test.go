@@ -3,6 +3,7 @@ package templates
 import (
 	"bytes"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
@@ -103,15 +104,56 @@ func TestTemplateShapes(t *testing.T) {
 		}
 		return n
 	}
-	// governing-body: 6-10 pages, so 5-9 page breaks; the composite
-	// section waits in a comment and must not be read as a block.
+	// governing-body: the answer first (a summary leading with the
+	// chosen peers and a standing table), the composite with its
+	// interval, strengths and risks with evidence, movements beyond
+	// noise, questions, the scale table, and a definitions table naming
+	// every group any block of the pack names.
 	gb := parse("governing-body")
-	if n := count(gb, "pagebreak"); n < 5 || n > 9 {
-		t.Errorf("governing-body has %d page breaks; want a 6-10 page pack", n)
+	topics := map[string]bool{}
+	named := map[string]bool{}
+	defined := map[string]bool{}
+	var kinds []string
+	for _, blk := range gb.Blocks {
+		switch v := blk.(type) {
+		case *brief.CommentaryBlock:
+			for _, tp := range v.Topics {
+				topics[tp] = true
+			}
+			for _, g := range v.Groups {
+				named[g] = true
+			}
+		case *brief.TableBlock:
+			kinds = append(kinds, v.Type)
+			for _, g := range v.Groups {
+				named[g] = true
+				if v.Type == "definitions" {
+					defined[g] = true
+				}
+			}
+		case *brief.ChartBlock:
+			for _, g := range v.Groups {
+				named[g] = true
+			}
+		}
 	}
-	src, _ := Brief("governing-body")
-	if !bytes.Contains(src, []byte("# Composite position")) {
-		t.Error("governing-body lacks the commented composite placeholder")
+	for _, tp := range []string{"standouts", "moves", "questions"} {
+		if !topics[tp] {
+			t.Errorf("governing-body has no commentary with topic %s", tp)
+		}
+	}
+	for _, k := range []string{"standing", "scale", "definitions"} {
+		if !slices.Contains(kinds, k) {
+			t.Errorf("governing-body has no %s table (tables: %v)", k, kinds)
+		}
+	}
+	for g := range named {
+		if !defined[g] {
+			t.Errorf("governing-body names the group %q but its definitions table does not define it", g)
+		}
+	}
+	if count(gb, "composite") == 0 {
+		t.Error("governing-body has no composite block (the overall position with its interval)")
 	}
 	// It is the demo brief's shape: same focus, years, data and population.
 	db, err := brief.Parse(demo.BriefName, demo.Files()[demo.BriefName])
@@ -143,10 +185,60 @@ func TestTemplateShapes(t *testing.T) {
 		t.Errorf("client-report should set logo, accent, font and paper; got %+v", cr.Theme)
 	}
 	csrc, _ := Brief("client-report")
-	for _, h := range []string{"# Methodology", "# Data appendix"} {
+	for _, h := range []string{"# Methodology", "# Data appendix", "# Recommendations"} {
 		if !bytes.Contains(csrc, []byte(h)) {
 			t.Errorf("client-report lacks %q", h)
 		}
+	}
+	// The peer choice reads the agreed list against both sets the data
+	// propose, in a table and in sentences; the recommendations are
+	// written around inline figures; the evidence appendix is on.
+	kindOf := map[string]string{}
+	for _, g := range cr.Groups {
+		switch {
+		case len(g.Members) > 0:
+			kindOf[g.Name] = "members"
+		case g.Nearest != nil:
+			kindOf[g.Name] = "nearest"
+		case g.Cluster != nil:
+			kindOf[g.Name] = "cluster"
+		}
+	}
+	covers := func(groups []string) bool {
+		seen := map[string]bool{}
+		for _, g := range groups {
+			seen[kindOf[g]] = true
+		}
+		return seen["members"] && seen["nearest"] && seen["cluster"]
+	}
+	var choiceTable, choiceText bool
+	for _, blk := range cr.Blocks {
+		switch v := blk.(type) {
+		case *brief.TableBlock:
+			choiceTable = choiceTable || (v.Type == "standing" && covers(v.Groups))
+		case *brief.CommentaryBlock:
+			choiceText = choiceText || (slices.Contains(v.Topics, "peerchoice") && covers(v.Groups))
+		}
+	}
+	if !choiceTable || !choiceText {
+		t.Errorf("client-report needs a standing table (%v) and peerchoice commentary (%v) over agreed, nearest and cluster peers", choiceTable, choiceText)
+	}
+	ps, err := brief.Placeholders(cr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	recLine := bytes.Count(csrc[:bytes.Index(csrc, []byte("# Recommendations"))], []byte("\n")) + 1
+	inRec := 0
+	for _, p := range ps {
+		if p.Pos.Line > recLine {
+			inRec++
+		}
+	}
+	if inRec < 6 {
+		t.Errorf("client-report's recommendations hold %d inline figures; they are written around the figures", inRec)
+	}
+	if !cr.Sources {
+		t.Error("client-report should print the evidence behind every sentence (sources: true)")
 	}
 }
 

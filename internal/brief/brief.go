@@ -355,7 +355,9 @@ type CommentaryBlock struct {
 	Indicators []string `yaml:"indicators"`
 	Groups     []string `yaml:"groups"`
 	// Topics restricts what is written: position, change, strengths,
-	// competition, gaps, caveats. Empty means all that apply to the style.
+	// competition, gaps, caveats, association, and (never by default)
+	// standouts, moves, questions, peerchoice. Empty means all that apply
+	// to the style.
 	Topics []string `yaml:"topics"`
 	Years  *Span    `yaml:"years"`
 }
@@ -406,14 +408,18 @@ var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak
 // ChartKinds are the chart kinds.
 var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem"}
 
+// MaxScaleIndicators is the most size measures a scale table shows, so its
+// rows of institutions stay readable on a portrait page.
+const MaxScaleIndicators = 6
+
 // TableKinds are the table kinds.
-var TableKinds = []string{"position", "peers", "groups", "population", "systems"}
+var TableKinds = []string{"position", "peers", "groups", "population", "systems", "standing", "scale", "definitions"}
 
 // CommentaryStyles are the commentary styles.
 var CommentaryStyles = []string{"summary", "detail", "bullets"}
 
 // CommentaryTopics are the commentary topics.
-var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association", "systems"}
+var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association", "systems", "standouts", "moves", "questions", "peerchoice"}
 
 func oneOf(v string, set []string) bool {
 	for _, s := range set {

@@ -585,6 +585,9 @@ func (b *Brief) validateBlocks() error {
 				}
 				bad(v, "%s (kinds are %s)", msg, quoteList(TableKinds))
 			}
+			if v.Type == "scale" && (len(v.Indicators) == 0 || len(v.Indicators) > MaxScaleIndicators) {
+				bad(v, "a scale table shows the size measures it names, 1 to %d of them, found %d; list them, e.g. indicators: [academic_staff, students, total_income, papers]", MaxScaleIndicators, len(v.Indicators))
+			}
 		case *CommentaryBlock:
 			if v.Style == "" {
 				v.Style = "detail"

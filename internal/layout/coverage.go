@@ -127,7 +127,7 @@ func (w *writer) packIndicators() map[string]bool {
 			add(v.Indicators)
 		case *brief.TableBlock:
 			switch {
-			case v.Type == "population":
+			case v.Type == "population", v.Type == "definitions":
 			case v.Type == "systems" && len(v.Indicators) == 0:
 				// Counts of institutions only (systemstable.go).
 			case len(v.Indicators) > 0:

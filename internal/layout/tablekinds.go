@@ -40,6 +40,12 @@ func (w *writer) tableBlock(tb *brief.TableBlock) {
 		w.populationTable(tb)
 	case "systems":
 		w.systemsTable(tb, groups, inds, year)
+	case "standing":
+		w.standingTable(tb, groups, inds, year)
+	case "scale":
+		w.scaleTable(tb, groups[0], inds, year)
+	case "definitions":
+		w.definitionsTable(tb, groups)
 	default:
 		w.positionTable(tb, groups, inds, year)
 	}

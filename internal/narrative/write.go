@@ -115,6 +115,7 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 			out = append(out, Paragraph{Heading: c.w.Heading("competition"), Sentences: comp})
 		}
 	}
+	out = append(out, c.councilTopics(sc)...)
 	if sc.has("caveats") {
 		if cav := c.groupCaveats(sc); len(cav) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("caveats"), Sentences: cav})
@@ -202,6 +203,7 @@ func (c *composer) writeBullets(sc *scope) []Paragraph {
 			}
 		}
 	}
+	out = append(out, c.councilTopics(sc)...)
 	if sc.has("caveats") {
 		for _, s := range c.condensedCaveats(sc) {
 			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})

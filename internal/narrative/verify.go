@@ -143,11 +143,11 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	ind, hasInd := m.Indicator(r.Indicator)
 	whole := int(math.Round(v))
 	switch r.Measure {
-	case "value", "median", "q1", "q3", "min", "max", "mean", "start_value", "end_value", "median_start", "median_end":
+	case "value", "median", "q1", "q3", "min", "max", "mean", "start_value", "end_value", "median_start", "median_end", figures.MeasureTargetRankValue:
 		if hasInd {
 			out = append(out, format.Value(ind, v), format.Number(v, ind.Decimals))
 		}
-	case "gap_median", "gap_better_quartile", "vs_median", "vs_better_quartile", "change", "median_change", "iqr", "sd":
+	case "gap_median", "gap_better_quartile", "vs_median", "vs_better_quartile", "change", "median_change", "iqr", "sd", figures.MeasureTargetRankGap, figures.MeasureLargestStep:
 		if hasInd {
 			out = append(out, format.Difference(ind, v), format.Number(math.Abs(v), ind.Decimals), format.Value(ind, math.Abs(v)))
 		}
@@ -158,7 +158,7 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 		out = append(out, format.Number(v, 1), format.Number(math.Abs(v), 1))
 	case "pearson", "spearman":
 		out = append(out, format.Number(v, 2), format.Number(math.Abs(v), 2))
-	case "rank":
+	case "rank", figures.MeasureTargetRank:
 		out = append(out, format.Rank(whole, bands), format.Ordinal(whole), format.Int(whole))
 	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n":
 		out = append(out, format.Int(whole))

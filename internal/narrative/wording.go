@@ -320,6 +320,10 @@ type GapFact struct {
 	// printed values; Value is the focus's printed value.
 	Amount string
 	Value  string
+	// Rank, when set, is the place the target reaches ("2nd of 8"): the
+	// group is below the small-group floor, so the target is a rank, not
+	// the top quarter, and the wording must not speak of quarters.
+	Rank string
 	// GroupNamed (on the first fact of a list) is set when an earlier
 	// sentence of the paragraph has named the group.
 	GroupNamed bool

@@ -717,7 +717,19 @@ func (e english) Gap(f GapFact) string {
 	if f.Better == dataset.LowerIsBetter {
 		q, change = "lower quartile", "a reduction"
 	}
-	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value}
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value,
+		"rank", f.Rank, "in", e.in(f.Group)}
+	if f.Rank != "" {
+		// Below the small-group floor: a rank to reach, never a quarter.
+		if f.Amount == "" {
+			return e.fill("Reaching {rank} {in} would take {focus's} figure from {value} to {target}.", kv...)
+		}
+		tmpl := [...]string{
+			"Reaching {rank} {in} would take " + change + " of {amount}, to {target}.",
+			"{focus} would need " + change + " of {amount} (to {target}) to rank {rank} {in}.",
+		}
+		return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
+	}
 	if f.Amount == "" {
 		return e.fill("Reaching the "+q+" of {group} would take {focus's} figure from {value} to {target}.", kv...)
 	}
@@ -732,29 +744,54 @@ func (e english) Gap(f GapFact) string {
 // GapList: the gaps of the summary's weakest indicators (one or more) in
 // one sentence that names each indicator.
 func (e english) GapList(fs []GapFact) string {
+	// Below the small-group floor the targets are ranks ("2nd of 8"):
+	// one rank for every item is said once, otherwise each item says its
+	// own; no quarter is named then.
+	ranks, same := 0, true
+	for _, f := range fs {
+		if f.Rank != "" {
+			ranks++
+		}
+		same = same && f.Rank == fs[0].Rank
+	}
 	parts := make([]string, len(fs))
 	for i, f := range fs {
 		change := "an increase"
 		if f.Better == dataset.LowerIsBetter {
 			change = "a reduction"
 		}
+		to := "to " + f.Target
+		if ranks > 0 && !same {
+			if f.Rank != "" {
+				to += ", which would rank " + f.Rank
+			} else {
+				to += ", the top quarter's threshold"
+			}
+		}
 		if f.Amount == "" {
-			parts[i] = "a move in " + f.Indicator + " from " + f.Value + " to " + f.Target
+			parts[i] = "a move in " + f.Indicator + " from " + f.Value + " " + to
 		} else {
-			parts[i] = change + " of " + f.Amount + " in " + f.Indicator + " (to " + f.Target + ")"
+			parts[i] = change + " of " + f.Amount + " in " + f.Indicator + " (" + to + ")"
 		}
 	}
-	tmpl := "Reaching the top quarter of {group} on {focus's} {n} weakest indicators would take {items}."
+	aim := "the top quarter"
+	if ranks > 0 && same {
+		aim = fs[0].Rank
+	}
+	tmpl := "Reaching {aim} {in} on {focus's} {n} weakest indicators would take {items}."
+	if ranks == 0 {
+		tmpl = "Reaching {aim} of {group} on {focus's} {n} weakest indicators would take {items}."
+	}
 	if fs[0].GroupNamed {
-		tmpl = "Reaching the top quarter on its {n} weakest indicators would take {items}."
+		tmpl = "Reaching {aim} on its {n} weakest indicators would take {items}."
 	}
 	if len(fs) == 1 {
-		tmpl = "Reaching the top quarter of {group} on {focus's} weakest indicator would take {items}."
-		if fs[0].GroupNamed {
-			tmpl = "Reaching the top quarter on its weakest indicator would take {items}."
-		}
+		tmpl = strings.Replace(tmpl, "{n} weakest indicators", "weakest indicator", 1)
 	}
-	return e.fill(tmpl, "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
+	if ranks > 0 && !same {
+		tmpl = strings.Replace(tmpl, "Reaching {aim}", "Moving up", 1)
+	}
+	return e.fill(tmpl, "aim", aim, "in", e.in(fs[0].Group), "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
 }
 
 // ByConstruction: peers chosen for closeness on an indicator.

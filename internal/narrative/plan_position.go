@@ -60,8 +60,10 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	f := c.positionFact(g, ind, p, d)
 	f.Seed = seed
 	if c.small(d) {
-		// Below the floor: the rank "of n" only, no quarter.
+		// Below the floor: the rank "of n" only, no quarter, and no
+		// quartile as a target either (the gaps name a rank to reach).
 		f.Quartile = 0
+		f.Target, f.GapTarget, f.TargetDiff, f.Reached, f.TargetLevel = "", "", "", false, false
 	} else {
 		f.Edge = c.edge(p.Percentile)
 	}

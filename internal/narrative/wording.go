@@ -30,6 +30,9 @@ type Wording interface {
 
 	Position(f PositionFact) string
 	Distance(f PositionFact) string
+	// SharedRank: one first or last place on several indicators, said
+	// once ("last of 8 on six of the eleven indicators here: ...").
+	SharedRank(f SharedRankFact) string
 	FocusMissing(f MissingFact) string
 	// LeftOut: the indicators (f.Indicator, a list) a summary cannot
 	// place because the focus reports no value for the year.
@@ -164,6 +167,25 @@ type PositionFact struct {
 	// Introduced is set once the sentences of a part have said that the
 	// focus is not a member of this group.
 	Introduced bool
+	// RankSaid: a shared-rank sentence of the part has given this rank
+	// already, so the position gives the value only and the distance
+	// names the group.
+	RankSaid bool
+}
+
+// SharedRankFact is one first or last place of the same number on
+// several indicators of a block.
+type SharedRankFact struct {
+	Seed    string
+	Focus   string
+	Group   string
+	Last    bool
+	Of      string
+	InGroup bool
+	// Indicators are the names, in the block's order; Count is how many,
+	// Total how many indicators the block covers.
+	Indicators   []string
+	Count, Total int
 }
 
 // MissingFact describes a value that is not there.

@@ -99,6 +99,7 @@ var englishHeadings = map[string]string{
 	"gaps":        "Gaps",
 	"caveats":     "Caveats",
 	"association": "How indicators move together",
+	"ranks":       "Places held on several indicators",
 }
 
 // Heading names a topic.
@@ -211,6 +212,8 @@ func (e english) Position(f PositionFact) string {
 	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "in", e.in(f.Group),
 		"value", f.Value, "inYear", inYear, "rank", e.rank(f), "q", q, "members", f.Members}
 	switch {
+	case f.RankSaid:
+		return e.fill("{focus's} figure is {value}{inYear}.", kv...)
 	case !f.InGroup && !f.Introduced:
 		its := "its {value}{inYear}"
 		if f.ValueSaid {
@@ -299,6 +302,10 @@ func (e english) Distance(f PositionFact) string {
 	tmpl := [...]string{
 		"That is {rel} the group median of {median}" + tail + target + ".",
 		"The median of {group} is {median}; {focus} is {rel} it" + tail + target + ".",
+	}
+	if f.RankSaid {
+		// After a bare value the group must be named.
+		return e.fill(tmpl[1], kv...)
 	}
 	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }

@@ -90,6 +90,11 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 			out = append(out, Paragraph{Heading: c.w.Heading("strengths"), Sentences: s})
 		}
 	}
+	// One first or last place shared by several indicators is said once,
+	// before the indicators' paragraphs.
+	if s := c.sharedRanks(sc); len(s) > 0 {
+		out = append(out, Paragraph{Heading: c.w.Heading("ranks"), Sentences: s})
+	}
 	for _, ind := range sc.inds {
 		if s := c.indicatorSentences(sc, ind); len(s) > 0 {
 			out = append(out, Paragraph{Heading: headingOf(ind), Sentences: s})

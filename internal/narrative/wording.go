@@ -33,6 +33,8 @@ type Wording interface {
 	// SharedRank: one first or last place on several indicators, said
 	// once ("last of 8 on six of the eleven indicators here: ...").
 	SharedRank(f SharedRankFact) string
+	// OneYear: a movement that came mostly in one year-to-year step.
+	OneYear(f StepFact) string
 	FocusMissing(f MissingFact) string
 	// LeftOut: the indicators (f.Indicator, a list) a summary cannot
 	// place because the focus reports no value for the year.

@@ -26,3 +26,18 @@ func (e english) SharedRank(f SharedRankFact) string {
 	}
 	return e.fill("{in}, {focus} ranks "+place+" of {of} "+on+".", kv...)
 }
+
+// OneYear: "Most of that change came in one year, a rise of 0.12 between
+// 2022 and 2023."; for a percentile, "Most of that movement came in one
+// year, between 2022 and 2023."
+func (e english) OneYear(f StepFact) string {
+	kv := []string{"from", f.FromYear, "to", f.ToYear, "amount", f.Amount}
+	if f.Percentile || f.Amount == "" {
+		return e.fill("Most of that movement came in one year, between {from} and {to}, so it may reflect one event or revision rather than a trend.", kv...)
+	}
+	move := "a rise"
+	if !f.Rise {
+		move = "a fall"
+	}
+	return e.fill("Most of that change came in one year, "+move+" of {amount} between {from} and {to}, so it may reflect one event or revision rather than a trend.", kv...)
+}

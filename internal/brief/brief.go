@@ -409,7 +409,7 @@ var TableKinds = []string{"position", "peers", "groups", "population"}
 var CommentaryStyles = []string{"summary", "detail", "bullets"}
 
 // CommentaryTopics are the commentary topics.
-var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association"}
+var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association", "profile"}
 
 func oneOf(v string, set []string) bool {
 	for _, s := range set {

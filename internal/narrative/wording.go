@@ -35,6 +35,9 @@ type Wording interface {
 	SharedRank(f SharedRankFact) string
 	// OneYear: a movement that came mostly in one year-to-year step.
 	OneYear(f StepFact) string
+	// Profile: the focus's values against a group's median across a
+	// radar's indicators.
+	Profile(f ProfileFact) string
 	FocusMissing(f MissingFact) string
 	// LeftOut: the indicators (f.Indicator, a list) a summary cannot
 	// place because the focus reports no value for the year.
@@ -394,6 +397,9 @@ type AssociationFact struct {
 	N     string
 	Year  string
 	Rho   string
+	// R is Pearson's r printed, the measure the chart's least-squares line
+	// follows ("" when the model has none).
+	R string
 	// Strength is Above (clear, |rho| >= AssociationClear), Level (loose)
 	// or Below (little association); Negative when higher X goes with
 	// lower Y.

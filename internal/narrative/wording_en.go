@@ -100,6 +100,7 @@ var englishHeadings = map[string]string{
 	"caveats":     "Caveats",
 	"association": "How indicators move together",
 	"ranks":       "Places held on several indicators",
+	"profile":     "Profile against the median",
 }
 
 // Heading names a topic.
@@ -961,9 +962,13 @@ func smallNumberWord(n int) string {
 
 // Association: two indicators across a group's members, never as cause.
 func (e english) Association(f AssociationFact) string {
-	kv := []string{"x", f.X, "y", f.Y, "n", f.N, "group", f.Group, "year", f.Year, "rho", f.Rho}
+	kv := []string{"x", f.X, "y", f.Y, "n", f.N, "group", f.Group, "year", f.Year, "rho", f.Rho, "r", f.R}
+	coef := "Spearman's rank correlation {rho}"
+	if f.R != "" {
+		coef += "; Pearson's r {r}"
+	}
 	if f.Strength == Below {
-		return e.fill("Across the {n} members of {group} reporting both in {year}, {x} and {y} show little association (Spearman's rank correlation {rho}).", kv...)
+		return e.fill("Across the {n} members of {group} reporting both in {year}, {x} and {y} show little association ("+coef+").", kv...)
 	}
 	how := "clearly"
 	if f.Strength == Level {
@@ -973,7 +978,7 @@ func (e english) Association(f AssociationFact) string {
 	if f.Negative {
 		with = "lower"
 	}
-	return e.fill("Across the {n} members of {group} reporting both in {year}, higher {x} goes "+how+" with "+with+" {y} (Spearman's rank correlation {rho}); that is an association, not evidence that one causes the other.", kv...)
+	return e.fill("Across the {n} members of {group} reporting both in {year}, higher {x} goes "+how+" with "+with+" {y} ("+coef+"); that is an association, not evidence that one causes the other.", kv...)
 }
 
 // AssociationTooFew: pairs with too few members reporting both.

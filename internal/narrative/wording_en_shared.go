@@ -41,3 +41,56 @@ func (e english) OneYear(f StepFact) string {
 	}
 	return e.fill("Most of that change came in one year, "+move+" of {amount} between {from} and {to}, so it may reflect one event or revision rather than a trend.", kv...)
 }
+
+// Profile: "Against the median of the profile peers in 2025, Wendholm
+// stands higher on A (38.2% against 30.1%, 8.1 percentage points more)
+// and B (...); lower on C (...); and level with the median on D (12.0%)."
+func (e english) Profile(f ProfileFact) string {
+	items := func(xs []ProfileItem, more string) string {
+		parts := make([]string, len(xs))
+		for i, x := range xs {
+			in := x.Value + " against " + x.Median
+			if x.Diff != "" {
+				in += ", " + x.Diff + " " + more
+			}
+			if x.LowerBetter {
+				in += "; lower is better here"
+			}
+			parts[i] = x.Indicator + " (" + in + ")"
+		}
+		return e.List(parts)
+	}
+	var sides []string
+	if len(f.Higher) > 0 {
+		sides = append(sides, "higher on "+items(f.Higher, "more"))
+	}
+	if len(f.Lower) > 0 {
+		sides = append(sides, "lower on "+items(f.Lower, "less"))
+	}
+	if len(f.Level) > 0 {
+		parts := make([]string, len(f.Level))
+		for i, x := range f.Level {
+			parts[i] = x.Indicator + " (" + x.Value + ")"
+		}
+		sides = append(sides, "level with the median on "+e.List(parts))
+	}
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "group", f.Group, "year", f.Year, "missing", capitalise(e.List(f.Missing))}
+	text := ""
+	if len(sides) > 0 {
+		joined := sides[0]
+		switch len(sides) {
+		case 2:
+			joined = sides[0] + "; and " + sides[1]
+		case 3:
+			joined = sides[0] + "; " + sides[1] + "; and " + sides[2]
+		}
+		text = "Against the median of {group} in {year}, {focus} stands " + joined + "."
+	}
+	if len(f.Missing) > 0 {
+		if text != "" {
+			text += " "
+		}
+		text += "{missing} " + map[bool]string{true: "is", false: "are"}[len(f.Missing) == 1] + " left out, as {focus} reports no value there for {year} or the group has none."
+	}
+	return e.fill(text, kv...)
+}

@@ -100,6 +100,11 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 			out = append(out, Paragraph{Heading: headingOf(ind), Sentences: s})
 		}
 	}
+	if sc.has("profile") {
+		if s := c.profile(sc); len(s) > 0 {
+			out = append(out, Paragraph{Heading: c.w.Heading("profile"), Sentences: s})
+		}
+	}
 	if sc.has("association") {
 		if s := c.association(sc); len(s) > 0 {
 			out = append(out, Paragraph{Heading: c.w.Heading("association"), Sentences: s})
@@ -183,6 +188,11 @@ func (c *composer) writeBullets(sc *scope) []Paragraph {
 		}
 		if len(s) > 0 {
 			out = append(out, Paragraph{Bullet: true, Heading: headingOf(ind), Sentences: s})
+		}
+	}
+	if sc.has("profile") {
+		for _, s := range c.profile(sc) {
+			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})
 		}
 	}
 	if sc.has("association") {

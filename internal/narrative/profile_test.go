@@ -1,0 +1,50 @@
+package narrative
+
+import (
+	"strings"
+	"testing"
+)
+
+// The profile a radar draws, in words: five members, medians worked by
+// hand. alpha: 20, 22, 24, 26 and the focus's 30, median 24, 6.0 higher;
+// beta: 12, 14, 16, 18 and 10, median 14, 4.0 lower; gamma: 13, 15, 17,
+// 15 and 15, median 15, level; delta: the focus has no value; students per
+// academic (lower is better): 10, 12, 14, 16 and 20, median 14, 6.0 higher.
+func TestProfileAgainstTheMedian(t *testing.T) {
+	src := `
+indicators:
+  - {key: a, label: Alpha share, unit: percent, better: neutral, decimals: 1}
+  - {key: b, label: Beta share, unit: percent, better: neutral, decimals: 1}
+  - {key: c, label: Gamma share, unit: percent, better: neutral, decimals: 1}
+  - {key: d, label: Delta share, unit: percent, better: neutral, decimals: 1}
+  - {key: spa, label: Students per academic, unit: ratio, better: lower, decimals: 1}
+small_group: 2
+focus: F
+year: 2025
+columns: [a@2025, b@2025, c@2025, d@2025, spa@2025]
+institutions:
+  F: [Kestria, Arlen University, 30, 10, 15, ~, 20]
+  K1: [Kestria, Kestrel 1, 20, 12, 13, 5, 10]
+  K2: [Kestria, Kestrel 2, 22, 14, 15, 6, 12]
+  K3: [Kestria, Kestrel 3, 24, 16, 17, 7, 14]
+  K4: [Kestria, Kestrel 4, 26, 18, 15, 8, 16]
+groups:
+  - {name: Kestria sector, where: {country: Kestria}}
+block: {style: detail, topics: [profile], indicators: [a, b, c, d, spa]}
+`
+	c, m, b := parseSituation(t, src).compose(t)
+	if err := Verify(m, c); err != nil {
+		t.Fatal(err)
+	}
+	want := "Profile against the median: Against the median of the Kestria sector in 2025, Arlen University stands higher on alpha share (30.0% against 24.0%, 6.0 percentage points more) and students per academic (20.0 against 14.0, 6.0 more; lower is better here); lower on beta share (10.0% against 14.0%, 4.0 percentage points less); and level with the median on gamma share (15.0%). Delta share is left out, as Arlen University reports no value there for 2025 or the group has none."
+	if got := strings.TrimSpace(blockText(c, b)); got != want {
+		t.Errorf("got\n%s\nwant\n%s", got, want)
+	}
+	// One claim per spoke placed: above (1), below (1), level (2: the
+	// difference within one unit of the last decimal either way).
+	for _, s := range c.Sentences {
+		if strings.Contains(s.Text, "Against the median") && len(s.Claims) != 1+1+2+1 {
+			t.Errorf("%d claims, want 5: %v", len(s.Claims), s.Claims)
+		}
+	}
+}

@@ -99,6 +99,14 @@ func verifyNames(m *figures.Model, w Wording) []string {
 	}
 	for _, in := range reg.Institutions {
 		add(in.Country)
+		// Clusters and nearest profiles name institutions beyond the
+		// tracked ones; a digit in a name is not a number.
+		add(in.Name)
+	}
+	if m.CompositeSpec != nil {
+		for _, p := range m.CompositeSpec.Pillars {
+			add(p.Label)
+		}
 	}
 	for _, ind := range m.Data.Dictionary.Indicators {
 		add(ind.Label)

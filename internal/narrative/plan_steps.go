@@ -25,6 +25,9 @@ type StepFact struct {
 	Percentile       bool
 	Better           dataset.Polarity
 	Rise             bool
+	// All: the one step is the whole change or more; Overshoot: more (the
+	// other years took some of it back).
+	All, Overshoot bool
 }
 
 // oneYear writes, after a change or a headline movement over the trend's
@@ -58,7 +61,7 @@ func (c *composer) oneYear(g *figures.Group, ind dataset.Indicator, pct bool) []
 		return nil
 	}
 	f := StepFact{Seed: trendKey(g.Name, ind.Key, id, shareM).String(), FromYear: printYear(from), ToYear: printYear(to),
-		Percentile: pct, Better: ind.Better, Rise: step.Value > 0}
+		Percentile: pct, Better: ind.Better, Rise: step.Value > 0, All: share.Value >= 1, Overshoot: share.Value > 1}
 	cites := []figures.Key{posKey(g.Name, ind.Key, id, from, mValue), posKey(g.Name, ind.Key, id, to, mValue)}
 	if !pct {
 		f.Amount = printAmount(ind, step.Value)
@@ -68,6 +71,14 @@ func (c *composer) oneYear(g *figures.Group, ind dataset.Indicator, pct bool) []
 		Claimed(Fig(trendKey(g.Name, ind.Key, id, "points")), OpGreaterEq, Num(3)),
 		Claimed(Fig(trendKey(g.Name, ind.Key, id, shareM)), OpGreaterEq, Num(OneYearShare)),
 		Claimed(Fig(trendKey(g.Name, ind.Key, id, yearM)), OpEqual, Num(float64(to))),
+	}
+	switch {
+	case f.Overshoot:
+		claims = append(claims, Claimed(Fig(trendKey(g.Name, ind.Key, id, shareM)), OpGreater, Num(1)))
+	case f.All:
+		claims = append(claims, Claimed(Fig(trendKey(g.Name, ind.Key, id, shareM)), OpGreaterEq, Num(1)))
+	default:
+		claims = append(claims, Claimed(Fig(trendKey(g.Name, ind.Key, id, shareM)), OpLess, Num(1)))
 	}
 	return []Sentence{c.say(ind.Key, c.w.OneYear(f), cites...).claim(claims...)}
 }

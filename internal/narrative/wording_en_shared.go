@@ -32,14 +32,27 @@ func (e english) SharedRank(f SharedRankFact) string {
 // year, between 2022 and 2023."
 func (e english) OneYear(f StepFact) string {
 	kv := []string{"from", f.FromYear, "to", f.ToYear, "amount", f.Amount}
+	tail := ", so it may reflect one event or revision rather than a trend."
+	what := "change"
 	if f.Percentile || f.Amount == "" {
-		return e.fill("Most of that movement came in one year, between {from} and {to}, so it may reflect one event or revision rather than a trend.", kv...)
+		what = "movement"
+	}
+	lead := "Most of that " + what + " came in one year"
+	if f.All {
+		lead = "All of that " + what + " came in one year"
+	}
+	if f.Overshoot {
+		lead = "All of that " + what + ", and more, came in one year"
+		tail = "; the other years took some of it back" + tail
+	}
+	if what == "movement" {
+		return e.fill(lead+", between {from} and {to}"+tail, kv...)
 	}
 	move := "a rise"
 	if !f.Rise {
 		move = "a fall"
 	}
-	return e.fill("Most of that change came in one year, "+move+" of {amount} between {from} and {to}, so it may reflect one event or revision rather than a trend.", kv...)
+	return e.fill(lead+", "+move+" of {amount} between {from} and {to}"+tail, kv...)
 }
 
 // Profile: "Against the median of the profile peers in 2025, Wendholm

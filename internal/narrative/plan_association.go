@@ -45,11 +45,18 @@ func (c *composer) association(sc *scope) []Sentence {
 				return figures.Key{Section: figures.SectionCorrelation, Group: g.Name, Indicator: figures.PairKey(x.Key, y.Key), Year: r.Year, Measure: measure}
 			}
 			f := c.associationFact(g, x, y, r)
-			if !r.Enough() || math.IsNaN(r.Spearman) {
+			if !r.Enough() {
 				f.Threshold = printCount(figures.MinCorrelationPairs)
-				s := c.say("", c.w.AssociationTooFew(f), key(mN))
+				s := c.say("", c.w.AssociationTooFew(f), key(mN)).claim(Claimed(Fig(key(mN)), OpLess, Num(figures.MinCorrelationPairs)))
 				s.Thresholds = []float64{figures.MinCorrelationPairs}
 				out = append(out, s)
+				continue
+			}
+			if math.IsNaN(r.Spearman) {
+				// Enough members, but one indicator takes a single value
+				// among them: no correlation exists to read.
+				f.Constant = true
+				out = append(out, c.say("", c.w.AssociationTooFew(f), key(mN)).claim(Claimed(Fig(key(mN)), OpGreaterEq, Num(figures.MinCorrelationPairs))))
 				continue
 			}
 			cites := []figures.Key{key(mN), key(mSpearman)}

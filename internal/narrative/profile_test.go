@@ -1,6 +1,7 @@
 package narrative
 
 import (
+	"fmt"
 	"strings"
 	"testing"
 )
@@ -47,4 +48,41 @@ block: {style: detail, topics: [profile], indicators: [a, b, c, d, spa]}
 			t.Errorf("%d claims, want 5: %v", len(s.Claims), s.Claims)
 		}
 	}
+}
+
+// Twelve members report both, but every one has the same students per
+// academic: enough pairs, no correlation to read (rho is undefined), and
+// the sentence must not say there were too few.
+func TestAssociationWithAConstantIndicator(t *testing.T) {
+	src := `
+indicators:
+  - {key: intl, label: International staff share, unit: percent, better: higher, decimals: 1}
+  - {key: spa, label: Students per academic, unit: ratio, better: lower, decimals: 1}
+focus: F
+year: 2025
+columns: [intl@2025, spa@2025]
+institutions:
+  F: [Kestria, Arlen University, 30, 10]
+` + constantRows(11) + `groups:
+  - {name: Kestria sector, where: {country: Kestria}}
+block: {style: detail, topics: [association], indicators: [intl, spa]}
+`
+	c, m, b := parseSituation(t, src).compose(t)
+	if err := Verify(m, c); err != nil {
+		t.Fatal(err)
+	}
+	want := "How indicators move together: Across the 12 members of the Kestria sector reporting both international staff share and students per academic in 2025, one of the two takes a single value, so no correlation can be read."
+	if got := strings.TrimSpace(blockText(c, b)); got != want {
+		t.Errorf("got\n%s\nwant\n%s", got, want)
+	}
+}
+
+// constantRows: n institutions with international staff 10, 11, ... and
+// students per academic 10 each.
+func constantRows(n int) string {
+	var b strings.Builder
+	for i := 0; i < n; i++ {
+		fmt.Fprintf(&b, "  K%02d: [Kestria, Kestrel %d, %d, 10]\n", i, i, 10+i)
+	}
+	return b.String()
 }

@@ -406,6 +406,8 @@ type AssociationFact struct {
 	Strength int
 	Negative bool
 	// Threshold, for AssociationTooFew, is the printed minimum number of
-	// members reporting both.
+	// members reporting both; Constant says there were enough, but one of
+	// the two takes a single value among them.
 	Threshold string
+	Constant  bool
 }

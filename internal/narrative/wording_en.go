@@ -983,6 +983,10 @@ func (e english) Association(f AssociationFact) string {
 
 // AssociationTooFew: pairs with too few members reporting both.
 func (e english) AssociationTooFew(f AssociationFact) string {
+	if f.Constant {
+		return e.fill("Across the {n} members of {group} reporting both {x} and {y} in {year}, one of the two takes a single value, so no correlation can be read.",
+			"n", f.N, "group", f.Group, "x", f.X, "y", f.Y, "year", f.Year)
+	}
 	lead := "Only {n} members of {group} report"
 	switch f.N {
 	case "0":

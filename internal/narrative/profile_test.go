@@ -41,6 +41,16 @@ block: {style: detail, topics: [profile], indicators: [a, b, c, d, spa]}
 	if got := strings.TrimSpace(blockText(c, b)); got != want {
 		t.Errorf("got\n%s\nwant\n%s", got, want)
 	}
+	// The other styles write the same sentence.
+	for _, style := range []string{"summary", "bullets"} {
+		c, m, b := parseSituation(t, strings.Replace(src, "style: detail", "style: "+style, 1)).compose(t)
+		if err := Verify(m, c); err != nil {
+			t.Fatal(err)
+		}
+		if text := blockText(c, b); !strings.Contains(text, strings.TrimPrefix(want, "Profile against the median: ")) {
+			t.Errorf("%s: no profile sentence:\n%s", style, text)
+		}
+	}
 	// One claim per spoke placed: above (1), below (1), level (2: the
 	// difference within one unit of the last decimal either way).
 	for _, s := range c.Sentences {

@@ -47,6 +47,20 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 		// No run-in heading: the section it opens already names it.
 		out = append(out, Paragraph{Sentences: main})
 	}
+	// A summary asked for a profile or an association writes it too,
+	// under its own heading, as the other styles do.
+	for _, topic := range []string{"profile", "association"} {
+		if !sc.has(topic) {
+			continue
+		}
+		s := c.profile(sc)
+		if topic == "association" {
+			s = c.association(sc)
+		}
+		if len(s) > 0 {
+			out = append(out, Paragraph{Heading: c.w.Heading(topic), Sentences: s})
+		}
+	}
 	if sc.has("competition") {
 		comp, sh := c.sharedLeads(sc)
 		for _, g := range sc.systems {

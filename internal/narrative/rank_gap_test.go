@@ -53,3 +53,24 @@ block: {style: `+style+`, topics: `+topics+`, indicators: [intl, staff, spa]}
 		}
 	}
 }
+
+// The small-group caveat says what the pack does below the floor: ranks,
+// not quarters (eight members, default floor 10); with the floor lowered
+// to 5 quarters are printed and the caveat only warns.
+func TestSmallGroupCaveatSaysRanksOnly(t *testing.T) {
+	for _, tc := range []struct{ extra, want string }{
+		{"", "fewer than the 10 that common practice asks for before quartiles are read as stable, so the pack gives ranks only there, and they are indicative."},
+		{"small_group: 5\n", "fewer than the 10 that common practice asks for before quartiles are read as stable, so those ranks are indicative only."},
+	} {
+		c, m, _ := parseSituation(t, rankedWorld(8, 4, tc.extra+`groups:
+  - {name: Kestria sector, where: {country: Kestria}}
+block: {style: detail, topics: [caveats], indicators: [intl]}
+`)).compose(t)
+		if err := Verify(m, c); err != nil {
+			t.Fatal(err)
+		}
+		if text := allText(c); !strings.Contains(text, tc.want) {
+			t.Errorf("%q: lacks %q:\n%s", tc.extra, tc.want, text)
+		}
+	}
+}

@@ -376,6 +376,9 @@ type CaveatFact struct {
 	// converted ones, and Derived those computed from converted amounts.
 	Indicators []string
 	Derived    []string
+	// RanksOnly: the group is below the brief's small-group floor, so the
+	// pack gives its ranks and no quarters.
+	RanksOnly bool
 }
 
 // DirectionFact lists, for the executive summary, the indicators on which

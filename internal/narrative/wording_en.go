@@ -816,7 +816,11 @@ func (e english) Skewed(f CaveatFact) string {
 
 // SmallGroup: fewer members than quartiles can bear.
 func (e english) SmallGroup(f CaveatFact) string {
-	return e.fill("The comparison {in} rests on {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, so those ranks are indicative only.",
+	only := "so those ranks are indicative only"
+	if f.RanksOnly {
+		only = "so the pack gives ranks only there, and they are indicative"
+	}
+	return e.fill("The comparison {in} rests on {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, "+only+".",
 		"in", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
 }
 
@@ -908,6 +912,10 @@ func (e english) OneCountry(f CaveatFact) string {
 
 // SmallGroupBrief: the summary's short small-group caveat.
 func (e english) SmallGroupBrief(f CaveatFact) string {
+	if f.RanksOnly {
+		return e.fill("{In} there are only {n} {members}, too few for stable quartiles (common practice asks for at least {threshold}), so the pack gives ranks there, not quarters.",
+			"In", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
+	}
 	return e.fill("Quartiles {in} rest on only {n} {members}, too few to be stable (common practice asks for at least {threshold}).",
 		"in", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
 }

@@ -12,7 +12,7 @@ import (
 // trends, added to the model as rows (Add) so the figures file, Lookup and
 // the claims all read the same numbers:
 //
-//   - rank targets, for tracked institutions in a distribution below the
+//   - rank targets, for the focus in a distribution below the
 //     small-group floor in the brief year, where no quartile is a fair
 //     target: position measures target_rank (TargetRank(of), the last
 //     place of the best quarter of places, rounded up, at least 1),
@@ -20,7 +20,7 @@ import (
 //     best value among the other members) and target_rank_gap (the amount
 //     still to gain, positive, by polarity). Written only for judged
 //     indicators and only while the institution ranks below the target.
-//   - largest single steps of a trend over at least three years with a
+//   - largest single steps of the focus's trends over at least three years with a
 //     value: trend measures largest_step (the year-to-year change, between
 //     consecutive years with a value, that went furthest in the direction
 //     of the whole change), largest_step_year (the later year of that
@@ -51,17 +51,20 @@ func TargetRank(of int) int {
 	return max(1, (of+targetRankQuarterDenominator-1)/targetRankQuarterDenominator)
 }
 
-// addRuleFigures computes the rank targets and the largest steps and adds
-// them to the model's rows.
+// addRuleFigures computes the rank targets and the largest steps of the
+// focus (the institution the commentary speaks of; the other tracked
+// institutions would only lengthen the figures file) and adds them to the
+// model's rows.
 func (m *Model) addRuleFigures() {
+	if m.Focus < 0 || m.Focus >= m.Data.Register.Len() {
+		return
+	}
 	var rows []Row
 	for _, g := range m.Groups {
 		for _, ind := range m.Data.Dictionary.Indicators {
-			for _, inst := range m.Named {
-				rows = m.rankTargetRows(rows, g, ind, inst)
-				if t, ok := m.trend[trendKey{g.Name, ind.Key, inst}]; ok {
-					rows = m.stepRows(rows, t)
-				}
+			rows = m.rankTargetRows(rows, g, ind, m.Focus)
+			if t, ok := m.trend[trendKey{g.Name, ind.Key, m.Focus}]; ok {
+				rows = m.stepRows(rows, t)
 			}
 		}
 	}

@@ -419,7 +419,7 @@ var TableKinds = []string{"position", "peers", "groups", "population", "systems"
 var CommentaryStyles = []string{"summary", "detail", "bullets"}
 
 // CommentaryTopics are the commentary topics.
-var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association", "systems", "standouts", "moves", "questions", "peerchoice"}
+var CommentaryTopics = []string{"position", "change", "strengths", "competition", "gaps", "caveats", "association", "systems", "standouts", "moves", "questions", "peerchoice", "profile"}
 
 func oneOf(v string, set []string) bool {
 	for _, s := range set {

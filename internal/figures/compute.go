@@ -75,6 +75,9 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		probs.Add(err)
 		return nil, probs
 	}
+	// The rules' own figures (rank targets below the floor, largest
+	// single steps of trends; steps.go) join them the same way.
+	m.addRuleFigures()
 	// The peers rows join the later stages' rows: the figures file and
 	// Lookup read them from there.
 	m.Add(m.peersRows(nil)...)

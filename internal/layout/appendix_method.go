@@ -3,6 +3,7 @@ package layout
 import (
 	"fmt"
 	"sort"
+	"strconv"
 	"strings"
 
 	"peerpack/internal/dataset"
@@ -363,11 +364,16 @@ func (w *writer) annexLimits(sc appendixScope) {
 		vj += fmt.Sprintf(" For %s %s the dictionary records why the direction itself is a judgement (see above).", format.Int(judged), format.Plural(judged, "indicator", "indicators"))
 	}
 	w.runIn("Value judgements.", vj, size)
-	noise := fmt.Sprintf("Differences of a rank or two, or of fewer than %s percentile points, lie within the year-to-year noise of the data and of revisions, and are not read as movement.", format.Number(narrative.PercentileNoise, 0))
+	// The brief's own settings, the ones the commentary applies
+	// (brief.NoiseRule, brief.SmallGroupFloor), never the defaults.
+	rule := strconv.FormatFloat(w.b.NoiseRule(), 'f', -1, 64)
+	floor := w.b.SmallGroupFloor()
+	noise := fmt.Sprintf("Differences of a rank or two, or of fewer than %s percentile points (this pack's noise setting), lie within the year-to-year noise of the data and of revisions: such positions read as level, a position that close to a quarter's boundary as at its edge, and such a change as broadly unchanged. Where fewer than %s members report an indicator (this pack's small-group setting), the pack gives ranks “of n” only, with no quarters or percentiles.",
+		rule, format.Int(floor))
 	if g, ok := smallestGroup(sc.groups); ok {
 		noise += fmt.Sprintf(" The smallest group, %s, has %s %s", g.Name, format.Int(len(g.Members)), format.Plural(len(g.Members), "member", "members"))
-		if len(g.Members) < narrative.SmallGroup {
-			noise += fmt.Sprintf("; with fewer than %d, its quartiles move when a single member changes", narrative.SmallGroup)
+		if len(g.Members) < floor {
+			noise += ", so it is always read by rank"
 		}
 		noise += "."
 	}

@@ -12,7 +12,8 @@ import (
 // (worked by hand; any rank correlation of a reversed order is -1).
 // Student headcount is reported by four members only, under
 // figures.MinCorrelationPairs (10, common practice, no source), so its
-// pairs are not read. The situation form has no association topic yet
+// pairs are not read (intl and spa are exactly linear, 10 + 2k against
+// 30 - k, so rho and r are both -1, worked by hand). The situation form has no association topic yet
 // (the brief does not accept it), so the scope is set here.
 func TestAssociationNeedsEnoughPairs(t *testing.T) {
 	s := parseSituation(t, edgeIndicators+`
@@ -49,7 +50,7 @@ block: {style: detail, topics: [position], indicators: [intl, spa, size]}
 	sc.topics = map[string]bool{"association": true}
 	ps := c.write(sc)
 	want := "How indicators move together: " +
-		"Across the 12 members of the Kestria sector reporting both in 2025, higher international staff share goes clearly with lower students per academic (Spearman's rank correlation −1.00); that is an association, not evidence that one causes the other. " +
+		"Across the 12 members of the Kestria sector reporting both in 2025, higher international staff share goes clearly with lower students per academic (Spearman's rank correlation −1.00; Pearson's r −1.00); that is an association, not evidence that one causes the other. " +
 		"Only 4 members of the Kestria sector report both international staff share and student headcount in 2025, fewer than the 10 a rank correlation needs, so the pack does not say whether they move together. " +
 		"Only 4 members of the Kestria sector report both students per academic and student headcount in 2025, fewer than the 10 a rank correlation needs, so the pack does not say whether they move together.\n"
 	if got := render(ps); got != want {

@@ -145,7 +145,7 @@ func TestDemoSummaryCaveats(t *testing.T) {
 	// One sentence per caveat particular to the summary's figures: PPP,
 	// the judged direction, and here the chosen peers under the
 	// small-group floor (the summary now covers them).
-	if !strings.Contains(caveats, "Quartiles among the chosen peers rest on only 7 members") {
+	if !strings.Contains(caveats, "Among the chosen peers there are only 7 members, too few for stable quartiles") {
 		t.Errorf("summary caveats omit the small chosen-peer group:\n%s", caveats)
 	}
 	if n := strings.Count(caveats, ". "); n > 2 {

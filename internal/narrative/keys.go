@@ -31,6 +31,7 @@ const (
 	mMembers = "n_members"
 
 	mSpearman = "spearman"
+	mPearson  = "pearson"
 )
 
 // posKey names a position figure of an institution in a group.

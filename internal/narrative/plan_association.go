@@ -45,14 +45,25 @@ func (c *composer) association(sc *scope) []Sentence {
 				return figures.Key{Section: figures.SectionCorrelation, Group: g.Name, Indicator: figures.PairKey(x.Key, y.Key), Year: r.Year, Measure: measure}
 			}
 			f := c.associationFact(g, x, y, r)
-			if !r.Enough() || math.IsNaN(r.Spearman) {
+			if !r.Enough() {
 				f.Threshold = printCount(figures.MinCorrelationPairs)
-				s := c.say("", c.w.AssociationTooFew(f), key(mN))
+				s := c.say("", c.w.AssociationTooFew(f), key(mN)).claim(Claimed(Fig(key(mN)), OpLess, Num(figures.MinCorrelationPairs)))
 				s.Thresholds = []float64{figures.MinCorrelationPairs}
 				out = append(out, s)
 				continue
 			}
-			out = append(out, c.say("", c.w.Association(f), key(mN), key(mSpearman)))
+			if math.IsNaN(r.Spearman) {
+				// Enough members, but one indicator takes a single value
+				// among them: no correlation exists to read.
+				f.Constant = true
+				out = append(out, c.say("", c.w.AssociationTooFew(f), key(mN)).claim(Claimed(Fig(key(mN)), OpGreaterEq, Num(figures.MinCorrelationPairs))))
+				continue
+			}
+			cites := []figures.Key{key(mN), key(mSpearman)}
+			if f.R != "" {
+				cites = append(cites, key(mPearson))
+			}
+			out = append(out, c.say("", c.w.Association(f), cites...).claim(associationClaims(f, Fig(key(mN)), Fig(key(mSpearman)))...))
 		}
 	}
 	return out
@@ -63,7 +74,11 @@ func (c *composer) associationFact(g *figures.Group, x, y dataset.Indicator, r f
 		Seed: g.Name + "/" + figures.PairKey(x.Key, y.Key), Group: c.phrase(g), X: c.w.Indicator(x), Y: c.w.Indicator(y),
 		N: printCount(r.N), Year: printYear(r.Year), Rho: format.Number(r.Spearman, 2),
 	}
-	switch a := math.Abs(format.Round(r.Spearman, 2)); {
+	if !math.IsNaN(r.Pearson) {
+		f.R = format.Number(r.Pearson, 2)
+	}
+	// Decided on the unrounded rho, the figure the claims check.
+	switch a := math.Abs(r.Spearman); {
 	case a >= AssociationClear:
 		f.Strength = Above
 	case a >= AssociationLoose:
@@ -73,4 +88,23 @@ func (c *composer) associationFact(g *figures.Group, x, y dataset.Indicator, r f
 	}
 	f.Negative = r.Spearman < 0
 	return f
+}
+
+// associationClaims: enough members report both, and rho lies where the
+// wording puts it: "clearly" at |rho| >= AssociationClear, "loosely" at
+// >= AssociationLoose, "little association" below, with its sign for
+// "higher goes with higher (lower)".
+func associationClaims(f AssociationFact, n, rho Operand) []Claim {
+	out := []Claim{Claimed(n, OpGreaterEq, Num(figures.MinCorrelationPairs))}
+	switch {
+	case f.Strength == Below:
+		return append(out, Claimed(rho, OpGreater, Num(-AssociationLoose)), Claimed(rho, OpLess, Num(AssociationLoose)))
+	case f.Negative && f.Strength == Above:
+		return append(out, Claimed(rho, OpLessEq, Num(-AssociationClear)))
+	case f.Negative:
+		return append(out, Claimed(rho, OpLessEq, Num(-AssociationLoose)), Claimed(rho, OpGreater, Num(-AssociationClear)))
+	case f.Strength == Above:
+		return append(out, Claimed(rho, OpGreaterEq, Num(AssociationClear)))
+	}
+	return append(out, Claimed(rho, OpGreaterEq, Num(AssociationLoose)), Claimed(rho, OpLess, Num(AssociationClear)))
 }

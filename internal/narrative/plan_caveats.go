@@ -22,7 +22,7 @@ func (c *composer) groupCaveats(sc *scope) []Sentence {
 		// prints quarters of five values should still say they are
 		// unstable.
 		if n := len(g.Members); n > 0 && n < SmallGroup {
-			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
+			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup), RanksOnly: n < c.floor()}
 			s := c.say("", c.w.SmallGroup(f), groupKey(g.Name, mMembers)).claim(Claimed(Fig(groupKey(g.Name, mMembers)), OpLess, Num(SmallGroup)))
 			s.Thresholds = []float64{SmallGroup}
 			out = append(out, s)
@@ -271,7 +271,7 @@ func (c *composer) briefCaveats(sc *scope) []Sentence {
 		// prints quarters of five values should still say they are
 		// unstable.
 		if n := len(g.Members); n > 0 && n < SmallGroup {
-			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup)}
+			f := CaveatFact{Seed: g.Name, Group: c.phrase(g), N: printCount(n), Threshold: printCount(SmallGroup), RanksOnly: n < c.floor()}
 			s := c.say("", c.w.SmallGroupBrief(f), groupKey(g.Name, mMembers)).claim(Claimed(Fig(groupKey(g.Name, mMembers)), OpLess, Num(SmallGroup)))
 			s.Thresholds = []float64{SmallGroup}
 			out = append(out, s)

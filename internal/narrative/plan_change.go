@@ -150,6 +150,9 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 	}
 	f.Seed, f.Turn = c.next("change")
 	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...).claim(c.valueChangeClaims(g, ind, cd)...)}
+	if cd.useTrend && f.Direction != Level {
+		out = append(out, c.oneYear(g, ind, false)...)
+	}
 	if !cd.hasMed || cd.d1.N < 2 {
 		return out
 	}

@@ -6,6 +6,7 @@ import (
 	"strconv"
 	"strings"
 
+	"peerpack/internal/dataset"
 	"peerpack/internal/figures"
 	"peerpack/internal/format"
 	"peerpack/internal/peers"
@@ -107,7 +108,7 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 	var focus []Sentence
 	fid := c.m.FocusID
 	if pm.FocusCluster < 0 {
-		focus = append(focus, say(fmt.Sprintf("%s is not in any cluster: it is outside the ranked population or lacks a value of one of these indicators in %d.", c.focus, pm.Year)))
+		focus = append(focus, say(fmt.Sprintf("%s is not in any cluster: it is outside the ranked population or lacks a value of one of these indicators in %d.", c.focus, pm.Year), top("n_clustered")))
 	} else {
 		k := pm.Clusters[pm.FocusCluster]
 		g := figures.ClusterGroup(k.Number)
@@ -269,9 +270,26 @@ func joinAnd(items []string) string {
 
 // peersRenderings are the printed forms of a peers row Verify accepts.
 func peersRenderings(m *figures.Model, r figures.Row) []string {
+	out := clusterNumber(r)
 	v := r.Value
 	whole := int(math.Round(v))
 	ind, hasInd := m.Indicator(r.Indicator)
+	return append(out, peersValueRenderings(m, r, v, whole, ind, hasInd)...)
+}
+
+// clusterNumber: a figure of a cluster ("cluster 5") may be named by the
+// cluster's number alone, as a list of clusters does ("Clusters 2 (0.40)
+// and 5 (0.41) are fragile").
+func clusterNumber(r figures.Row) []string {
+	if n, ok := strings.CutPrefix(r.Group, "cluster "); ok {
+		if _, err := strconv.Atoi(n); err == nil {
+			return []string{n}
+		}
+	}
+	return nil
+}
+
+func peersValueRenderings(m *figures.Model, r figures.Row, v float64, whole int, ind dataset.Indicator, hasInd bool) []string {
 	switch {
 	case r.Measure == "companions" || r.Measure == "recovered" || strings.HasSuffix(r.Measure, "_explained"):
 		return []string{pct(v), format.Int(int(math.Round(v * 100)))}

@@ -60,8 +60,10 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	f := c.positionFact(g, ind, p, d)
 	f.Seed = seed
 	if c.small(d) {
-		// Below the floor: the rank "of n" only, no quarter.
+		// Below the floor: the rank "of n" only, no quarter, and no
+		// quartile as a target either (the gaps name a rank to reach).
 		f.Quartile = 0
+		f.Target, f.GapTarget, f.TargetDiff, f.Reached, f.TargetLevel = "", "", "", false, false
 	} else {
 		f.Edge = c.edge(p.Percentile)
 	}
@@ -72,6 +74,9 @@ func (c *composer) position(g *figures.Group, ind dataset.Indicator, year int) [
 	f.YearSaid = c.said[c.part+"\x00year"+f.Year]
 	f.ValueSaid = c.said[c.part+"\x00value\x00"+ind.Key+"\x00"+f.Year]
 	f.Seed, f.Turn = c.next("position")
+	if c.said[c.part+"\x00rank\x00"+g.Name+"\x00"+ind.Key] {
+		return c.valueAndDistance(g, ind, p, f)
+	}
 	if p.InGroup && d.N == 1 {
 		return []Sentence{c.say(ind.Key, c.w.Alone(f), posKey(g.Name, ind.Key, id, year, mValue), distKey(g.Name, ind.Key, year, mN)).
 			claim(Claimed(Fig(distKey(g.Name, ind.Key, year, mN)), OpEqual, Num(1)))}
@@ -256,4 +261,24 @@ func printedDistance(ind dataset.Indicator, v, ref, diff float64) string {
 		return ""
 	}
 	return printAmount(ind, math.Abs(diff))
+}
+
+// valueAndDistance is a position whose rank a shared-rank sentence of the
+// part has given (sharedRanks): the value, unless the sentence before
+// gave it, then the distance to the median with the group named.
+func (c *composer) valueAndDistance(g *figures.Group, ind dataset.Indicator, p *figures.Position, f PositionFact) []Sentence {
+	id := c.m.FocusID
+	f.RankSaid = true
+	var out []Sentence
+	if !f.ValueSaid {
+		out = append(out, c.say(ind.Key, c.w.Position(f), posKey(g.Name, ind.Key, id, p.Year, mValue)))
+		c.said[c.part+"\x00year"+f.Year] = true
+		c.said[c.part+"\x00value\x00"+ind.Key+"\x00"+f.Year] = true
+	}
+	dc := []figures.Key{distKey(g.Name, ind.Key, p.Year, mMedian)}
+	if f.MedianDiff != "" {
+		dc = append(dc, posKey(g.Name, ind.Key, id, p.Year, mVsMedian))
+	}
+	f.Target = "" // the shared places are first or last: the median is the reference
+	return append(out, c.say(ind.Key, c.w.Distance(f), dc...).claim(c.distanceClaims(g, ind, p, f)...))
 }

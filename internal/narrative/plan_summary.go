@@ -418,6 +418,7 @@ func (c *composer) headline(sc *scope, groupNamed bool) []Sentence {
 		}
 	}
 	claims = append(claims, c.percentileChangeClaims(g, bestInd, best)...)
-	return []Sentence{c.say(bestInd.Key, c.w.Headline(best.f),
-		posKey(g.Name, bestInd.Key, id, best.p0.Year, mPercentile), posKey(g.Name, bestInd.Key, id, best.p1.Year, mPercentile)).claim(claims...)}
+	return append([]Sentence{c.say(bestInd.Key, c.w.Headline(best.f),
+		posKey(g.Name, bestInd.Key, id, best.p0.Year, mPercentile), posKey(g.Name, bestInd.Key, id, best.p1.Year, mPercentile)).claim(claims...)},
+		c.oneYear(g, bestInd, true)...)
 }

@@ -15,7 +15,8 @@ import (
 // worlds drawn from a fixed seed (units, every polarity, decimals, missing
 // values, ties, groups from one member to thousands, populations that
 // change size between years, competitor systems, rank bands, noise and
-// floor settings, every style and topic) and checks that nothing panics,
+// floor settings, every style and topic, composites and peer clusters)
+// and checks that nothing panics,
 // that Verify finds every printed number among the cited figures, and
 // that every claim recorded holds: zero false claims over 200 worlds.
 func TestRandomSituationsAreTraceable(t *testing.T) {
@@ -29,7 +30,9 @@ func TestRandomSituationsAreTraceable(t *testing.T) {
 	kinds := map[string]int{"broadly unchanged": 0, " band of ": 0, "joint ": 0, "is not a member of": 0,
 		"Placed among the institutions of": 0, "coverage": 0, "value judgement": 0, "purchasing-power": 0,
 		"percentile": 0, "would take": 0, "has no place": 0, "highest of": 0,
-		"at the edge of": 0, "ranks first on": 0, "no quarters or percentiles": 0, "largest movement": 0}
+		"at the edge of": 0, "ranks first on": 0, "no quarters or percentiles": 0, "largest movement": 0,
+		"composite": 0, "cluster": 0, "Against the median of": 0, "in one year": 0, "association": 0,
+		"indicators here:": 0}
 	defer func() {
 		if testing.Short() || t.Failed() {
 			return
@@ -90,7 +93,7 @@ func randomSituation(rng *rand.Rand) string {
 		{dataset.UnitShare, 0, 1, 3, false},
 	}
 	pol := []dataset.Polarity{dataset.HigherIsBetter, dataset.LowerIsBetter, dataset.Neutral}
-	nInd := 1 + rng.Intn(4)
+	nInd := 1 + rng.Intn(5)
 	var inds []map[string]any
 	type col struct {
 		key      string
@@ -133,6 +136,9 @@ func randomSituation(rng *rand.Rand) string {
 	// A population that changes size: in some worlds most institutions
 	// report nothing in the first year.
 	thin := rng.Intn(5) == 0
+	// A focus beyond every other value on every indicator: first or last
+	// everywhere, so shared places are said once.
+	extreme := rng.Intn(6) == 0
 	insts := map[string][]any{}
 	ids := []string{"F"}
 	for j := 0; j < nInst; j++ {
@@ -148,6 +154,8 @@ func randomSituation(rng *rand.Rand) string {
 			base := c.lo + rng.Float64()*(c.hi-c.lo)
 			for yi := range years {
 				switch {
+				case extreme && id == "F":
+					row = append(row, c.hi+(c.hi-c.lo)/10)
 				case thin && yi == 0 && rng.Intn(3) > 0:
 					row = append(row, nil)
 				case rng.Intn(8) == 0:
@@ -186,7 +194,7 @@ func randomSituation(rng *rand.Rand) string {
 	}
 	if rng.Intn(3) == 0 {
 		var topics []string
-		for _, tp := range []string{"position", "strengths", "change", "gaps", "competition", "caveats"} {
+		for _, tp := range []string{"position", "strengths", "change", "gaps", "competition", "caveats", "profile", "association"} {
 			if rng.Intn(2) == 0 {
 				topics = append(topics, tp)
 			}
@@ -210,6 +218,49 @@ func randomSituation(rng *rand.Rand) string {
 	}
 	if rng.Intn(2) == 0 {
 		doc["language"] = "en-US"
+	}
+	// A composite over the judged indicators (neutral ones are refused),
+	// in one or two pillars, sometimes with Monte Carlo runs; peer
+	// clusters over every indicator in worlds large enough to cluster.
+	var judged []string
+	for _, ind := range inds {
+		if ind["better"] != string(dataset.Neutral) {
+			judged = append(judged, ind["key"].(string))
+		}
+	}
+	if len(judged) > 0 && rng.Intn(3) == 0 {
+		pillars := []map[string]any{}
+		split := 1 + rng.Intn(len(judged))
+		for i, part := range [][]string{judged[:split], judged[split:]} {
+			if len(part) == 0 {
+				continue
+			}
+			w := map[string]any{}
+			for _, k := range part {
+				w[k] = 1 + rng.Intn(3)
+			}
+			pillars = append(pillars, map[string]any{"key": fmt.Sprintf("p%d", i), "label": fmt.Sprintf("Pillar %d", i+1), "weight": 1 + rng.Intn(3), "indicators": w})
+		}
+		comp := map[string]any{
+			"normalise": []string{"zscore", "minmax", "percentile"}[rng.Intn(3)],
+			"pillars":   pillars,
+			"missing":   map[string]any{"min_share": 0.5, "impute": []string{"none", "group-median"}[rng.Intn(2)]},
+		}
+		if rng.Intn(2) == 0 {
+			comp["uncertainty"] = map[string]any{"runs": 20 + rng.Intn(80), "weights": 0.25, "seed": rng.Intn(100)}
+		}
+		doc["composite"] = comp
+	}
+	if len(cols) >= 2 && nInst >= 30 && nInst < 1000 && rng.Intn(3) == 0 {
+		var keys []string
+		for _, c := range cols {
+			keys = append(keys, c.key)
+		}
+		peers := map[string]any{"indicators": keys, "seed": rng.Intn(100), "restarts": 3, "resamples": rng.Intn(4)}
+		if rng.Intn(2) == 0 {
+			peers["k"] = 2 + rng.Intn(3)
+		}
+		doc["peers"] = peers
 	}
 	out, err := yaml.Marshal(doc)
 	if err != nil {

@@ -54,7 +54,12 @@ type situation struct {
 	// is never read from a dictionary).
 	International []string  `yaml:"international"`
 	Groups        yaml.Node `yaml:"groups"`
-	Block         yaml.Node `yaml:"block"`
+	// Composite and Peers are the brief's composite: and peers: sections,
+	// written as given; with Peers a clusters block follows the
+	// commentary.
+	Composite yaml.Node `yaml:"composite"`
+	Peers     yaml.Node `yaml:"peers"`
+	Block     yaml.Node `yaml:"block"`
 	// Repeat writes the block this many times (default once), as a brief
 	// asking twice for the same commentary would.
 	Repeat int `yaml:"repeat"`
@@ -189,11 +194,26 @@ func (s *situation) build(t *testing.T) (*figures.Model, *brief.Brief) {
 	for _, line := range strings.Split(strings.TrimRight(nodeYAML(t, &s.Groups), "\n"), "\n") {
 		fm.WriteString("  " + line + "\n")
 	}
+	for _, sec := range []struct {
+		name string
+		node *yaml.Node
+	}{{"composite", &s.Composite}, {"peers", &s.Peers}} {
+		if sec.node.Kind == 0 {
+			continue
+		}
+		fm.WriteString(sec.name + ":\n")
+		for _, line := range strings.Split(strings.TrimRight(nodeYAML(t, sec.node), "\n"), "\n") {
+			fm.WriteString("  " + line + "\n")
+		}
+	}
 	fm.WriteString("---\n\n# Situation\n")
 	for range max(s.Repeat, 1) {
 		fm.WriteString("\n```commentary\n")
 		fm.WriteString(nodeYAML(t, &s.Block))
 		fm.WriteString("```\n")
+	}
+	if s.Peers.Kind != 0 {
+		fm.WriteString("\n```clusters\n```\n")
 	}
 	b, err := brief.Parse("brief.md", []byte(fm.String()))
 	if err != nil {

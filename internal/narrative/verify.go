@@ -99,6 +99,14 @@ func verifyNames(m *figures.Model, w Wording) []string {
 	}
 	for _, in := range reg.Institutions {
 		add(in.Country)
+		// Clusters and nearest profiles name institutions beyond the
+		// tracked ones; a digit in a name is not a number.
+		add(in.Name)
+	}
+	if m.CompositeSpec != nil {
+		for _, p := range m.CompositeSpec.Pillars {
+			add(p.Label)
+		}
 	}
 	for _, ind := range m.Data.Dictionary.Indicators {
 		add(ind.Label)
@@ -146,11 +154,11 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 	ind, hasInd := m.Indicator(r.Indicator)
 	whole := int(math.Round(v))
 	switch r.Measure {
-	case "value", "median", "q1", "q3", "min", "max", "mean", "start_value", "end_value", "median_start", "median_end":
+	case "value", "median", "q1", "q3", "min", "max", "mean", "start_value", "end_value", "median_start", "median_end", figures.MeasureTargetRankValue:
 		if hasInd {
 			out = append(out, format.Value(ind, v), format.Number(v, ind.Decimals))
 		}
-	case "gap_median", "gap_better_quartile", "vs_median", "vs_better_quartile", "change", "median_change", "iqr", "sd":
+	case "gap_median", "gap_better_quartile", "vs_median", "vs_better_quartile", "change", "median_change", "iqr", "sd", figures.MeasureTargetRankGap, figures.MeasureLargestStep:
 		if hasInd {
 			out = append(out, format.Difference(ind, v), format.Number(math.Abs(v), ind.Decimals), format.Value(ind, math.Abs(v)))
 		}
@@ -161,7 +169,7 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 		out = append(out, format.Number(v, 1), format.Number(math.Abs(v), 1))
 	case "pearson", "spearman":
 		out = append(out, format.Number(v, 2), format.Number(math.Abs(v), 2))
-	case "rank":
+	case "rank", figures.MeasureTargetRank:
 		out = append(out, format.Rank(whole, bands), format.Ordinal(whole), format.Int(whole))
 	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n":
 		out = append(out, format.Int(whole))

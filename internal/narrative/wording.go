@@ -32,6 +32,14 @@ type Wording interface {
 
 	Position(f PositionFact) string
 	Distance(f PositionFact) string
+	// SharedRank: one first or last place on several indicators, said
+	// once ("last of 8 on six of the eleven indicators here: ...").
+	SharedRank(f SharedRankFact) string
+	// OneYear: a movement that came mostly in one year-to-year step.
+	OneYear(f StepFact) string
+	// Profile: the focus's values against a group's median across a
+	// radar's indicators.
+	Profile(f ProfileFact) string
 	FocusMissing(f MissingFact) string
 	// LeftOut: the indicators (f.Indicator, a list) a summary cannot
 	// place because the focus reports no value for the year.
@@ -166,6 +174,25 @@ type PositionFact struct {
 	// Introduced is set once the sentences of a part have said that the
 	// focus is not a member of this group.
 	Introduced bool
+	// RankSaid: a shared-rank sentence of the part has given this rank
+	// already, so the position gives the value only and the distance
+	// names the group.
+	RankSaid bool
+}
+
+// SharedRankFact is one first or last place of the same number on
+// several indicators of a block.
+type SharedRankFact struct {
+	Seed    string
+	Focus   string
+	Group   string
+	Last    bool
+	Of      string
+	InGroup bool
+	// Indicators are the names, in the block's order; Count is how many,
+	// Total how many indicators the block covers.
+	Indicators   []string
+	Count, Total int
 }
 
 // MissingFact describes a value that is not there.
@@ -322,6 +349,10 @@ type GapFact struct {
 	// printed values; Value is the focus's printed value.
 	Amount string
 	Value  string
+	// Rank, when set, is the place the target reaches ("2nd of 8"): the
+	// group is below the small-group floor, so the target is a rank, not
+	// the top quarter, and the wording must not speak of quarters.
+	Rank string
 	// GroupNamed (on the first fact of a list) is set when an earlier
 	// sentence of the paragraph has named the group.
 	GroupNamed bool
@@ -347,6 +378,9 @@ type CaveatFact struct {
 	// converted ones, and Derived those computed from converted amounts.
 	Indicators []string
 	Derived    []string
+	// RanksOnly: the group is below the brief's small-group floor, so the
+	// pack gives its ranks and no quarters.
+	RanksOnly bool
 }
 
 // DirectionFact lists, for the executive summary, the indicators on which
@@ -368,12 +402,17 @@ type AssociationFact struct {
 	N     string
 	Year  string
 	Rho   string
+	// R is Pearson's r printed, the measure the chart's least-squares line
+	// follows ("" when the model has none).
+	R string
 	// Strength is Above (clear, |rho| >= AssociationClear), Level (loose)
 	// or Below (little association); Negative when higher X goes with
 	// lower Y.
 	Strength int
 	Negative bool
 	// Threshold, for AssociationTooFew, is the printed minimum number of
-	// members reporting both.
+	// members reporting both; Constant says there were enough, but one of
+	// the two takes a single value among them.
 	Threshold string
+	Constant  bool
 }

@@ -99,6 +99,8 @@ var englishHeadings = map[string]string{
 	"gaps":        "Gaps",
 	"caveats":     "Caveats",
 	"association": "How indicators move together",
+	"ranks":       "Places held on several indicators",
+	"profile":     "Profile against the median",
 }
 
 // Heading names a topic.
@@ -211,6 +213,8 @@ func (e english) Position(f PositionFact) string {
 	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "in", e.in(f.Group),
 		"value", f.Value, "inYear", inYear, "rank", e.rank(f), "q", q, "members", f.Members}
 	switch {
+	case f.RankSaid:
+		return e.fill("{focus's} figure is {value}{inYear}.", kv...)
 	case !f.InGroup && !f.Introduced:
 		its := "its {value}{inYear}"
 		if f.ValueSaid {
@@ -299,6 +303,10 @@ func (e english) Distance(f PositionFact) string {
 	tmpl := [...]string{
 		"That is {rel} the group median of {median}" + tail + target + ".",
 		"The median of {group} is {median}; {focus} is {rel} it" + tail + target + ".",
+	}
+	if f.RankSaid {
+		// After a bare value the group must be named.
+		return e.fill(tmpl[1], kv...)
 	}
 	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
 }
@@ -717,7 +725,19 @@ func (e english) Gap(f GapFact) string {
 	if f.Better == dataset.LowerIsBetter {
 		q, change = "lower quartile", "a reduction"
 	}
-	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value}
+	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "group", f.Group, "target", f.Target, "amount", f.Amount, "value", f.Value,
+		"rank", f.Rank, "in", e.in(f.Group)}
+	if f.Rank != "" {
+		// Below the small-group floor: a rank to reach, never a quarter.
+		if f.Amount == "" {
+			return e.fill("Reaching {rank} {in} would take {focus's} figure from {value} to {target}.", kv...)
+		}
+		tmpl := [...]string{
+			"Reaching {rank} {in} would take " + change + " of {amount}, to {target}.",
+			"{focus} would need " + change + " of {amount} (to {target}) to rank {rank} {in}.",
+		}
+		return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
+	}
 	if f.Amount == "" {
 		return e.fill("Reaching the "+q+" of {group} would take {focus's} figure from {value} to {target}.", kv...)
 	}
@@ -732,29 +752,54 @@ func (e english) Gap(f GapFact) string {
 // GapList: the gaps of the summary's weakest indicators (one or more) in
 // one sentence that names each indicator.
 func (e english) GapList(fs []GapFact) string {
+	// Below the small-group floor the targets are ranks ("2nd of 8"):
+	// one rank for every item is said once, otherwise each item says its
+	// own; no quarter is named then.
+	ranks, same := 0, true
+	for _, f := range fs {
+		if f.Rank != "" {
+			ranks++
+		}
+		same = same && f.Rank == fs[0].Rank
+	}
 	parts := make([]string, len(fs))
 	for i, f := range fs {
 		change := "an increase"
 		if f.Better == dataset.LowerIsBetter {
 			change = "a reduction"
 		}
+		to := "to " + f.Target
+		if ranks > 0 && !same {
+			if f.Rank != "" {
+				to += ", which would rank " + f.Rank
+			} else {
+				to += ", the top quarter's threshold"
+			}
+		}
 		if f.Amount == "" {
-			parts[i] = "a move in " + f.Indicator + " from " + f.Value + " to " + f.Target
+			parts[i] = "a move in " + f.Indicator + " from " + f.Value + " " + to
 		} else {
-			parts[i] = change + " of " + f.Amount + " in " + f.Indicator + " (to " + f.Target + ")"
+			parts[i] = change + " of " + f.Amount + " in " + f.Indicator + " (" + to + ")"
 		}
 	}
-	tmpl := "Reaching the top quarter of {group} on {focus's} {n} weakest indicators would take {items}."
+	aim := "the top quarter"
+	if ranks > 0 && same {
+		aim = fs[0].Rank
+	}
+	tmpl := "Reaching {aim} {in} on {focus's} {n} weakest indicators would take {items}."
+	if ranks == 0 {
+		tmpl = "Reaching {aim} of {group} on {focus's} {n} weakest indicators would take {items}."
+	}
 	if fs[0].GroupNamed {
-		tmpl = "Reaching the top quarter on its {n} weakest indicators would take {items}."
+		tmpl = "Reaching {aim} on its {n} weakest indicators would take {items}."
 	}
 	if len(fs) == 1 {
-		tmpl = "Reaching the top quarter of {group} on {focus's} weakest indicator would take {items}."
-		if fs[0].GroupNamed {
-			tmpl = "Reaching the top quarter on its weakest indicator would take {items}."
-		}
+		tmpl = strings.Replace(tmpl, "{n} weakest indicators", "weakest indicator", 1)
 	}
-	return e.fill(tmpl, "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
+	if ranks > 0 && !same {
+		tmpl = strings.Replace(tmpl, "Reaching {aim}", "Moving up", 1)
+	}
+	return e.fill(tmpl, "aim", aim, "in", e.in(fs[0].Group), "group", fs[0].Group, "focus's", possessive(fs[0].Focus), "n", smallNumberWord(len(fs)), "items", e.List(parts))
 }
 
 // ByConstruction: peers chosen for closeness on an indicator.
@@ -771,7 +816,11 @@ func (e english) Skewed(f CaveatFact) string {
 
 // SmallGroup: fewer members than quartiles can bear.
 func (e english) SmallGroup(f CaveatFact) string {
-	return e.fill("The comparison {in} rests on {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, so those ranks are indicative only.",
+	only := "so those ranks are indicative only"
+	if f.RanksOnly {
+		only = "so the pack gives ranks only there, and they are indicative"
+	}
+	return e.fill("The comparison {in} rests on {n} {members}, fewer than the {threshold} that common practice asks for before quartiles are read as stable, "+only+".",
 		"in", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
 }
 
@@ -863,6 +912,10 @@ func (e english) OneCountry(f CaveatFact) string {
 
 // SmallGroupBrief: the summary's short small-group caveat.
 func (e english) SmallGroupBrief(f CaveatFact) string {
+	if f.RanksOnly {
+		return e.fill("{In} there are only {n} {members}, too few for stable quartiles (common practice asks for at least {threshold}), so the pack gives ranks there, not quarters.",
+			"In", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
+	}
 	return e.fill("Quartiles {in} rest on only {n} {members}, too few to be stable (common practice asks for at least {threshold}).",
 		"in", e.in(f.Group), "n", f.N, "members", pluralMembers(f.N), "threshold", f.Threshold)
 }
@@ -917,9 +970,13 @@ func smallNumberWord(n int) string {
 
 // Association: two indicators across a group's members, never as cause.
 func (e english) Association(f AssociationFact) string {
-	kv := []string{"x", f.X, "y", f.Y, "n", f.N, "group", f.Group, "year", f.Year, "rho", f.Rho}
+	kv := []string{"x", f.X, "y", f.Y, "n", f.N, "group", f.Group, "year", f.Year, "rho", f.Rho, "r", f.R}
+	coef := "Spearman's rank correlation {rho}"
+	if f.R != "" {
+		coef += "; Pearson's r {r}"
+	}
 	if f.Strength == Below {
-		return e.fill("Across the {n} members of {group} reporting both in {year}, {x} and {y} show little association (Spearman's rank correlation {rho}).", kv...)
+		return e.fill("Across the {n} members of {group} reporting both in {year}, {x} and {y} show little association ("+coef+").", kv...)
 	}
 	how := "clearly"
 	if f.Strength == Level {
@@ -929,11 +986,15 @@ func (e english) Association(f AssociationFact) string {
 	if f.Negative {
 		with = "lower"
 	}
-	return e.fill("Across the {n} members of {group} reporting both in {year}, higher {x} goes "+how+" with "+with+" {y} (Spearman's rank correlation {rho}); that is an association, not evidence that one causes the other.", kv...)
+	return e.fill("Across the {n} members of {group} reporting both in {year}, higher {x} goes "+how+" with "+with+" {y} ("+coef+"); that is an association, not evidence that one causes the other.", kv...)
 }
 
 // AssociationTooFew: pairs with too few members reporting both.
 func (e english) AssociationTooFew(f AssociationFact) string {
+	if f.Constant {
+		return e.fill("Across the {n} members of {group} reporting both {x} and {y} in {year}, one of the two takes a single value, so no correlation can be read.",
+			"n", f.N, "group", f.Group, "x", f.X, "y", f.Y, "year", f.Year)
+	}
 	lead := "Only {n} members of {group} report"
 	switch f.N {
 	case "0":

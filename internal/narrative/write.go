@@ -50,6 +50,20 @@ func (c *composer) writeSummary(sc *scope) []Paragraph {
 	if sc.has("systems") {
 		out = append(out, c.systemsParagraphs(sc)...)
 	}
+	// A summary asked for a profile or an association writes it too,
+	// under its own heading, as the other styles do.
+	for _, topic := range []string{"profile", "association"} {
+		if !sc.has(topic) {
+			continue
+		}
+		s := c.profile(sc)
+		if topic == "association" {
+			s = c.association(sc)
+		}
+		if len(s) > 0 {
+			out = append(out, Paragraph{Heading: c.w.Heading(topic), Sentences: s})
+		}
+	}
 	if sc.has("competition") {
 		comp, sh := c.sharedLeads(sc)
 		for _, g := range sc.systems {
@@ -93,9 +107,19 @@ func (c *composer) writeDetail(sc *scope) []Paragraph {
 			out = append(out, Paragraph{Heading: c.w.Heading("strengths"), Sentences: s})
 		}
 	}
+	// One first or last place shared by several indicators is said once,
+	// before the indicators' paragraphs.
+	if s := c.sharedRanks(sc); len(s) > 0 {
+		out = append(out, Paragraph{Heading: c.w.Heading("ranks"), Sentences: s})
+	}
 	for _, ind := range sc.inds {
 		if s := c.indicatorSentences(sc, ind); len(s) > 0 {
 			out = append(out, Paragraph{Heading: headingOf(ind), Sentences: s})
+		}
+	}
+	if sc.has("profile") {
+		if s := c.profile(sc); len(s) > 0 {
+			out = append(out, Paragraph{Heading: c.w.Heading("profile"), Sentences: s})
 		}
 	}
 	if sc.has("association") {
@@ -185,6 +209,11 @@ func (c *composer) writeBullets(sc *scope) []Paragraph {
 		}
 		if len(s) > 0 {
 			out = append(out, Paragraph{Bullet: true, Heading: headingOf(ind), Sentences: s})
+		}
+	}
+	if sc.has("profile") {
+		for _, s := range c.profile(sc) {
+			out = append(out, Paragraph{Bullet: true, Sentences: []Sentence{s}})
 		}
 	}
 	if sc.has("association") {

@@ -48,7 +48,7 @@ func (w *writer) chart(cb *brief.ChartBlock) {
 		w.failAt(cb.At, "size: half has no effect inside columns: a chart there takes its column's width; remove size: half, or end the columns before the chart (a columns block with count: 1)")
 		return
 	}
-	ch, err := charts.New(w.m, cb, w.chartTheme())
+	ch, err := w.planChart(cb)
 	if err != nil {
 		w.chartProblem(cb, err)
 		return
@@ -65,6 +65,32 @@ func (w *writer) chart(cb *brief.ChartBlock) {
 		return
 	}
 	w.setCharts([]placed{p}, false)
+}
+
+// chartPlans are the charts of one render, planned once and set by every
+// pass: a chart's plan depends only on the model, its block and the
+// theme, which no pass changes.
+type chartPlans struct {
+	byBlock map[*brief.ChartBlock]chartPlan
+}
+
+type chartPlan struct {
+	ch  charts.Chart
+	err error
+}
+
+// planChart plans a chart block, or returns the plan an earlier pass made.
+func (w *writer) planChart(cb *brief.ChartBlock) (charts.Chart, error) {
+	ps := w.in.plans
+	if ps == nil {
+		return charts.New(w.m, cb, w.chartTheme())
+	}
+	if p, ok := ps.byBlock[cb]; ok {
+		return p.ch, p.err
+	}
+	ch, err := charts.New(w.m, cb, w.chartTheme())
+	ps.byBlock[cb] = chartPlan{ch, err}
+	return ch, err
 }
 
 func (w *writer) chartProblem(cb *brief.ChartBlock, err error) {

@@ -44,6 +44,10 @@ type Input struct {
 	// generic one is given). Both go into "About these figures".
 	Sources []provenance.File
 	Rebuild string
+
+	// plans holds the charts planned by an earlier pass of the same
+	// render (nil: plan afresh).
+	plans *chartPlans
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief
@@ -65,6 +69,9 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	if in.Brief == nil || in.Model == nil {
 		return nil, nil, fmt.Errorf("internal error: layout needs a brief and a figures model")
 	}
+	// Every pass sets the same charts from the same model: plan each once
+	// (charts.New, and the measuring each chart caches by width).
+	in.plans = &chartPlans{byBlock: map[*brief.ChartBlock]chartPlan{}}
 	first, err := pass(in, nil, nil)
 	if err != nil {
 		return nil, nil, err

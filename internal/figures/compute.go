@@ -70,6 +70,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 			m.Years = append(m.Years, y)
 		}
 	}
+	m.corrNeed = m.correlationNeeds(b)
 	if err := m.compute(); err != nil {
 		probs.Add(err)
 		return nil, probs
@@ -107,13 +108,27 @@ type columnResult struct {
 // is turned into an error so that it cannot reach the user as a crash.
 func (m *Model) compute() error {
 	nInd := len(m.Data.Dictionary.Indicators)
-	m.yearOrder = registerOrders(m.Data, m.Year)
+	// Correlations only where the brief reads them (correlationNeeds).
+	var corrGroups []int
+	used := make([]bool, nInd)
+	for gi, need := range m.corrNeed {
+		if need == nil {
+			continue
+		}
+		corrGroups = append(corrGroups, gi)
+		for k, on := range need {
+			used[k] = used[k] || on
+		}
+	}
+	if len(corrGroups) > 0 {
+		m.yearOrder = registerOrders(m.Data, m.Year, used)
+	}
 	results := make([]columnResult, len(m.Groups)*nInd)
 	corrs := make([][]Correlation, len(m.Groups))
 	jobs := make(chan int)
 	workers := runtime.GOMAXPROCS(0)
-	if workers > len(results)+len(m.Groups) {
-		workers = len(results) + len(m.Groups)
+	if workers > len(results)+len(corrGroups) {
+		workers = len(results) + len(corrGroups)
 	}
 	var wg sync.WaitGroup
 	var failMu sync.Mutex
@@ -140,13 +155,13 @@ func (m *Model) compute() error {
 					results[j], buf = m.column(g, k, buf)
 				} else {
 					gi := j - len(results)
-					corrs[gi] = m.correlations(m.Groups[gi])
+					corrs[gi] = m.correlations(m.Groups[gi], m.corrNeed[gi])
 				}
 			}
 		}()
 	}
 	// Correlation jobs are the longest; start them first.
-	for gi := range m.Groups {
+	for _, gi := range corrGroups {
 		jobs <- len(results) + gi
 	}
 	for j := range results {

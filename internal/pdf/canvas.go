@@ -86,21 +86,28 @@ func (c *Canvas) top() *canvasState { return &c.stack[len(c.stack)-1] }
 // num formats a coordinate with at most 3 decimals (1/1000 pt is far below
 // any printer's resolution) and no exponent.
 func num(v float64) string {
+	var b [32]byte
+	return string(appendNum(b[:0], v))
+}
+
+// appendNum appends num(v) to b.
+func appendNum(b []byte, v float64) []byte {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		v = 0
 	}
-	s := strconv.FormatFloat(v, 'f', 3, 64)
+	start := len(b)
+	b = strconv.AppendFloat(b, v, 'f', 3, 64)
 	// Trim trailing zeros for smaller streams.
-	for len(s) > 1 && s[len(s)-1] == '0' {
-		s = s[:len(s)-1]
+	for len(b)-start > 1 && b[len(b)-1] == '0' {
+		b = b[:len(b)-1]
 	}
-	if s[len(s)-1] == '.' {
-		s = s[:len(s)-1]
+	if b[len(b)-1] == '.' {
+		b = b[:len(b)-1]
 	}
-	if s == "-0" {
-		s = "0"
+	if len(b)-start == 2 && b[start] == '-' && b[start+1] == '0' {
+		b = append(b[:start], '0')
 	}
-	return s
+	return b
 }
 
 // Size implements vg.Canvas.
@@ -201,9 +208,9 @@ func (c *Canvas) Fill(p vg.Path) {
 type pathWriter struct{ b []byte }
 
 func (w *pathWriter) pt(x, y vg.Length) {
-	w.b = append(w.b, num(float64(x))...)
+	w.b = appendNum(w.b, float64(x))
 	w.b = append(w.b, ' ')
-	w.b = append(w.b, num(float64(y))...)
+	w.b = appendNum(w.b, float64(y))
 	w.b = append(w.b, ' ')
 }
 

@@ -276,14 +276,16 @@ func outlierMembers(members []int, col []float64, b stats.Box) []int {
 		inst int
 		v    float64
 	}
-	var out []ov
+	out := make([]ov, 0, len(b.OutlierValues))
 	for _, i := range members {
 		v := col[i]
 		if !math.IsNaN(v) && (v < b.WhiskerLow || v > b.WhiskerHigh) {
 			out = append(out, ov{i, v})
 		}
 	}
-	slices.SortStableFunc(out, func(a, b ov) int {
+	// (value, position) is a total order (positions are distinct), so an
+	// unstable sort gives the one result.
+	slices.SortFunc(out, func(a, b ov) int {
 		switch {
 		case a.v < b.v:
 			return -1

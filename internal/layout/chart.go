@@ -86,6 +86,9 @@ func (w *writer) planChart(cb *brief.ChartBlock) (charts.Chart, error) {
 		return charts.New(w.m, cb, w.chartTheme())
 	}
 	if p, ok := ps.byBlock[cb]; ok {
+		if !w.measuring {
+			w.in.predraw.settle(cb)
+		}
 		return p.ch, p.err
 	}
 	ch, err := charts.New(w.m, cb, w.chartTheme())
@@ -201,7 +204,9 @@ func (w *writer) setCharts(row []placed, half bool) {
 			y += w.st.lineHeight(chartTitleSize)
 		}
 		y = top + titleH
-		if !w.measuring {
+		if w.measuring {
+			w.sized = append(w.sized, sizedChart{spec: p.spec, ch: p.ch, width: width, height: heights[i]})
+		} else {
 			if err := w.drawChart(p, x, y, width, heights[i]); err != nil {
 				w.chartProblem(p.spec, err)
 			}
@@ -243,6 +248,13 @@ func (w *writer) chartTexts(spec *brief.ChartBlock, no int, width float64) chart
 // drawChart draws a chart onto a canvas over its rectangle; a panic in a
 // chart is turned into a positioned error rather than ending the build.
 func (w *writer) drawChart(p placed, x, y, width, height float64) (err error) {
+	if rec, ok, err := w.in.predraw.recording(p.spec, width, height); ok {
+		if err == nil {
+			w.doc.Replay(rec, x, y)
+			w.in.predraw.replayed.Add(1)
+		}
+		return err
+	}
 	c := w.doc.Canvas(x, y, width, height)
 	defer func() {
 		c.Close()

@@ -46,8 +46,10 @@ type Input struct {
 	Rebuild string
 
 	// plans holds the charts planned by an earlier pass of the same
-	// render (nil: plan afresh).
-	plans *chartPlans
+	// render (nil: plan afresh); predraw the final pass's charts being
+	// drawn ahead of it (nil: draw in line).
+	plans   *chartPlans
+	predraw *predraw
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief
@@ -110,7 +112,12 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	}
 	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
+	// The charts are drawn ahead of the final pass, which sets the text,
+	// on the other processors.
+	in.predraw = startPredraw(first.sized, in.plans)
+	defer in.predraw.finish()
 	second, err := pass(in, rec, plan)
+	in.predraw.finish()
 	if err != nil {
 		return nil, nil, err
 	}

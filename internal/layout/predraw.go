@@ -32,9 +32,9 @@ type predraw struct {
 	// replayed counts the charts set from their recordings (for tests).
 	replayed atomic.Int64
 	items    []*predrawn
-	bySpec map[*brief.ChartBlock][]*predrawn
-	stop   atomic.Bool
-	wg     sync.WaitGroup
+	bySpec   map[*brief.ChartBlock][]*predrawn
+	stop     atomic.Bool
+	wg       sync.WaitGroup
 }
 
 type predrawn struct {

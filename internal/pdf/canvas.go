@@ -156,7 +156,7 @@ func (d *Doc) Replay(r *Recording, x, y float64) {
 			continue
 		}
 		// fpdf ends every write with a newline; the recording holds them
-		d.f.RawWriteStr(string(op.raw[:len(op.raw)-1]))
+		d.f.RawWriteBuf(bytes.NewReader(op.raw[:len(op.raw)-1]))
 	}
 	c.Close()
 }
@@ -354,6 +354,10 @@ func (c *Canvas) path(p vg.Path, op string) {
 	}
 	w.b = append(w.b, op...)
 	c.buf = w.b
+	if c.rec != nil {
+		c.rec.pending = append(append(c.rec.pending, w.b...), '\n') // as raw, without a string
+		return
+	}
 	c.raw(string(w.b))
 }
 

@@ -87,6 +87,14 @@ func (s *Set) Add(path string, perm os.FileMode, fill func(io.Writer) error) (er
 	return nil
 }
 
+// Join moves the files of another set, written meanwhile (on another
+// goroutine, say), to the end of this one, so that one Commit replaces
+// them all; o is left empty.
+func (s *Set) Join(o *Set) {
+	s.pending = append(s.pending, o.pending...)
+	o.pending = nil
+}
+
 // Commit renames every temporary over its target, unless ctx is cancelled
 // (then, as on any error before the first rename, nothing is replaced).
 // Renames within a folder are atomic (POSIX rename(2)); the set as a whole

@@ -187,3 +187,36 @@ func TestCheckTarget(t *testing.T) {
 		}
 	}
 }
+
+// A set joined into another is committed with it, after the other's
+// files, and a discarded set leaves nothing behind (common practice, no
+// source).
+func TestJoin(t *testing.T) {
+	dir := t.TempDir()
+	a, b := filepath.Join(dir, "pack.pdf"), filepath.Join(dir, "figures.csv")
+	write := func(s string) func(io.Writer) error {
+		return func(w io.Writer) error { _, err := w.Write([]byte(s)); return err }
+	}
+	var main, side Set
+	if err := side.Add(b, 0o644, write("figures")); err != nil {
+		t.Fatal(err)
+	}
+	if err := main.Add(a, 0o644, write("pack")); err != nil {
+		t.Fatal(err)
+	}
+	main.Join(&side)
+	if len(side.pending) != 0 || len(main.pending) != 2 || main.pending[1].target != b {
+		t.Fatalf("joined set: %+v, left %+v", main.pending, side.pending)
+	}
+	if err := main.Commit(context.Background()); err != nil {
+		t.Fatal(err)
+	}
+	for path, want := range map[string]string{a: "pack", b: "figures"} {
+		if got, _ := os.ReadFile(path); string(got) != want {
+			t.Errorf("%s holds %q", path, got)
+		}
+	}
+	if ents, _ := os.ReadDir(dir); len(ents) != 2 {
+		t.Errorf("left behind: %v", ents)
+	}
+}

@@ -28,6 +28,9 @@ type Options struct {
 	FirstYear    int    // default 2016
 	Years        int    // default 10
 	Seed         uint64 // default 10
+	// Brief is the brief written: "" for the world brief (12 charts, five
+	// tables, four commentary blocks), BriefCharts for the 24-chart one.
+	Brief string
 }
 
 func (o Options) or() Options {
@@ -199,7 +202,12 @@ func Write(dir string, o Options) error {
 		return err
 	}
 	return writeFile(dir, "brief.md", func(w *bufio.Writer) {
-		fmt.Fprintf(w, briefText, Focus, o.FirstYear+o.Years-1, o.FirstYear, o.FirstYear+o.Years-1)
+		last := o.FirstYear + o.Years - 1
+		if o.Brief == BriefCharts {
+			w.WriteString(chartsBrief(Focus, last, o.FirstYear, last))
+			return
+		}
+		fmt.Fprintf(w, briefText, Focus, last, o.FirstYear, last)
 	})
 }
 

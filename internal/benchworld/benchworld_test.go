@@ -54,3 +54,29 @@ func TestWriteIsReproducible(t *testing.T) {
 		t.Errorf("%d value rows, want about %d less the 3%% missing", rows, want)
 	}
 }
+
+// The 24-chart brief has 24 chart blocks, of the kinds the matplotlib
+// peer script draws, and no table or commentary block.
+func TestChartsBrief(t *testing.T) {
+	dir := t.TempDir()
+	if err := Write(dir, Options{Institutions: 200, Systems: 12, Years: 3, Brief: BriefCharts}); err != nil {
+		t.Fatal(err)
+	}
+	text, err := os.ReadFile(filepath.Join(dir, "brief.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(text)
+	if n := strings.Count(s, "```chart\n"); n != ChartCount {
+		t.Errorf("%d chart blocks, want %d", n, ChartCount)
+	}
+	if strings.Contains(s, "```table") || strings.Contains(s, "```commentary") {
+		t.Error("the 24-chart brief should hold charts only")
+	}
+	kinds := map[string]bool{"box": true, "trend": true, "scatter": true, "bars": true, "heatmap": true, "radar": true}
+	for _, c := range chartSpecs {
+		if !kinds[c.kind] {
+			t.Errorf("kind %q is not drawn by charts_peer.py", c.kind)
+		}
+	}
+}

@@ -305,6 +305,14 @@ type Packed struct {
 // composes the commentary into in.Figures, so it runs once per figures
 // model; the figures file written afterwards carries the commentary rows.
 func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) {
+	return pack(in, created, version, nil)
+}
+
+// pack is Pack that runs alongside, when given, on another goroutine
+// while the pack is laid out: from the moment the commentary is in the
+// model, which nothing changes after, so a writer of the figures model
+// reads what the pack shows. pack returns after alongside has.
+func pack(in *Inputs, created time.Time, version string, alongside func()) (p *Packed, err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("internal error while laying out the pack (please report it with the brief): %v\n%s", r, debug.Stack())
@@ -314,6 +322,14 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 	if err != nil {
 		return nil, err
 	}
+	if alongside != nil {
+		done := make(chan struct{})
+		go func() {
+			defer close(done)
+			alongside()
+		}()
+		defer func() { <-done }()
+	}
 	pdf, figs, err := layout.RenderFigures(layout.Input{
 		Brief: in.Brief, Model: in.Figures, Commentary: com, FS: in.FS,
 		Created: created, Version: version, Sources: in.Sources, Rebuild: in.Rebuild,
@@ -322,6 +338,28 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 		return nil, err
 	}
 	return &Packed{PDF: pdf, Commentary: com, Figures: figs}, nil
+}
+
+// writeModelFiles writes the figures file and the workbook asked for into
+// set's temporaries, streamed from the model; a panic becomes an error.
+func writeModelFiles(set *atomicfile.Set, opt Options, m *figures.Model) (err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			set.Discard()
+			err = fmt.Errorf("internal error while writing the figures (please report it with the brief): %v\n%s", r, debug.Stack())
+		}
+	}()
+	if opt.Figures != "" {
+		if err := set.Add(opt.Figures, 0o644, func(w io.Writer) error { return figures.WriteCSV(w, m) }); err != nil {
+			return err
+		}
+	}
+	if opt.Workbook != "" {
+		if err := set.Add(opt.Workbook, 0o644, func(w io.Writer) error { return WriteWorkbook(w, m) }); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // Build runs the whole pipeline for one brief and writes the outputs.
@@ -350,33 +388,36 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	if err := ctx.Err(); err != nil {
 		return nil, interrupted(opt.Output)
 	}
-	packed, err := Pack(in, opt.Created, opt.Version)
+	// The figures file and workbook are written to their temporaries while
+	// the pack is laid out (the model no longer changes by then).
+	var modelSet atomicfile.Set
+	var modelErr error
+	var alongside func()
+	if opt.Figures != "" || opt.Workbook != "" {
+		alongside = func() { modelErr = writeModelFiles(&modelSet, opt, in.Figures) }
+	}
+	packed, err := pack(in, opt.Created, opt.Version, alongside)
 	if err != nil {
+		modelSet.Discard()
 		return nil, err
+	}
+	if modelErr != nil {
+		return nil, modelErr
 	}
 	pdf := packed.PDF
 	after("pack")
 	if err := ctx.Err(); err != nil {
+		modelSet.Discard()
 		return nil, interrupted(opt.Output)
 	}
 	// One build, one outcome: every output is written in full to a
 	// temporary first, and the targets are replaced only when all are.
 	var set atomicfile.Set
 	if err := set.Add(opt.Output, 0o644, writeBytes(pdf)); err != nil {
+		modelSet.Discard()
 		return nil, err
 	}
-	if opt.Figures != "" {
-		err := set.Add(opt.Figures, 0o644, func(w io.Writer) error { return figures.WriteCSV(w, in.Figures) })
-		if err != nil {
-			return nil, err
-		}
-	}
-	if opt.Workbook != "" {
-		err := set.Add(opt.Workbook, 0o644, func(w io.Writer) error { return WriteWorkbook(w, in.Figures) })
-		if err != nil {
-			return nil, err
-		}
-	}
+	set.Join(&modelSet)
 	after("written")
 	if err := set.Commit(ctx); err != nil {
 		return nil, err

@@ -2,6 +2,8 @@ package build
 
 import (
 	"bytes"
+	"context"
+	"os"
 	"path/filepath"
 	"runtime"
 	"testing"
@@ -58,5 +60,40 @@ func TestBuildSameOnOneAndTwoProcessors(t *testing.T) {
 	}
 	if !bytes.Equal(pdf1, pdf2) {
 		t.Errorf("the PDF differs between one processor (%d bytes) and two (%d bytes)", len(pdf1), len(pdf2))
+	}
+}
+
+// Build writes the figures file and workbook while the pack is laid out;
+// the files must be those written after it, from the finished model, and
+// the PDF the same as without them (common practice, no source: concurrency may not
+// change an output).
+func TestBuildWritesFiguresAlongsideLayout(t *testing.T) {
+	dir := t.TempDir()
+	out, figs := filepath.Join(dir, "pack.pdf"), filepath.Join(dir, "figures.csv")
+	res, err := Build(context.Background(), demoSource(), Options{Output: out, Figures: figs, Created: demoCreated})
+	if err != nil {
+		t.Fatal(err)
+	}
+	in, _ := demoPack(t)
+	var want bytes.Buffer
+	if err := figures.WriteCSV(&want, in.Figures); err != nil {
+		t.Fatal(err)
+	}
+	gotCSV, _ := os.ReadFile(figs)
+	if !bytes.Equal(gotCSV, want.Bytes()) {
+		t.Errorf("the figures file written alongside layout (%d bytes) differs from the one written after it (%d bytes)", len(gotCSV), want.Len())
+	}
+	if !bytes.Contains(gotCSV, []byte("\ncommentary,")) {
+		t.Error("the figures file lacks the commentary rows")
+	}
+	// the same build without a figures file writes nothing alongside
+	alone := filepath.Join(dir, "alone.pdf")
+	if _, err := Build(context.Background(), demoSource(), Options{Output: alone, Created: demoCreated}); err != nil {
+		t.Fatal(err)
+	}
+	gotPDF, _ := os.ReadFile(out)
+	wantPDF, _ := os.ReadFile(alone)
+	if len(gotPDF) == 0 || !bytes.Equal(gotPDF, wantPDF) || res.Bytes != len(wantPDF) {
+		t.Errorf("the PDF built with a figures file (%d bytes) differs from the one built without (%d bytes)", len(gotPDF), len(wantPDF))
 	}
 }

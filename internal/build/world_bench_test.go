@@ -111,3 +111,35 @@ func BenchmarkWorldStages(b *testing.B) {
 		reportCPU(b, cpu)
 	})
 }
+
+// BenchmarkChartsBrief builds the 24-chart brief over the small benchmark
+// world (640 institutions in 12 systems; examples/bench/charts.sh times
+// the same build from outside against matplotlib): load and pack, in
+// memory.
+func BenchmarkChartsBrief(b *testing.B) {
+	dir := b.TempDir()
+	if err := benchworld.Write(dir, benchworld.Options{Institutions: 640, Systems: 12, Brief: benchworld.BriefCharts}); err != nil {
+		b.Fatal(err)
+	}
+	src, err := OpenSource(filepath.Join(dir, "brief.md"), "")
+	if err != nil {
+		b.Fatal(err)
+	}
+	created := time.Unix(0, 0).UTC()
+	b.ReportAllocs()
+	cpu := cpuSeconds()
+	for i := 0; i < b.N; i++ {
+		in, err := Load(src, nil)
+		if err != nil {
+			b.Fatal(err)
+		}
+		p, err := Pack(in, created, "bench")
+		if err != nil {
+			b.Fatal(err)
+		}
+		if len(p.Figures) != benchworld.ChartCount {
+			b.Fatalf("%d charts set, want %d", len(p.Figures), benchworld.ChartCount)
+		}
+	}
+	reportCPU(b, cpu)
+}

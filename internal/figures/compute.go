@@ -71,6 +71,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 			m.Years = append(m.Years, y)
 		}
 	}
+	m.corrNeed = m.correlationNeeds(b)
 	if err := m.compute(); err != nil {
 		probs.Add(err)
 		return nil, probs
@@ -112,13 +113,27 @@ type columnResult struct {
 // is turned into an error so that it cannot reach the user as a crash.
 func (m *Model) compute() error {
 	nInd := len(m.Data.Dictionary.Indicators)
-	m.yearOrder = registerOrders(m.Data, m.Year)
+	// Correlations only where the brief reads them (correlationNeeds).
+	var corrGroups []int
+	used := make([]bool, nInd)
+	for gi, need := range m.corrNeed {
+		if need == nil {
+			continue
+		}
+		corrGroups = append(corrGroups, gi)
+		for k, on := range need {
+			used[k] = used[k] || on
+		}
+	}
+	if len(corrGroups) > 0 {
+		m.yearOrder = registerOrders(m.Data, m.Year, used)
+	}
 	results := make([]columnResult, len(m.Groups)*nInd)
 	corrs := make([][]Correlation, len(m.Groups))
 	jobs := make(chan int)
 	workers := runtime.GOMAXPROCS(0)
-	if workers > len(results)+len(m.Groups) {
-		workers = len(results) + len(m.Groups)
+	if workers > len(results)+len(corrGroups) {
+		workers = len(results) + len(corrGroups)
 	}
 	var wg sync.WaitGroup
 	var failMu sync.Mutex
@@ -145,13 +160,13 @@ func (m *Model) compute() error {
 					results[j], buf = m.column(g, k, buf)
 				} else {
 					gi := j - len(results)
-					corrs[gi] = m.correlations(m.Groups[gi])
+					corrs[gi] = m.correlations(m.Groups[gi], m.corrNeed[gi])
 				}
 			}
 		}()
 	}
 	// Correlation jobs are the longest; start them first.
-	for gi := range m.Groups {
+	for _, gi := range corrGroups {
 		jobs <- len(results) + gi
 	}
 	for j := range results {
@@ -266,14 +281,16 @@ func outlierMembers(members []int, col []float64, b stats.Box) []int {
 		inst int
 		v    float64
 	}
-	var out []ov
+	out := make([]ov, 0, len(b.OutlierValues))
 	for _, i := range members {
 		v := col[i]
 		if !math.IsNaN(v) && (v < b.WhiskerLow || v > b.WhiskerHigh) {
 			out = append(out, ov{i, v})
 		}
 	}
-	slices.SortStableFunc(out, func(a, b ov) int {
+	// (value, position) is a total order (positions are distinct), so an
+	// unstable sort gives the one result.
+	slices.SortFunc(out, func(a, b ov) int {
 		switch {
 		case a.v < b.v:
 			return -1

@@ -9,15 +9,15 @@ import (
 )
 
 // correlations computes Pearson's and Spearman's coefficients between
-// every pair of dictionary indicators over the group's members that have
-// both values in the brief year. Spearman's coefficient is Pearson's of the
+// every pair of the indicators need marks (dictionary order) over the
+// group's members that have both values in the brief year. Spearman's coefficient is Pearson's of the
 // average ranks, as stats.Spearman defines it (and R's cor(method =
 // "spearman")); to stay O(n) per pair, each indicator's members are sorted
 // once and every pair walks those orders, ranking only the members that
 // have the other value too. Average ranks of m values are half-integers
 // with mean (m+1)/2, so their sums are exact in float64 for any register
 // size peerpack accepts, and the rank correlation needs no second pass.
-func (m *Model) correlations(g *Group) []Correlation {
+func (m *Model) correlations(g *Group, need []bool) []Correlation {
 	d := m.Data
 	nInd := len(d.Dictionary.Indicators)
 	n := len(g.Members)
@@ -34,6 +34,9 @@ func (m *Model) correlations(g *Group) []Correlation {
 		}
 	}
 	for k := 0; k < nInd; k++ {
+		if !need[k] {
+			continue
+		}
 		col := d.Column(k, m.Year)
 		v := make([]float64, n)
 		for li, inst := range g.Members {
@@ -62,7 +65,13 @@ func (m *Model) correlations(g *Group) []Correlation {
 	keptY := make([]int32, 0, n)
 	out := make([]Correlation, 0, nInd*(nInd-1)/2)
 	for a := 0; a < nInd; a++ {
+		if !need[a] {
+			continue
+		}
 		for b := a + 1; b < nInd; b++ {
+			if !need[b] {
+				continue
+			}
 			c := Correlation{Group: g.Name, IndicatorX: d.Dictionary.Indicators[a].Key, IndicatorY: d.Dictionary.Indicators[b].Key, Year: m.Year}
 			x, y := vals[a], vals[b]
 			var ssx, ssy float64
@@ -147,11 +156,14 @@ func sortByValue(o []int32, v []float64) {
 	}
 }
 
-// registerOrders sorts, for every indicator, the register positions with a
-// value in the year by value (ties by position).
-func registerOrders(d *dataset.Dataset, year int) [][]int32 {
+// registerOrders sorts, for every indicator used, the register positions
+// with a value in the year by value (ties by position).
+func registerOrders(d *dataset.Dataset, year int, used []bool) [][]int32 {
 	out := make([][]int32, len(d.Dictionary.Indicators))
 	for k := range out {
+		if !used[k] {
+			continue
+		}
 		col := d.Column(k, year)
 		o := make([]int32, 0, len(col))
 		for i, v := range col {

@@ -4,6 +4,7 @@ import (
 	"math"
 	"testing"
 
+	"peerpack/internal/brief"
 	"peerpack/internal/stats"
 )
 
@@ -45,6 +46,9 @@ func TestCorrelationsAgreeWithStats(t *testing.T) {
 	}
 	check(m)
 	wd, wb := worldFixture(600, 5, 2)
+	// every pair in every group: a block on association with no
+	// indicators or groups named
+	readAllCorrelations(wb)
 	wm, err := Compute(wd, wb)
 	if err != nil {
 		t.Fatal(err)
@@ -53,4 +57,56 @@ func TestCorrelationsAgreeWithStats(t *testing.T) {
 	if c, ok := wm.Correlation("World", "ind03", "ind01"); !ok || c.IndicatorX != "ind03" {
 		t.Errorf("Correlation in reverse order: %+v %v", c, ok)
 	}
+}
+
+// Correlations are computed only where a commentary block on association
+// reads them: none without one; with one, every pair of its indicators in
+// its groups (an each name standing for all its groups), nothing else.
+func TestCorrelationsOnlyWhereRead(t *testing.T) {
+	wd, wb := worldFixture(400, 5, 2)
+	m, err := Compute(wd, wb)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(m.Correlations) != 0 {
+		t.Fatalf("no block reads correlations, yet %d were computed", len(m.Correlations))
+	}
+	wd, wb = worldFixture(400, 5, 2)
+	wb.Blocks = append(wb.Blocks,
+		&brief.CommentaryBlock{Topics: []string{"position"}, Indicators: []string{"ind00", "ind01"}},
+		&brief.CommentaryBlock{Topics: []string{TopicAssociation, "position"}, Indicators: []string{"ind03", "ind01", "ind04"}, Groups: []string{"World", "Region"}})
+	m, err = Compute(wd, wb)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]bool{}
+	for _, g := range append(m.GroupsOf("World"), m.GroupsOf("Region")...) {
+		for _, p := range []string{"ind01~ind03", "ind01~ind04", "ind03~ind04"} {
+			want[g.Name+" "+p] = true
+		}
+	}
+	if len(m.GroupsOf("Region")) < 2 {
+		t.Fatalf("the fixture should have several regions: %d", len(m.GroupsOf("Region")))
+	}
+	got := map[string]bool{}
+	for _, c := range m.Correlations {
+		got[c.Group+" "+PairKey(c.IndicatorX, c.IndicatorY)] = true
+	}
+	if len(got) != len(want) || len(m.Correlations) != len(want) {
+		t.Fatalf("computed %d correlations %v, want %d %v", len(m.Correlations), got, len(want), want)
+	}
+	for k := range want {
+		if !got[k] {
+			t.Errorf("missing correlation %s", k)
+		}
+	}
+	if _, ok := m.Correlation(m.GroupsOf("Country")[0].Name, "ind01", "ind03"); ok {
+		t.Error("a group no association block names has a correlation")
+	}
+}
+
+// readAllCorrelations adds to a brief a commentary block on association
+// over every indicator and group, so every correlation is computed.
+func readAllCorrelations(b *brief.Brief) {
+	b.Blocks = append(b.Blocks, &brief.CommentaryBlock{Topics: []string{TopicAssociation}})
 }

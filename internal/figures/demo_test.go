@@ -112,6 +112,7 @@ func checkInvariants(t *testing.T, m *Model) {
 // invariants intact and undefined statistics left out, not invented.
 func TestEdgeCaseData(t *testing.T) {
 	d, b := worldFixture(300, 5, 3)
+	readAllCorrelations(b)
 	for _, y := range d.Years {
 		for i := 0; i < d.Register.Len(); i++ {
 			d.Set(0, i, y, 7)            // constant
@@ -132,7 +133,7 @@ func TestEdgeCaseData(t *testing.T) {
 	if dist.SD != 0 || dist.IQR != 0 || len(dist.Outliers) != 0 {
 		t.Errorf("constant column: %+v", dist)
 	}
-	if c, _ := m.Correlation("World", "ind00", "ind02"); !math.IsNaN(c.Pearson) || !math.IsNaN(c.Spearman) {
+	if c, ok := m.Correlation("World", "ind00", "ind02"); !ok || !math.IsNaN(c.Pearson) || !math.IsNaN(c.Spearman) {
 		t.Errorf("correlation with a constant must be undefined: %+v", c)
 	}
 	p, _ := m.Position("World", "ind00", m.Focus, d.Years[0])

@@ -95,6 +95,9 @@ type Model struct {
 	// in group order then dictionary order of the pair (X before Y).
 	Correlations []Correlation
 	corr         map[corrKey]int
+	// corrNeed marks, per group, the indicators whose correlations the
+	// brief reads (nil: none).
+	corrNeed [][]bool
 	// yearOrder holds, while computing, each indicator's register
 	// positions sorted by value in the brief year.
 	yearOrder [][]int32

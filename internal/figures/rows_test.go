@@ -25,6 +25,7 @@ func TestRowsInKeyOrder(t *testing.T) {
 		Row{Key: Key{Section: SectionPosition, Group: "All", Indicator: "fnci", Institution: "ZU02", Year: 2023, Measure: "extra"}, Value: 2},
 	)
 	wd, wb := worldFixture(600, 8, 4)
+	readAllCorrelations(wb)
 	world, err := Compute(wd, wb)
 	if err != nil {
 		t.Fatal(err)

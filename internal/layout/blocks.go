@@ -9,7 +9,6 @@ import (
 	east "github.com/yuin/goldmark/extension/ast"
 	"gonum.org/v1/plot/vg"
 
-	"peerpack/charts"
 	"peerpack/internal/brief"
 	"peerpack/internal/pdf"
 )
@@ -93,7 +92,7 @@ func (w *writer) heading(n ast.Node, entering bool) ast.WalkStatus {
 func (w *writer) followingNeed(next ast.Node) float64 {
 	switch blk := w.blockOf(next).(type) {
 	case *brief.ChartBlock:
-		ch, err := charts.New(w.m, blk, w.chartTheme())
+		ch, err := w.planChart(blk)
 		if err != nil {
 			return keepWithNext
 		}

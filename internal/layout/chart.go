@@ -48,7 +48,7 @@ func (w *writer) chart(cb *brief.ChartBlock) {
 		w.failAt(cb.At, "size: half has no effect inside columns: a chart there takes its column's width; remove size: half, or end the columns before the chart (a columns block with count: 1)")
 		return
 	}
-	ch, err := charts.New(w.m, cb, w.chartTheme())
+	ch, err := w.planChart(cb)
 	if err != nil {
 		w.chartProblem(cb, err)
 		return
@@ -65,6 +65,35 @@ func (w *writer) chart(cb *brief.ChartBlock) {
 		return
 	}
 	w.setCharts([]placed{p}, false)
+}
+
+// chartPlans are the charts of one render, planned once and set by every
+// pass: a chart's plan depends only on the model, its block and the
+// theme, which no pass changes.
+type chartPlans struct {
+	byBlock map[*brief.ChartBlock]chartPlan
+}
+
+type chartPlan struct {
+	ch  charts.Chart
+	err error
+}
+
+// planChart plans a chart block, or returns the plan an earlier pass made.
+func (w *writer) planChart(cb *brief.ChartBlock) (charts.Chart, error) {
+	ps := w.in.plans
+	if ps == nil {
+		return charts.New(w.m, cb, w.chartTheme())
+	}
+	if p, ok := ps.byBlock[cb]; ok {
+		if !w.measuring {
+			w.in.predraw.settle(cb)
+		}
+		return p.ch, p.err
+	}
+	ch, err := charts.New(w.m, cb, w.chartTheme())
+	ps.byBlock[cb] = chartPlan{ch, err}
+	return ch, err
 }
 
 func (w *writer) chartProblem(cb *brief.ChartBlock, err error) {
@@ -175,7 +204,9 @@ func (w *writer) setCharts(row []placed, half bool) {
 			y += w.st.lineHeight(chartTitleSize)
 		}
 		y = top + titleH
-		if !w.measuring {
+		if w.measuring {
+			w.sized = append(w.sized, sizedChart{spec: p.spec, ch: p.ch, width: width, height: heights[i]})
+		} else {
 			if err := w.drawChart(p, x, y, width, heights[i]); err != nil {
 				w.chartProblem(p.spec, err)
 			}
@@ -217,6 +248,13 @@ func (w *writer) chartTexts(spec *brief.ChartBlock, no int, width float64) chart
 // drawChart draws a chart onto a canvas over its rectangle; a panic in a
 // chart is turned into a positioned error rather than ending the build.
 func (w *writer) drawChart(p placed, x, y, width, height float64) (err error) {
+	if rec, ok, err := w.in.predraw.recording(p.spec, width, height); ok {
+		if err == nil {
+			w.doc.Replay(rec, x, y)
+			w.in.predraw.replayed.Add(1)
+		}
+		return err
+	}
 	c := w.doc.Canvas(x, y, width, height)
 	defer func() {
 		c.Close()

@@ -44,6 +44,12 @@ type Input struct {
 	// generic one is given). Both go into "About these figures".
 	Sources []provenance.File
 	Rebuild string
+
+	// plans holds the charts planned by an earlier pass of the same
+	// render (nil: plan afresh); predraw the final pass's charts being
+	// drawn ahead of it (nil: draw in line).
+	plans   *chartPlans
+	predraw *predraw
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief
@@ -65,6 +71,9 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	if in.Brief == nil || in.Model == nil {
 		return nil, nil, fmt.Errorf("internal error: layout needs a brief and a figures model")
 	}
+	// Every pass sets the same charts from the same model: plan each once
+	// (charts.New, and the measuring each chart caches by width).
+	in.plans = &chartPlans{byBlock: map[*brief.ChartBlock]chartPlan{}}
 	first, err := pass(in, nil, nil)
 	if err != nil {
 		return nil, nil, err
@@ -103,7 +112,12 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	}
 	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
+	// The charts are drawn ahead of the final pass, which sets the text,
+	// on the other processors.
+	in.predraw = startPredraw(first.sized, in.plans)
+	defer in.predraw.finish()
 	second, err := pass(in, rec, plan)
+	in.predraw.finish()
 	if err != nil {
 		return nil, nil, err
 	}

@@ -28,6 +28,8 @@ type writer struct {
 	// measuring is true in the first pass, which only finds where
 	// headings fall: charts are measured, not drawn.
 	measuring bool
+	// sized are the brief's charts as a measuring pass set them.
+	sized []sizedChart
 
 	// The frame: left edge, width, current y and the bottom limit. With
 	// columns, the frame is one column; colTop is where columns start.

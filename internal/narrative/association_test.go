@@ -13,8 +13,9 @@ import (
 // Student headcount is reported by four members only, under
 // figures.MinCorrelationPairs (10, common practice, no source), so its
 // pairs are not read (intl and spa are exactly linear, 10 + 2k against
-// 30 - k, so rho and r are both -1, worked by hand). The situation form has no association topic yet
-// (the brief does not accept it), so the scope is set here.
+// 30 - k, so rho and r are both -1, worked by hand). The block asks for the
+// association topic, so the figures model computes its correlations; the
+// scope is set to that topic alone here.
 func TestAssociationNeedsEnoughPairs(t *testing.T) {
 	s := parseSituation(t, edgeIndicators+`
 columns: [intl@2025, spa@2025, size@2025]
@@ -33,7 +34,7 @@ institutions:
   L: [Kestria, Lorn University, 32, 19, ~]
 groups:
   - {name: Kestria sector, where: {country: Kestria}}
-block: {style: detail, topics: [position], indicators: [intl, spa, size]}
+block: {style: detail, topics: [association], indicators: [intl, spa, size]}
 `)
 	m, b := s.build(t)
 	var cb *brief.CommentaryBlock

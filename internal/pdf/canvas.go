@@ -30,6 +30,8 @@ type Canvas struct {
 	buf    []byte
 	closed bool
 	font   Font // the document's font before the canvas opened
+	// rec, when set, receives the drawing instead of the document (Record).
+	rec *Recording
 }
 
 type canvasState struct {
@@ -66,6 +68,10 @@ func (c *Canvas) Close() {
 	for len(c.stack) > 1 {
 		c.Pop()
 	}
+	if c.rec != nil {
+		c.rec.flush() // Replay closes the canvas it opens on the page
+		return
+	}
 	c.raw("Q")
 	d := c.d
 	d.canvasOn = false
@@ -79,28 +85,109 @@ func (c *Canvas) Close() {
 	d.SetFont(c.font)
 }
 
-func (c *Canvas) raw(s string) { c.d.f.RawWriteStr(s) }
+func (c *Canvas) raw(s string) {
+	if c.rec != nil {
+		c.rec.pending = append(append(c.rec.pending, s...), '\n') // as fpdf's out writes it
+		return
+	}
+	c.d.f.RawWriteStr(s)
+}
+
+// onDoc runs f on the document now, or, on a recording canvas, when the
+// recording is replayed, in the same order relative to the drawing.
+func (c *Canvas) onDoc(f func(d *Doc)) {
+	if c.rec != nil {
+		c.rec.flush()
+		c.rec.ops = append(c.rec.ops, recOp{do: f})
+		return
+	}
+	f(c.d)
+}
+
+// Recording is a drawing made on a canvas away from any document
+// (Record), to be replayed onto a page later (Doc.Replay): what it writes
+// is byte for byte what the same drawing writes on a page canvas, so
+// charts can be drawn on several goroutines and set in order.
+type Recording struct {
+	w, h    float64 // mm
+	ops     []recOp
+	pending []byte
+}
+
+// recOp is either content written as is (lines ending in a newline) or a
+// call on the document (alpha states, text, images).
+type recOp struct {
+	raw []byte
+	do  func(d *Doc)
+}
+
+func (r *Recording) flush() {
+	if len(r.pending) > 0 {
+		r.ops = append(r.ops, recOp{raw: r.pending})
+		r.pending = nil
+	}
+}
+
+// Record opens a canvas of w x h mm that draws into a Recording; Close it,
+// then Replay the recording onto a page. A recording canvas touches no
+// document, so several can draw at once on different goroutines.
+func Record(w, h float64) *Canvas {
+	c := &Canvas{w: vg.Length(w * PointsPerMM), h: vg.Length(h * PointsPerMM), rec: &Recording{w: w, h: h}}
+	c.stack = []canvasState{{stroke: color.NRGBA{A: 255}, fill: color.NRGBA{A: 255}, alpha: 1, width: 1}}
+	return c
+}
+
+// Recording returns what a closed recording canvas drew (nil for a page
+// canvas or one still open).
+func (c *Canvas) Recording() *Recording {
+	if c.rec == nil || !c.closed {
+		return nil
+	}
+	return c.rec
+}
+
+// Replay draws a recording onto the current page with its top-left corner
+// at x, y mm, exactly as drawing it there on Canvas(x, y, w, h) would.
+func (d *Doc) Replay(r *Recording, x, y float64) {
+	c := d.Canvas(x, y, r.w, r.h)
+	for _, op := range r.ops {
+		if op.do != nil {
+			op.do(d)
+			continue
+		}
+		// fpdf ends every write with a newline; the recording holds them
+		d.f.RawWriteBuf(bytes.NewReader(op.raw[:len(op.raw)-1]))
+	}
+	c.Close()
+}
 
 func (c *Canvas) top() *canvasState { return &c.stack[len(c.stack)-1] }
 
 // num formats a coordinate with at most 3 decimals (1/1000 pt is far below
 // any printer's resolution) and no exponent.
 func num(v float64) string {
+	var b [32]byte
+	return string(appendNum(b[:0], v))
+}
+
+// appendNum appends num(v) to b.
+func appendNum(b []byte, v float64) []byte {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		v = 0
 	}
-	s := strconv.FormatFloat(v, 'f', 3, 64)
+	start := len(b)
+	b = strconv.AppendFloat(b, v, 'f', 3, 64)
 	// Trim trailing zeros for smaller streams.
-	for len(s) > 1 && s[len(s)-1] == '0' {
-		s = s[:len(s)-1]
+	for len(b)-start > 1 && b[len(b)-1] == '0' {
+		b = b[:len(b)-1]
 	}
-	if s[len(s)-1] == '.' {
-		s = s[:len(s)-1]
+	if b[len(b)-1] == '.' {
+		b = b[:len(b)-1]
 	}
-	if s == "-0" {
-		s = "0"
+	if len(b)-start == 2 && b[start] == '-' && b[start+1] == '0' {
+		b = append(b[:start], '0')
 	}
-	return s
+	return b
 }
 
 // Size implements vg.Canvas.
@@ -141,7 +228,7 @@ func (c *Canvas) SetColor(clr color.Color) {
 	a := math.Round(float64(n.A)/255*1000) / 1000
 	if a != st.alpha {
 		st.alpha = a
-		c.d.f.SetAlpha(a, "Normal")
+		c.onDoc(func(d *Doc) { d.f.SetAlpha(a, "Normal") })
 	}
 }
 
@@ -177,7 +264,8 @@ func (c *Canvas) Pop() {
 	c.raw("Q")
 	if c.top().alpha != prev {
 		// Q restored the ExtGState already; keep fpdf's record in step.
-		c.d.f.SetAlpha(c.top().alpha, "Normal")
+		a := c.top().alpha
+		c.onDoc(func(d *Doc) { d.f.SetAlpha(a, "Normal") })
 	}
 }
 
@@ -201,9 +289,9 @@ func (c *Canvas) Fill(p vg.Path) {
 type pathWriter struct{ b []byte }
 
 func (w *pathWriter) pt(x, y vg.Length) {
-	w.b = append(w.b, num(float64(x))...)
+	w.b = appendNum(w.b, float64(x))
 	w.b = append(w.b, ' ')
-	w.b = append(w.b, num(float64(y))...)
+	w.b = appendNum(w.b, float64(y))
 	w.b = append(w.b, ' ')
 }
 
@@ -266,7 +354,11 @@ func (c *Canvas) path(p vg.Path, op string) {
 	}
 	w.b = append(w.b, op...)
 	c.buf = w.b
-	c.d.f.RawWriteStr(string(w.b))
+	if c.rec != nil {
+		c.rec.pending = append(append(c.rec.pending, w.b...), '\n') // as raw, without a string
+		return
+	}
+	c.raw(string(w.b))
 }
 
 func lineOrMove(open bool) string {
@@ -336,14 +428,16 @@ func (c *Canvas) FillString(f font.Face, pt vg.Point, text string) {
 	if f.Font.Size <= 0 || text == "" {
 		return
 	}
-	d := c.d
-	d.SetFont(FontFor(f.Font))
-	// fpdf's Text writes x*k, (H - y)*k in the current matrix; invert that
-	// so the text lands on pt in canvas points. Fill and text colour are
-	// equal in fpdf's record, so it emits no colour of its own and the
-	// canvas's rg applies.
-	k := PointsPerMM
-	d.f.Text(float64(pt.X)/k, d.opt.Paper.Height-float64(pt.Y)/k, Printable(text))
+	fnt, s := FontFor(f.Font), Printable(text)
+	c.onDoc(func(d *Doc) {
+		d.SetFont(fnt)
+		// fpdf's Text writes x*k, (H - y)*k in the current matrix; invert
+		// that so the text lands on pt in canvas points. Fill and text
+		// colour are equal in fpdf's record, so it emits no colour of its
+		// own and the canvas's rg applies.
+		k := PointsPerMM
+		d.f.Text(float64(pt.X)/k, d.opt.Paper.Height-float64(pt.Y)/k, s)
+	})
 }
 
 // DrawImage implements vg.Canvas: the image is embedded as a PNG, the one
@@ -359,18 +453,21 @@ func (c *Canvas) DrawImage(rect vg.Rectangle, img image.Image) {
 	if err := png.Encode(&buf, nrgba); err != nil {
 		return
 	}
-	d := c.d
-	d.images++
-	name := "chartimg" + strconv.Itoa(d.images)
-	opts := imageOptions("png")
-	d.f.RegisterImageOptionsReader(name, opts, &buf)
-	k := PointsPerMM
-	w := float64(rect.Max.X-rect.Min.X) / k
-	h := float64(rect.Max.Y-rect.Min.Y) / k
-	// Same inversion as for text: fpdf places the image's top-left corner.
-	x := float64(rect.Min.X) / k
-	y := d.opt.Paper.Height - float64(rect.Max.Y)/k
-	d.f.ImageOptions(name, x, y, w, h, false, opts, 0, "")
+	data := buf.Bytes()
+	c.onDoc(func(d *Doc) {
+		d.images++
+		name := "chartimg" + strconv.Itoa(d.images)
+		opts := imageOptions("png")
+		d.f.RegisterImageOptionsReader(name, opts, bytes.NewReader(data))
+		k := PointsPerMM
+		w := float64(rect.Max.X-rect.Min.X) / k
+		h := float64(rect.Max.Y-rect.Min.Y) / k
+		// Same inversion as for text: fpdf places the image's top-left
+		// corner.
+		x := float64(rect.Min.X) / k
+		y := d.opt.Paper.Height - float64(rect.Max.Y)/k
+		d.f.ImageOptions(name, x, y, w, h, false, opts, 0, "")
+	})
 }
 
 // DPI implements vg's optional DPI reporting: vector output at 72 points

@@ -23,10 +23,38 @@ var (
 	countZero      = []byte("/Count 0>>")
 )
 
+// outlinesKey is the literal every outline dictionary holds: the pattern
+// is tried only around it, not over every byte of a file of megabytes.
+var outlinesKey = []byte("<</Type /Outlines /First ")
+
+// findOutlinesRoot is reOutlinesRoot.FindSubmatchIndex(pdf): the pattern
+// is matched in a window around each place the literal part occurs (the
+// object number and "0 obj" before it are a few bytes long).
+func findOutlinesRoot(pdf []byte) []int {
+	const before, after = 64, 128
+	for from := 0; ; {
+		i := bytes.Index(pdf[from:], outlinesKey)
+		if i < 0 {
+			return nil
+		}
+		i += from
+		lo, hi := max(0, i-before), min(len(pdf), i+after)
+		if m := reOutlinesRoot.FindSubmatchIndex(pdf[lo:hi]); m != nil {
+			for j := range m {
+				if m[j] >= 0 {
+					m[j] += lo
+				}
+			}
+			return m
+		}
+		from = i + 1
+	}
+}
+
 // outlineEdits returns the edits that write the outline's counts; offs
 // are the cross-reference offsets.
 func outlineEdits(pdf []byte, offs []int) ([]edit, error) {
-	root := reOutlinesRoot.FindSubmatchIndex(pdf)
+	root := findOutlinesRoot(pdf)
 	if root == nil {
 		return nil, nil // no outline
 	}

@@ -52,6 +52,7 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 	// Lines before each part, counted in parallel: a line break is an LF,
 	// a CR not followed by an LF, or a CRLF pair.
 	lines := make([]int, len(cuts)-1)
+	ascii := make([]bool, len(lines))
 	var wg sync.WaitGroup
 	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
 	for i := range lines {
@@ -60,6 +61,7 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 		go func() {
 			defer func() { <-sem; wg.Done() }()
 			lines[i] = lineBreaks(rest[cuts[i]:cuts[i+1]])
+			ascii[i] = isASCII(rest[cuts[i]:cuts[i+1]])
 		}()
 	}
 	wg.Wait()
@@ -70,6 +72,7 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 		p.data = rest[cuts[i]:cuts[i+1]]
 		p.pos, p.line, p.col = 0, line, 1
 		p.row, p.buf = nil, nil
+		p.plain, p.ascii = true, ascii[i]
 		parts[i] = &p
 		line += lines[i]
 	}

@@ -7,7 +7,6 @@ import (
 	"path/filepath"
 	"runtime/debug"
 	"strings"
-	"time"
 
 	"peerpack/internal/build"
 	"peerpack/internal/demo"
@@ -177,7 +176,7 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 	}
 	// "Would build" is proved by building: commentary and layout run in
 	// memory, nothing is written.
-	if _, err := build.Pack(in, time.Unix(0, 0).UTC(), version); err != nil {
+	if err := build.CheckBuild(in, version); err != nil {
 		return reportError(e, err)
 	}
 	build.WriteCheckReport(e.stdout, in)
@@ -301,7 +300,7 @@ func runCheckJSON(e *env, path, root string) int {
 	} else {
 		in, lerr := build.LoadWith(src, nil, e.limits)
 		if lerr == nil {
-			_, lerr = build.Pack(in, time.Unix(0, 0).UTC(), version)
+			lerr = build.CheckBuild(in, version)
 		}
 		doc = build.NewCheckJSON(src.Display, in, lerr)
 		if raw, rerr := iofs.ReadFile(src.FS, src.Brief); rerr == nil {

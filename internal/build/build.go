@@ -129,7 +129,9 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		return nil, probs.Err()
 	}
 	rec := provenance.New(src.FS)
-	d, rep, err := dataset.LoadWith(rec, b, lim)
+	// The report's data summary is for check alone: CheckBuild computes
+	// it beside the pack, a build never.
+	d, rep, err := dataset.LoadUnsummarised(rec, b, lim)
 	if err != nil {
 		probs.Add(err)
 		// The report says what loaded; check prints it above the problems.

@@ -143,6 +143,16 @@ type CheckEditNote struct {
 // NewCheckJSON fills the document from what check found: in may be nil
 // or partly loaded when err is not nil.
 func NewCheckJSON(brief string, in *Inputs, err error) *CheckJSON {
+	if in != nil && in.Report != nil {
+		// The data summary, unless CheckBuild has made it already (and
+		// returned its fault, if any, in err).
+		if serr := in.Report.Summarise(); serr != nil && !errors.Is(err, serr) {
+			var probs diag.List
+			probs.Add(err)
+			probs.Add(serr)
+			err = probs.Err()
+		}
+	}
 	doc := &CheckJSON{FormatVersion: CheckFormatVersion, Brief: brief, WouldBuild: err == nil && in != nil}
 	doc.Problems, doc.ProblemsNotShown = checkProblems(err)
 	if in != nil && in.Report != nil {

@@ -97,3 +97,56 @@ func TestBuildWritesFiguresAlongsideLayout(t *testing.T) {
 		t.Errorf("the PDF built with a figures file (%d bytes) differs from the one built without (%d bytes)", len(gotPDF), len(wantPDF))
 	}
 }
+
+// `check` reports the same, plain and as JSON, whatever the number of
+// processors: the values are parsed in parts, the data summary runs beside
+// the in-memory pack and summarises the indicators on every processor, and
+// each must come back in one fixed order (common practice, no source, as
+// for the build above).
+func TestCheckSameOnOneAndTwoProcessors(t *testing.T) {
+	if testing.Short() {
+		t.Skip("checks a 1,000-institution world twice")
+	}
+	dir := t.TempDir()
+	if err := benchworld.Write(dir, benchworld.Options{Institutions: 1000, Systems: 30}); err != nil {
+		t.Fatal(err)
+	}
+	src, err := OpenSource(filepath.Join(dir, "brief.md"), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	check := func(procs int) (plain, js []byte) {
+		prev := runtime.GOMAXPROCS(procs)
+		defer runtime.GOMAXPROCS(prev)
+		var p, j bytes.Buffer
+		for _, asJSON := range []bool{false, true} {
+			in, err := Load(src, nil)
+			if err != nil {
+				t.Fatalf("GOMAXPROCS=%d: %v", procs, err)
+			}
+			err = CheckBuild(in, "test")
+			if asJSON {
+				if err := NewCheckJSON("brief.md", in, err).Write(&j); err != nil {
+					t.Fatal(err)
+				}
+				continue
+			}
+			if err != nil {
+				t.Fatalf("GOMAXPROCS=%d: %v", procs, err)
+			}
+			WriteCheckReport(&p, in)
+		}
+		return p.Bytes(), j.Bytes()
+	}
+	plain1, json1 := check(1)
+	plain2, json2 := check(2)
+	if !bytes.Contains(plain1, []byte("Comparison groups in")) || !bytes.Contains(json1, []byte(`"coverage"`)) {
+		t.Fatalf("an incomplete report:\n%s\n%s", plain1, json1)
+	}
+	if !bytes.Equal(plain1, plain2) {
+		t.Errorf("check's report differs between one processor and two:\n%s\n---\n%s", plain1, plain2)
+	}
+	if !bytes.Equal(json1, json2) {
+		t.Errorf("check --json differs between one processor and two:\n%s\n---\n%s", json1, json2)
+	}
+}

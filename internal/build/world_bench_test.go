@@ -143,3 +143,31 @@ func BenchmarkChartsBrief(b *testing.B) {
 	}
 	reportCPU(b, cpu)
 }
+
+// BenchmarkWorldCheck is what `peerpack check` does on the world: load
+// (brief, data, validation, figures model), build the pack in memory to
+// prove it would build, and write the report. The README's target is under
+// 1 s wall on 2 cores. For a profile:
+//
+//	PEERPACK_WORLD_DIR=/tmp/world go test ./internal/build -run '^$' -bench WorldCheck -benchtime 3x -cpuprofile check.prof
+func BenchmarkWorldCheck(b *testing.B) {
+	src, err := OpenSource(filepath.Join(worldDir(b), "brief.md"), "")
+	if err != nil {
+		b.Fatal(err)
+	}
+	runtime.GC()
+	b.ReportAllocs()
+	b.ResetTimer()
+	cpu := cpuSeconds()
+	for i := 0; i < b.N; i++ {
+		in, err := Load(src, nil)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if err := CheckBuild(in, "bench"); err != nil {
+			b.Fatal(err)
+		}
+		WriteCheckReport(io.Discard, in)
+	}
+	reportCPU(b, cpu)
+}

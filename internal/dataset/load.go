@@ -46,6 +46,23 @@ func Load(fsys fs.FS, b *brief.Brief) (d *Dataset, rep *Report, err error) {
 // reached is a problem naming the file, the limit, what was found and the
 // --limit override that raises it.
 func LoadWith(fsys fs.FS, b *brief.Brief, lim limits.Limits) (d *Dataset, rep *Report, err error) {
+	d, rep, err = LoadUnsummarised(fsys, b, lim)
+	if serr := rep.Summarise(); serr != nil {
+		var probs diag.List
+		probs.Add(err)
+		probs.Add(serr)
+		rep.Problems = probs.Len()
+		return nil, rep, probs.Err()
+	}
+	return d, rep, err
+}
+
+// LoadUnsummarised is LoadWith without the report's data summary
+// (coverage by indicator and year, suspicious values), which only
+// `peerpack check` reads: Report.Summarise computes it when asked, and may
+// run beside later stages, since it only reads the dataset. A build never
+// asks and never pays for it.
+func LoadUnsummarised(fsys fs.FS, b *brief.Brief, lim limits.Limits) (d *Dataset, rep *Report, err error) {
 	l := &loader{fsys: fsys, b: b, rep: &Report{Brief: b.File}, lim: lim.Or()}
 	defer func() {
 		// A fault of ours must reach the user as a message, not a crash.
@@ -157,7 +174,7 @@ func (l *loader) load() *Dataset {
 	l.derive(d, derived)
 	markInternational(d, derived)
 	l.population(d)
-	l.summarise(d)
+	l.rep.summary = func() { l.summarise(d) }
 	return d
 }
 

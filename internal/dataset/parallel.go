@@ -52,6 +52,10 @@ type parsedPart struct {
 
 // parsePart parses one part. It reads the register and dictionary only.
 func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []parsedRow) (p *parsedPart) {
+	if want := r.Unread() / 24; cap(buf) < want {
+		// About one row per 24 bytes or more: rows are rarely shorter.
+		buf = make([]parsedRow, 0, want)
+	}
 	p = &parsedPart{rows: buf[:0]}
 	defer func() {
 		if e := recover(); e != nil {
@@ -173,6 +177,15 @@ func (v *valuesReader) readLongParts(parts []*tabular.CSVReader, file string, fi
 		close(done)
 		wg.Wait()
 	}()
+	// The staged columns by year and indicator, once store has made them:
+	// a plain row whose place is still free is stored here directly, as
+	// store would store it; anything else (a first value of a column, a
+	// duplicate, a limit) goes through store.
+	type column struct {
+		vals  []float64
+		where []uint64
+	}
+	var byYear [MaxYear - MinYear + 1][]column
 	rows := 0
 	for i := range parts {
 		p := <-results[i]
@@ -190,8 +203,25 @@ func (v *valuesReader) readLongParts(parts []*tabular.CSVReader, file string, fi
 				v.longRow(file, fileIdx, p.whole[pr.ref], c)
 				continue
 			}
-			if !math.IsNaN(pr.x) {
-				v.store(file, fileIdx, tabular.Cell{Line: int(pr.line), Col: int(pr.col)}, int(pr.inst), int(pr.ind), int(pr.year), pr.x)
+			if math.IsNaN(pr.x) {
+				continue
+			}
+			cell := tabular.Cell{Line: int(pr.line), Col: int(pr.col)}
+			if cols := byYear[pr.year-MinYear]; cols != nil {
+				if col := cols[pr.ind]; col.vals != nil && col.where[pr.inst] == 0 {
+					col.where[pr.inst] = whereCode(fileIdx, cell)
+					col.vals[pr.inst] = pr.x
+					continue
+				}
+			}
+			v.store(file, fileIdx, cell, int(pr.inst), int(pr.ind), int(pr.year), pr.x)
+			if sl := v.st.slotOf[pr.year-MinYear] - 1; sl >= 0 && v.st.over == nil && v.st.vals[sl][pr.ind] != nil {
+				cols := byYear[pr.year-MinYear]
+				if cols == nil {
+					cols = make([]column, len(v.dict.Indicators))
+					byYear[pr.year-MinYear] = cols
+				}
+				cols[pr.ind] = column{v.st.vals[sl][pr.ind], v.st.where[sl][pr.ind]}
 			}
 		}
 		if p.failed {

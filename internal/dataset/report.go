@@ -5,6 +5,9 @@ import (
 	"io"
 	"strconv"
 	"strings"
+	"sync"
+
+	"peerpack/internal/diag"
 )
 
 // Report is what `peerpack check` prints about the data: what was read,
@@ -36,6 +39,33 @@ type Report struct {
 	// Notes are things done to the inputs that a reader should know of
 	// (a spreadsheet cell read in another unit, say); not problems.
 	Notes []string
+
+	// summary fills Years, Indicators, Suspicious and SuspiciousCount;
+	// see Summarise.
+	summary     func()
+	summaryOnce sync.Once
+	summaryErr  error
+}
+
+// Summarise completes the data summary: Years, Indicators (coverage) and
+// the suspicious values. Load has done it already; after LoadUnsummarised
+// it runs on the first call, and later calls (from any goroutine) wait for
+// it and return the same result. Write calls it. The error is an internal
+// fault of the summary, as a message for the user.
+func (r *Report) Summarise() error {
+	r.summaryOnce.Do(func() {
+		if r.summary == nil {
+			return
+		}
+		defer func() {
+			if e := recover(); e != nil {
+				r.summaryErr = diag.At(r.Brief, 0, 0, "internal error while summarising the data (please report it with the brief and its files): %v", e)
+			}
+		}()
+		r.summary()
+		r.summary = nil
+	})
+	return r.summaryErr
 }
 
 // MaxSuspicious caps the suspicious values listed per kind and indicator.
@@ -144,6 +174,9 @@ const MaxListed = 25
 // Write prints the report as plain text for a person.
 func (r *Report) Write(w io.Writer) {
 	p := func(format string, args ...any) { fmt.Fprintf(w, format, args...) }
+	if err := r.Summarise(); err != nil {
+		p("%v\n", err)
+	}
 	p("Data for %s\n", r.Brief)
 	for _, f := range r.Files {
 		what := plural(f.Rows, "row", "rows")

@@ -307,6 +307,9 @@ func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Su
 			continue
 		}
 		slices.Sort(sorted)
+		if noJump(sorted) {
+			continue
+		}
 		for y, v := range series {
 			if math.IsNaN(v) || v <= 0 {
 				continue
@@ -411,6 +414,24 @@ func (l *loader) placeText(year, ind, inst int) string {
 		return fmt.Sprintf("%s:%d:%d", f, line, col)
 	}
 	return ""
+}
+
+// noJump reports that no value of sorted (ascending, positive, at least
+// three) is a jump from the median of the others, without computing each
+// median. Leaving one value out of n, the median of the other n-1 lies
+// between sorted[(n-1)/2-1] and sorted[(n-1)/2+1] (each order statistic of
+// the rest is the same one of the whole or the next); so when the largest
+// value over the lower bound, and the lower bound over the smallest value
+// via the upper bound, are within JumpFactor (and no mean of two middle
+// values overflows), every ratio is. The bounds
+// are computed with the same divisions as the ratios, and correctly
+// rounded division is monotonic, so the answer is the one the ratios give.
+func noJump(sorted []float64) bool {
+	m := len(sorted) - 1
+	lo, hi := sorted[max(m/2-1, 0)], sorted[m/2+1]
+	// Past MaxFloat64/2 the mean of two middle values can overflow to
+	// infinity, outside the bounds: let the ratios decide.
+	return sorted[m] <= math.MaxFloat64/2 && sorted[m]/lo <= JumpFactor && 1/(sorted[0]/hi) <= JumpFactor
 }
 
 // medianWithout is the median of sorted (ascending, at least two values)

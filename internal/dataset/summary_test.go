@@ -48,3 +48,45 @@ func TestTopScored(t *testing.T) {
 		}
 	}
 }
+
+// TestNoJumpBound: whenever noJump clears a series, no value in it is a
+// jump by the definition itself (its ratio to the type 7 median of the
+// other values, from stats.Quantile as in TestMedianWithout, within
+// JumpFactor either way); and it clears the ordinary series it should.
+func TestNoJumpBound(t *testing.T) {
+	rng := rand.New(rand.NewPCG(10, 10))
+	scales := []float64{1e-310, 1e-3, 1, 1e3, 1e300, 1.5e308}
+	cleared := 0
+	for trial := 0; trial < 200000; trial++ {
+		n := 3 + rng.IntN(10)
+		base := scales[rng.IntN(len(scales))]
+		s := make([]float64, n)
+		for i := range s {
+			// Mostly within a factor of 3, sometimes a factor of 30.
+			f := 1 + 2*rng.Float64()
+			if rng.IntN(40) == 0 {
+				f *= 10
+			}
+			s[i] = base * f
+		}
+		sort.Float64s(s)
+		if !noJump(s) {
+			continue
+		}
+		cleared++
+		for k, v := range s {
+			rest := append(append([]float64(nil), s[:k]...), s[k+1:]...)
+			med := stats.Quantile(rest, 0.5, stats.Type7)
+			ratio := v / med
+			if ratio < 1 {
+				ratio = 1 / ratio
+			}
+			if ratio > JumpFactor {
+				t.Fatalf("noJump cleared %v, but %v is %v times the median %v of the others", s, v, ratio, med)
+			}
+		}
+	}
+	if cleared < 100000 {
+		t.Errorf("noJump cleared only %d of 200000 series", cleared)
+	}
+}

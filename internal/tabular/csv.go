@@ -2,6 +2,7 @@ package tabular
 
 import (
 	"bytes"
+	"encoding/binary"
 	"fmt"
 	"io"
 	"strings"
@@ -34,6 +35,11 @@ type CSVReader struct {
 	buf    []byte
 	lim    limits.Limits
 	rows   int64
+	// plain is set on the parts Split makes: their data holds no double
+	// quote, so a record is a line cut at its commas (recordPlain).
+	// ascii is set when the data is also all ASCII, where a character
+	// column is a byte offset.
+	plain, ascii bool
 }
 
 // NewCSV checks the encoding of data, reads its header and returns a reader
@@ -162,6 +168,11 @@ func (r *CSVReader) record() ([]Cell, error) {
 	if r.done {
 		return nil, io.EOF
 	}
+	if r.plain {
+		if row, ok, err := r.recordPlain(); ok {
+			return row, err
+		}
+	}
 	for {
 		if r.pos >= len(r.data) {
 			r.done = true
@@ -194,6 +205,89 @@ func (r *CSVReader) record() ([]Cell, error) {
 			return r.row, nil
 		}
 	}
+}
+
+// recordPlain reads one record of data without double quotes as record
+// does, giving the same cells, positions and problems, but a line at a
+// time: the line's end and each comma are found with a byte search, and in
+// ASCII data a column is the byte offset. ok is false, with nothing read,
+// for a line that holds a lone CR (a line break of its own) or, in data
+// that is not all ASCII, a multi-byte character; record then reads it.
+func (r *CSVReader) recordPlain() (row []Cell, ok bool, err error) {
+	d := r.data
+	for r.pos < len(d) && (d[r.pos] == '\n' || d[r.pos] == '\r') {
+		r.newline()
+	}
+	if r.pos >= len(d) {
+		r.done = true
+		return nil, true, io.EOF
+	}
+	start := r.pos
+	end := strings.IndexByte(d[start:], '\n')
+	next := 0 // where the next line starts; 0: the data ends with this line
+	if end < 0 {
+		end = len(d)
+	} else {
+		end += start
+		next = end + 1
+	}
+	text := end
+	if i := strings.IndexByte(d[start:end], '\r'); i >= 0 {
+		if start+i != end-1 || next == 0 {
+			return nil, false, nil // a lone CR ends a record too
+		}
+		text = end - 1 // CRLF
+	}
+	if !r.ascii && !isASCII(d[start:text]) {
+		return nil, false, nil
+	}
+	r.row = r.row[:0]
+	at := start
+	for {
+		cell := Cell{Line: r.line, Col: 1 + at - start}
+		j := strings.IndexByte(d[at:text], ',')
+		last := j < 0
+		if last {
+			cell.Text = d[at:text]
+		} else {
+			cell.Text = d[at : at+j]
+		}
+		if int64(len(cell.Text)) > r.lim.CellBytes {
+			r.done, r.failed = true, true
+			return nil, true, diag.At(r.file, cell.Line, cell.Col, "the field starting here is %s", r.lim.Over(limits.CellBytes, int64(len(cell.Text)), "if it should not be this long, look for a stray double quote that joins many lines into one field"))
+		}
+		if int64(len(r.row)) >= r.lim.Columns {
+			r.done, r.failed = true, true
+			return nil, true, diag.At(r.file, cell.Line, cell.Col, "line %d has %s", r.row[0].Line, r.lim.Beyond(limits.Columns, "check the separators of this line"))
+		}
+		r.row = append(r.row, cell)
+		if last {
+			break
+		}
+		at += j + 1
+	}
+	if next == 0 {
+		r.pos, r.col = text, 1+text-start
+	} else {
+		r.pos, r.line, r.col = next, r.line+1, 1
+	}
+	return r.row, true, nil
+}
+
+// isASCII reports whether s holds only bytes below 0x80, eight at a time.
+func isASCII(s string) bool {
+	i := 0
+	for ; i+8 <= len(s); i += 8 {
+		if binary.LittleEndian.Uint64(unsafe.Slice(unsafe.StringData(s[i:]), 8))&0x8080808080808080 != 0 {
+			return false
+		}
+	}
+	for ; i < len(s); i++ {
+		if s[i] >= utf8.RuneSelf {
+			return false
+		}
+	}
+	return true
 }
 
 // newline consumes a line break (CRLF, LF or a lone CR) at pos.

@@ -2,6 +2,7 @@ package tabular
 
 import (
 	"math"
+	"math/rand/v2"
 	"strconv"
 	"strings"
 	"testing"
@@ -64,7 +65,7 @@ func TestParseNumber(t *testing.T) {
 }
 
 func FuzzNumber(f *testing.F) {
-	for _, s := range []string{"12345", "-0.45", "12,345", "0,45", "1.234,5", "NaN", "inf", "-", "n/a", "1e5", "", " 7 ", "45%"} {
+	for _, s := range []string{"-0.0", "0.1", "123456789012345", "1234567890123456", "9007199254740993", "0.000000000000001", "+.5", "5.", ".", "+", "12345", "-0.45", "12,345", "0,45", "1.234,5", "NaN", "inf", "-", "n/a", "1e5", "", " 7 ", "45%"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
@@ -85,9 +86,42 @@ func FuzzNumber(f *testing.F) {
 			// Every accepted text is one strconv also reads, to the same
 			// value.
 			w, perr := strconv.ParseFloat(strings.TrimSpace(s), 64)
-			if perr != nil || w != v {
+			if perr != nil || math.Float64bits(w) != math.Float64bits(v) {
 				t.Fatalf("%q: %v, strconv %v %v", s, v, w, perr)
 			}
 		}
 	})
+}
+
+// The short-decimal path agrees bit for bit with strconv.ParseFloat (the Go
+// standard library, correctly rounded IEEE 754) on decimals of every length
+// around its 15-digit limit, both signs, zeros and the usual value shapes.
+func TestShortDecimalAgreesWithStrconv(t *testing.T) {
+	rng := rand.New(rand.NewPCG(754, 1990))
+	check := func(s string) {
+		t.Helper()
+		v, empty, err := ParseNumber(s)
+		w, perr := strconv.ParseFloat(s, 64)
+		if err != nil || empty || perr != nil || math.Float64bits(v) != math.Float64bits(w) {
+			t.Fatalf("%q: %v (%v), strconv %v (%v)", s, v, err, w, perr)
+		}
+	}
+	for _, s := range []string{"0", "-0", "-0.0", "0.1", "0.3", "1.5721", "74629.95", "9.536", "999999999999999", "0.000000000000001", "123456789012345.", ".123456789012345", "1234567890123456", "9007199254740993", "0.1234567890123456789"} {
+		check(s)
+	}
+	for range 200000 {
+		n := 1 + rng.IntN(18)
+		b := make([]byte, 0, n+2)
+		if rng.IntN(3) == 0 {
+			b = append(b, "+-"[rng.IntN(2)])
+		}
+		dot := rng.IntN(n + 1)
+		for i := range n {
+			if i == dot {
+				b = append(b, '.')
+			}
+			b = append(b, byte('0'+rng.IntN(10)))
+		}
+		check(string(b))
+	}
 }

@@ -23,12 +23,7 @@ import (
 // by the whole reader.
 func (r *CSVReader) Split(n int) []*CSVReader {
 	rest := r.data[r.pos:]
-	if n < 2 || r.done || len(rest) == 0 || r.col != 1 || strings.IndexByte(rest, '"') >= 0 {
-		return nil
-	}
-	// Every record ends at a line break, so there are at most this many.
-	breaks := int64(strings.Count(rest, "\n") + strings.Count(rest, "\r"))
-	if r.rows+breaks+1 > r.lim.Rows {
+	if n < 2 || r.done || len(rest) == 0 || r.col != 1 {
 		return nil
 	}
 	// Cut just after an LF: a record boundary whether the file uses LF,
@@ -49,29 +44,58 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 		}
 	}
 	cuts = append(cuts, len(rest))
-	// Lines before each part, counted in parallel: a line break is an LF,
-	// a CR not followed by an LF, or a CRLF pair.
-	lines := make([]int, len(cuts)-1)
+	// One pass over each part, the parts in parallel: does it hold a
+	// double quote, how many line breaks precede the next part (an LF, a
+	// CR not followed by an LF, or a CRLF pair), how many LFs and CRs it
+	// has (every record ends at one, so there are at most this many
+	// records), and is it all ASCII.
+	type scan struct {
+		quote, ascii  bool
+		lines, breaks int
+	}
+	scans := make([]scan, len(cuts)-1)
 	var wg sync.WaitGroup
 	sem := make(chan struct{}, runtime.GOMAXPROCS(0))
-	for i := range lines {
+	for i := range scans {
 		wg.Add(1)
 		sem <- struct{}{}
 		go func() {
 			defer func() { <-sem; wg.Done() }()
-			lines[i] = lineBreaks(rest[cuts[i]:cuts[i+1]])
+			part := rest[cuts[i]:cuts[i+1]]
+			if strings.IndexByte(part, '"') >= 0 {
+				scans[i].quote = true
+				return
+			}
+			lf, cr := strings.Count(part, "\n"), strings.Count(part, "\r")
+			scans[i].breaks = lf + cr
+			scans[i].lines = lf
+			if cr > 0 {
+				scans[i].lines += cr - strings.Count(part, "\r\n")
+			}
+			scans[i].ascii = isASCII(part)
 		}()
 	}
 	wg.Wait()
-	parts := make([]*CSVReader, len(lines))
+	breaks := int64(0)
+	for _, sc := range scans {
+		if sc.quote {
+			return nil
+		}
+		breaks += int64(sc.breaks)
+	}
+	if r.rows+breaks+1 > r.lim.Rows {
+		return nil
+	}
+	parts := make([]*CSVReader, len(scans))
 	line := r.line
 	for i := range parts {
 		p := *r
 		p.data = rest[cuts[i]:cuts[i+1]]
 		p.pos, p.line, p.col = 0, line, 1
 		p.row, p.buf = nil, nil
+		p.plain, p.ascii = true, scans[i].ascii
 		parts[i] = &p
-		line += lines[i]
+		line += scans[i].lines
 	}
 	r.pos, r.done = len(r.data), true // the parts read the rest
 	return parts
@@ -80,14 +104,6 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 // Failed reports whether a problem stopped the reader before the end of
 // its data.
 func (r *CSVReader) Failed() bool { return r.failed }
-
-func lineBreaks(s string) int {
-	n := strings.Count(s, "\n")
-	if cr := strings.Count(s, "\r"); cr > 0 {
-		n += cr - strings.Count(s, "\r\n")
-	}
-	return n
-}
 
 // Unread is the number of bytes the reader has not read yet.
 func (r *CSVReader) Unread() int { return len(r.data) - r.pos }

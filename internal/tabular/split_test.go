@@ -109,3 +109,38 @@ func TestSplitReadsAsTheWhole(t *testing.T) {
 		t.Error("Split cut a file that may reach the rows limit")
 	}
 }
+
+// FuzzSplit: whatever the bytes, the parts of a split read in order give
+// what the whole reader gives (cells, positions, problems), under tight
+// limits so that the limit problems are reached too.
+func FuzzSplit(f *testing.F) {
+	for _, s := range []string{
+		"a,b\n1,2\n3,4\n",
+		"a,b\r\n1,2\r\n\r\n3,4",
+		"a,b\r1,2\r3,4\r",
+		"a,b\n1,2\n3\n4,5,6\n,\n",
+		"a,b\nVårdø,2\n😀,ł\n1,2\r",
+		"a,b\n1,2\r\r\n3,4\n",
+	} {
+		f.Add([]byte(s), uint8(3))
+	}
+	f.Fuzz(func(t *testing.T, data []byte, n uint8) {
+		lim := limits.Default()
+		lim.CellBytes = 6
+		lim.Columns = 4
+		whole, err := NewCSVWith("f.csv", data, lim)
+		if err != nil {
+			return
+		}
+		want := readAll(whole)
+		r, _ := NewCSVWith("f.csv", data, lim)
+		parts := r.Split(int(n%8) + 2)
+		if parts == nil {
+			return
+		}
+		got := readAll(parts...)
+		if strings.Join(got, "\n") != strings.Join(want, "\n") {
+			t.Fatalf("%q in parts:\n got %q\nwant %q", data, got, want)
+		}
+	})
+}

@@ -173,6 +173,7 @@ func readFile(fsys fs.FS, name string, lim limits.Limits) ([]byte, error) {
 	// rather than growing one by doubling: a 170 MB values file would
 	// otherwise be copied and cleared several times over.
 	data := make([]byte, size+1)
+	adviseHugePages(data)
 	n, err := io.ReadFull(f, data)
 	switch {
 	case err == io.ErrUnexpectedEOF || err == io.EOF:

@@ -324,6 +324,14 @@ func pack(in *Inputs, created time.Time, version string, alongside func()) (p *P
 	if err != nil {
 		return nil, err
 	}
+	// Every sentence is re-read against the figures before anything is
+	// laid out: a printed number that no cited figure gives, or a recorded
+	// claim that does not hold, fails the build rather than reaching a
+	// council (wording is chosen from claims that hold, so this is a
+	// safety net for the wording code, not a check of the data).
+	if err := narrative.Verify(in.Figures, com); err != nil {
+		return nil, fmt.Errorf("the commentary did not pass its own check, so no pack was written; this is a fault in peerpack, not in the brief or data: please report it with the brief\n%w", err)
+	}
 	if alongside != nil {
 		done := make(chan struct{})
 		go func() {

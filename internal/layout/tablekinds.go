@@ -294,7 +294,7 @@ func (w *writer) peersTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 	}
 	first := inds[0]
 	col := w.m.Data.Column(w.m.Data.Dictionary.Index(first.Key), year)
-	members := append([]int(nil), gr.Members...)
+	members := append([]int(nil), gr.MembersIn(year)...)
 	val := func(i int) float64 {
 		if col == nil {
 			return math.NaN()
@@ -363,7 +363,7 @@ func (w *writer) peersTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 		n := fmt.Sprintf("Showing %d of the group's %d members", min(limit, len(members)), len(members))
 		if !focusShown {
 			n += fmt.Sprintf("; %s is added at the foot", reg.Institutions[w.m.Focus].Name)
-			if !gr.FocusIn {
+			if !gr.HasIn(w.m.Focus, year) {
 				n += " and is not a member, its place shown among the members"
 			}
 		}
@@ -389,7 +389,7 @@ func (w *writer) groupsTable(tb *brief.TableBlock, groups []*figures.Group, inds
 	standAlign := []byte{'L'}
 	for _, gr := range groups {
 		// No-break spaces keep "(n = 52)" on one line of the header.
-		head = append(head, fmt.Sprintf("%s median (n\u00a0=\u00a0%s)", gr.Name, format.Int(len(gr.Members))))
+		head = append(head, fmt.Sprintf("%s median (n\u00a0=\u00a0%s)", gr.Name, format.Int(len(gr.MembersIn(year)))))
 		align = append(align, 'R')
 		standHead = append(standHead, gr.Name)
 		standAlign = append(standAlign, 'R')

@@ -61,6 +61,7 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		Better:    ind.Better,
 		FromYear:  printYear(y0),
 		ToYear:    printYear(y1),
+		EndsEarly: y1 < c.m.Year,
 		From:      printValue(ind, p0.Value),
 		To:        printValue(ind, p1.Value),
 		Direction: direction(ind, change, iqr),

@@ -185,6 +185,10 @@ type ChangeFact struct {
 	Better    dataset.Polarity
 	FromYear  string
 	ToYear    string
+	// EndsEarly is set when ToYear is earlier than the reporting year
+	// (the focus's last value is older): the sentence then names both
+	// years rather than reading as a change up to now.
+	EndsEarly bool
 	From, To  string
 	// Direction is Above (rose), Below (fell) or Level (broadly
 	// unchanged: within the noise threshold).

@@ -370,6 +370,9 @@ func (e english) Change(f ChangeFact) string {
 		}
 	}
 	if f.Diff == "" {
+		if f.EndsEarly {
+			return e.fill("Between {fromYear} and {toYear}, {focus's} figure "+verbed+" from {from} to {to}"+judge+".", kv...)
+		}
 		return e.fill("Since {fromYear}, {focus's} figure has "+verb+" from {from} to {to}"+judge+".", kv...)
 	}
 	tmpl := [...]string{
@@ -377,7 +380,12 @@ func (e english) Change(f ChangeFact) string {
 		"{focus's} figure " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}" + judge + ".",
 		"Between {fromYear} and {toYear}, {focus} went from {from} to {to}, " + noun + " of {diff}" + judge + ".",
 	}
-	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
+	i := rotate(f.Seed, f.Turn, len(tmpl))
+	if f.EndsEarly && i == 0 {
+		// "Since 2020" reads as "up to now"; the last value is older.
+		i = 1
+	}
+	return e.fill(tmpl[i], kv...)
 }
 
 // ChangeMedian: the group median's movement and what it meant for the

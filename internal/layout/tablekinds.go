@@ -260,7 +260,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 		}
 	}
 	if contains(cols, "change") && cy.mixed {
-		g.notes = append(g.notes, fmt.Sprintf("Changes run from %d to %d, the first and last years with a value, unless the cell gives other years.", cy.first, cy.last))
+		g.notes = append(g.notes, fmt.Sprintf("Changes run from %d to %d except where a cell names other years: each runs from the first to the last year with a value.", cy.first, cy.last))
 	}
 	g.notes = append(g.notes, w.methodNote())
 	if hasLower(inds) {

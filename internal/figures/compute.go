@@ -70,7 +70,10 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		probs.Add(err)
 		return nil, probs
 	}
-	m.computePanels()
+	if err := m.computePanels(); err != nil {
+		probs.Add(err)
+		return nil, probs
+	}
 	// The peers rows join the later stages' rows: the figures file and
 	// Lookup read them from there.
 	m.Add(m.peersRows(nil)...)

@@ -1,8 +1,12 @@
 package figures
 
 import (
+	"fmt"
 	"math"
+	"runtime"
 	"slices"
+	"sync"
+	"sync/atomic"
 
 	"peerpack/internal/stats"
 )
@@ -21,61 +25,101 @@ type panelKey struct {
 	y0, y1     int
 }
 
-// panel is the two years' values of a panel, each sorted ascending, and
-// its members (ascending register positions).
-type panel struct {
-	members  []int
-	at0, at1 []float64
-}
-
 // computePanels places every tracked institution's valid trend within its
 // constant panel (Trend.PanelOf, PanelStartRank, PanelEndRank,
-// PanelRankChange). Panels are shared by the trends of one group,
-// indicator and pair of years.
-func (m *Model) computePanels() {
-	cache := map[panelKey]*panel{}
+// PanelRankChange). The trends of one group, indicator and pair of years
+// share a panel, which is gathered once into reused buffers and counted
+// against all of them in one pass (stats.PlaceAll), so the cost is
+// O(members x tracked) per panel and nothing is kept.
+func (m *Model) computePanels() error {
+	byPanel := map[panelKey][]*Trend{}
+	var keys []panelKey
 	for _, t := range m.trend {
 		if !t.Valid || t.StartOf == 0 || t.EndOf == 0 {
 			continue
 		}
-		g, ok := m.Group(t.Group)
-		k := m.Data.Dictionary.Index(t.Indicator)
-		if !ok || k < 0 {
-			continue
+		k := panelKey{t.Group, t.Indicator, t.StartYear, t.EndYear}
+		if _, ok := byPanel[k]; !ok {
+			keys = append(keys, k)
 		}
-		key := panelKey{t.Group, t.Indicator, t.StartYear, t.EndYear}
-		p, ok := cache[key]
-		if !ok {
-			p = m.panelOf(g, k, t.StartYear, t.EndYear)
-			cache[key] = p
-		}
-		dir := RankDirection(m.Data.Dictionary.Indicators[k].Better)
-		_, in := slices.BinarySearch(p.members, t.Institution)
-		s := stats.Place(p.at0, t.StartValue, dir, in)
-		e := stats.Place(p.at1, t.EndValue, dir, in)
-		t.PanelOf = s.Of
-		t.PanelStartRank, t.PanelEndRank = s.Rank, e.Rank
-		t.PanelRankChange = s.Rank - e.Rank
+		byPanel[k] = append(byPanel[k], t)
 	}
+	// Panels are independent and each writes only its own trends, so
+	// workers share them out without changing the outcome.
+	workers := min(runtime.GOMAXPROCS(0), len(keys))
+	var wg sync.WaitGroup
+	var next atomic.Int64
+	var failMu sync.Mutex
+	var failure error
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			// A panic here is a defect; it becomes an error, as in
+			// compute, so it cannot reach the user as a crash.
+			defer func() {
+				if r := recover(); r != nil {
+					failMu.Lock()
+					if failure == nil {
+						failure = fmt.Errorf("internal error while placing trends in their constant panels (%v); please report it with the brief and data", r)
+					}
+					failMu.Unlock()
+					next.Store(int64(len(keys)))
+				}
+			}()
+			var pb panelBuffers
+			for {
+				j := int(next.Add(1)) - 1
+				if j >= len(keys) {
+					return
+				}
+				m.placeInPanel(keys[j], byPanel[keys[j]], &pb)
+			}
+		}()
+	}
+	wg.Wait()
+	return failure
 }
 
-// panelOf gathers a group's constant panel on indicator k between two
-// years.
-func (m *Model) panelOf(g *Group, k, y0, y1 int) *panel {
-	c0, c1 := m.Data.Column(k, y0), m.Data.Column(k, y1)
-	p := &panel{}
-	if c0 == nil || c1 == nil {
-		return p
+// panelBuffers are one worker's reused slices.
+type panelBuffers struct {
+	at0, at1, t0, t1 []float64
+	member           []bool
+	p0, p1           []stats.Placement
+}
+
+// placeInPanel gathers one panel and places its trends' institutions in
+// it at both ends.
+func (m *Model) placeInPanel(k panelKey, ts []*Trend, b *panelBuffers) {
+	g, ok := m.Group(k.group)
+	ind := m.Data.Dictionary.Index(k.ind)
+	c0, c1 := m.Data.Column(ind, k.y0), m.Data.Column(ind, k.y1)
+	if !ok || c0 == nil || c1 == nil {
+		return
 	}
-	for _, i := range g.MembersIn(y0) {
-		if !g.HasIn(i, y1) || math.IsNaN(c0[i]) || math.IsNaN(c1[i]) {
-			continue
+	b.at0, b.at1 = b.at0[:0], b.at1[:0]
+	for _, i := range g.MembersIn(k.y0) {
+		if g.HasIn(i, k.y1) && !math.IsNaN(c0[i]) && !math.IsNaN(c1[i]) {
+			b.at0 = append(b.at0, c0[i])
+			b.at1 = append(b.at1, c1[i])
 		}
-		p.members = append(p.members, i)
-		p.at0 = append(p.at0, c0[i])
-		p.at1 = append(p.at1, c1[i])
 	}
-	slices.Sort(p.at0)
-	slices.Sort(p.at1)
-	return p
+	b.t0, b.t1, b.member = b.t0[:0], b.t1[:0], b.member[:0]
+	for _, t := range ts {
+		b.t0 = append(b.t0, t.StartValue)
+		b.t1 = append(b.t1, t.EndValue)
+		// In the panel: a member at both ends (its values are there, as
+		// its trend is valid).
+		b.member = append(b.member, g.HasIn(t.Institution, k.y0) && g.HasIn(t.Institution, k.y1))
+	}
+	b.p0 = slices.Grow(b.p0[:0], len(ts))[:len(ts)]
+	b.p1 = slices.Grow(b.p1[:0], len(ts))[:len(ts)]
+	dir := RankDirection(m.Data.Dictionary.Indicators[ind].Better)
+	stats.PlaceAll(b.at0, b.t0, b.member, dir, b.p0)
+	stats.PlaceAll(b.at1, b.t1, b.member, dir, b.p1)
+	for j, t := range ts {
+		t.PanelOf = b.p0[j].Of
+		t.PanelStartRank, t.PanelEndRank = b.p0[j].Rank, b.p1[j].Rank
+		t.PanelRankChange = b.p0[j].Rank - b.p1[j].Rank
+	}
 }

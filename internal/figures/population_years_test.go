@@ -188,6 +188,8 @@ func TestPopulationAsOfEachYear(t *testing.T) {
 		{Key{Section: SectionPopulation, Year: 2023, Measure: "n_ranked"}, 3},
 		{Key{Section: SectionPopulation, Year: 2024, Measure: "n_ranked"}, 5},
 		{Key{Section: SectionPopulation, Year: 2023, Measure: "n_excluded"}, 4},
+		{Key{Section: SectionGroup, Group: "Sector", Year: 2022, Measure: "n_members"}, 4},
+		{Key{Section: SectionGroup, Group: "Listed", Year: 2023, Measure: "n_members"}, 1},
 		{Key{Section: SectionTrend, Group: "Sector", Indicator: "score", Institution: "P1", Measure: "panel_of"}, 3},
 		{Key{Section: SectionTrend, Group: "Sector", Indicator: "score", Institution: "P1", Measure: "panel_rank_change"}, -1},
 	} {
@@ -232,5 +234,27 @@ func TestPopulationFixedPanel(t *testing.T) {
 	}
 	if _, ok := m.Lookup(Key{Section: SectionPopulation, Year: 2022, Measure: "n_ranked"}); ok {
 		t.Error("a fixed panel has no per-year counts")
+	}
+}
+
+// The rows of a model with populations by year stay in key order and each
+// is found again by Lookup (the figures file's contract).
+func TestPopulationYearsRowsSorted(t *testing.T) {
+	m := popYearsModel(t, "")
+	var prev *Key
+	n := 0
+	for r := range m.Rows() {
+		if prev != nil && compareKeys(*prev, r.Key) >= 0 {
+			t.Fatalf("rows out of order: %s then %s", prev, r.Key)
+		}
+		k := r.Key
+		prev = &k
+		if got, ok := m.Lookup(r.Key); !ok || got != r {
+			t.Fatalf("Lookup(%s) = %+v, %v; the row is %+v", r.Key, got, ok, r)
+		}
+		n++
+	}
+	if n == 0 {
+		t.Fatal("no rows")
 	}
 }

@@ -129,7 +129,7 @@ func (m *Model) groupRows(f rowSink, g *Group) bool {
 	if g.Spec != g.Name && !emitText(f, gk("spec"), g.Spec) {
 		return false
 	}
-	return true
+	return m.groupYearRows(f, g)
 }
 
 // groupMember is one per-institution row of a group: a listed member, a

@@ -141,3 +141,19 @@ func (m *Model) populationYearRows(f rowSink) bool {
 	}
 	return true
 }
+
+// groupYearRows yields, for a group whose members change from year to
+// year, each span year's member count (section group, year set, no
+// institution).
+func (m *Model) groupYearRows(f rowSink, g *Group) bool {
+	if !g.VariesByYear() {
+		return true
+	}
+	for _, y := range m.Years {
+		k := Key{Section: SectionGroup, Group: g.Name, Year: y, Measure: "n_members"}
+		if !emitNum(f, k, float64(len(g.MembersIn(y)))) {
+			return false
+		}
+	}
+	return true
+}

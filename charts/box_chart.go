@@ -129,7 +129,7 @@ func boxRows(m *figures.Model, spec *brief.ChartBlock, ind dataset.Indicator, gr
 		// n is the panel's own: the members with a value for this
 		// indicator and year, which differs between panels where
 		// coverage does.
-		r := BoxRow{Label: g.Name, Members: d.Box.N, Box: d.Box, Focus: math.NaN(), Outliers: d.Box.OutlierValues, FocusOutside: !g.FocusIn}
+		r := BoxRow{Label: g.Name, Members: d.Box.N, Box: d.Box, Focus: math.NaN(), Outliers: d.Box.OutlierValues, FocusOutside: !g.HasIn(m.Focus, year)}
 		if p, ok := m.Position(g.Name, ind.Key, m.Focus, year); ok && p.HasValue {
 			r.Focus, r.FocusText = p.Value, axisValueText(ind, p.Value)
 		}

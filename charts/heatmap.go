@@ -302,18 +302,18 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 	for _, i := range order {
 		inOrder[i] = true
 	}
-	for _, i := range g.Members {
+	for _, i := range g.MembersIn(year) {
 		if !inOrder[i] {
 			order = append(order, i)
 		}
 	}
-	if !g.Has(m.Focus) {
+	if !g.HasIn(m.Focus, year) {
 		order = append(order, m.Focus)
 	}
 	chosen := map[int]bool{}
 	n := 0
 	for i := range keep {
-		if g.Has(i) || i == m.Focus {
+		if g.HasIn(i, year) || i == m.Focus {
 			chosen[i] = true
 			n++
 		}
@@ -341,7 +341,7 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 		}
 		for k, ind := range inds {
 			p := percentileOf(places[k], inst)
-			if inst == m.Focus && !g.Has(inst) {
+			if inst == m.Focus && !g.HasIn(inst, year) {
 				if pos, ok := m.Position(g.Name, ind.Key, inst, year); ok && pos.HasValue {
 					p = pos.Percentile
 				}
@@ -352,10 +352,10 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 	}
 	shown := len(hc.Rows)
 	outside := ""
-	if !g.Has(m.Focus) {
+	if !g.HasIn(m.Focus, year) {
 		shown--
 		outside = fmt.Sprintf(" %s is not a member: its row places it among them.", institution(m, m.Focus).Name)
 	}
-	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown.%s Percentile ranks run in each indicator's better direction (higher is better; for neutral indicators, higher values).", shortName(inds[0]), shown, len(g.Members), outside)
+	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown.%s Percentile ranks run in each indicator's better direction (higher is better; for neutral indicators, higher values).", shortName(inds[0]), shown, len(g.MembersIn(year)), outside)
 	return hc, nil
 }

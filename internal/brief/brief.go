@@ -233,7 +233,18 @@ type PopulationSpec struct {
 	MaxValue []MaxValueRule `yaml:"max_value"`
 	// Require lists register attributes that must be present and non-empty.
 	Require []string `yaml:"require"`
+	// EarlierYears says who is ranked in the span's earlier years:
+	// "rolling" (the default) applies the rules as of each year, windows
+	// ending that year; "fixed" keeps the reporting year's ranked
+	// population in every year (a fixed panel).
+	EarlierYears string `yaml:"earlier_years"`
 }
+
+// Values of PopulationSpec.EarlierYears.
+const (
+	EarlierRolling = "rolling"
+	EarlierFixed   = "fixed"
+)
 
 // MinTotalRule: sum of Indicator over the Years years ending at the brief
 // year must be at least AtLeast.

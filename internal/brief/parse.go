@@ -280,6 +280,16 @@ func (b *Brief) validateFrontMatter() error {
 		p := b.PosOf("quantiles")
 		l.Addf(b.File, p.Line, p.Column, "quantiles %q is not a known definition; use type7 (default), type6 or hinges", b.Quantiles)
 	}
+	if pop := b.Population; pop != nil {
+		switch pop.EarlierYears {
+		case "":
+			pop.EarlierYears = EarlierRolling
+		case EarlierRolling, EarlierFixed:
+		default:
+			p := b.PosOf("population.earlier_years")
+			l.Addf(b.File, p.Line, p.Column, "population earlier_years %q is not known; use rolling (the rules applied as of each year, the default) or fixed (the reporting year's population in every year)", pop.EarlierYears)
+		}
+	}
 	if b.Noise != nil && !(*b.Noise >= 0 && *b.Noise < 25) {
 		p := b.PosOf("noise")
 		l.Addf(b.File, p.Line, p.Column, "noise %v is outside 0 to 25; it is the noise rule in percentile points, e.g. noise: 5", *b.Noise)

@@ -108,8 +108,10 @@ func groupCoverage(b *brief.Brief, m *figures.Model) []dataset.GroupCoverage {
 			row := make([]float64, len(m.Years))
 			for j, y := range m.Years {
 				row[j] = math.NaN()
-				if d, ok := m.Distribution(g.Name, ind.Key, y); ok && len(g.Members) > 0 {
-					row[j] = float64(d.N) / float64(len(g.Members))
+				// Members of that year: the population rules may be
+				// applied as of each year.
+				if d, ok := m.Distribution(g.Name, ind.Key, y); ok && d.N+d.Missing > 0 {
+					row[j] = float64(d.N) / float64(d.N+d.Missing)
 				}
 			}
 			gc.Indicators = append(gc.Indicators, ind.Key)

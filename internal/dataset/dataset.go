@@ -324,6 +324,37 @@ func (d *Dataset) InPopulation(inst int) bool {
 	return d.Population.Included[inst]
 }
 
+// InPopulationIn reports whether institution inst counts in the ranked
+// population of a year: the rules applied as of that year, or the
+// reporting year's population when the brief fixes the panel, when there
+// are no rules, or for a year the data do not hold.
+func (d *Dataset) InPopulationIn(inst, year int) bool {
+	if d.Population == nil {
+		return true
+	}
+	if in, ok := d.Population.ByYear[year]; ok {
+		return in[inst]
+	}
+	return d.Population.Included[inst]
+}
+
+// RankedIn counts the ranked population of a year (see InPopulationIn).
+func (d *Dataset) RankedIn(year int) int {
+	n := 0
+	for i := 0; i < d.Register.Len(); i++ {
+		if d.InPopulationIn(i, year) {
+			n++
+		}
+	}
+	return n
+}
+
+// PopulationByYear reports whether earlier years have populations of
+// their own (the rules applied as of each year).
+func (d *Dataset) PopulationByYear() bool {
+	return d.Population != nil && len(d.Population.ByYear) > 0
+}
+
 // Population is the outcome of the brief's population rules.
 type Population struct {
 	Included []bool
@@ -334,6 +365,14 @@ type Population struct {
 	// RuleExcluded counts, aligned with Rules, how many institutions each
 	// rule left out; an institution failing two rules counts under both.
 	RuleExcluded []int
+	// ByYear holds, for every other year of the data, who passes the
+	// rules as of that year (windows ending that year), and YearRules
+	// those years' rule texts, aligned with Rules. Both are nil when the
+	// brief fixes the panel (Fixed: earlier_years: fixed), in which case
+	// Included holds for every year.
+	ByYear    map[int][]bool
+	YearRules map[int][]string
+	Fixed     bool
 }
 
 // PPPTable holds purchasing-power-parity conversion factors, local currency

@@ -6,6 +6,7 @@ import (
 	"strconv"
 	"strings"
 
+	"peerpack/internal/brief"
 	"peerpack/internal/yamlx"
 )
 
@@ -13,6 +14,11 @@ import (
 // rule it fails; the reasons are kept in rule order. A max_value rule
 // cannot be checked without a value in the brief's year, so such an
 // institution stays in and is counted as unchecked.
+//
+// The rules are applied as of the brief's year and, unless the brief fixes
+// the panel (earlier_years: fixed), as of every other year of the data
+// too, each with windows ending that year (see ruleSet.excludes), so an
+// earlier year's figures rank the institutions that met the rules then.
 func (l *loader) population(d *Dataset) {
 	spec := l.b.Population
 	if spec == nil {
@@ -26,16 +32,6 @@ func (l *loader) population(d *Dataset) {
 		p.Included[i] = true
 	}
 	out := &PopulationOutcome{}
-	// exclude charges the exclusion to the rule being applied, the last
-	// one described in p.Rules.
-	exclude := func(inst int, why string) {
-		p.Included[inst] = false
-		p.Excluded[inst] = append(p.Excluded[inst], why)
-		for len(p.RuleExcluded) < len(p.Rules) {
-			p.RuleExcluded = append(p.RuleExcluded, 0)
-		}
-		p.RuleExcluded[len(p.Rules)-1]++
-	}
 	indicator := func(key string, line, col int) int {
 		i := dict.Index(key)
 		if i < 0 {
@@ -47,6 +43,7 @@ func (l *loader) population(d *Dataset) {
 		}
 		return i
 	}
+	var rules ruleSet
 	for _, r := range spec.MinTotal {
 		ind := indicator(r.Indicator, r.Pos.Line, r.Pos.Column)
 		if r.Years < 1 {
@@ -60,29 +57,7 @@ func (l *loader) population(d *Dataset) {
 		if ind < 0 {
 			continue
 		}
-		in := dict.Indicators[ind]
-		first := b.Year - r.Years + 1
-		label := runningText(in)
-		rule := fmt.Sprintf("%s summed over %s of at least %s", label, yearRange(first, b.Year), num(r.AtLeast, in.Decimals))
-		if r.Years == 1 {
-			rule = fmt.Sprintf("%s in %d of at least %s", label, b.Year, num(r.AtLeast, in.Decimals))
-		}
-		p.Rules = append(p.Rules, rule)
-		for inst := 0; inst < n; inst++ {
-			sum, seen := 0.0, 0
-			for y := first; y <= b.Year; y++ {
-				if v, ok := d.Value(ind, inst, y); ok {
-					sum += v
-					seen++
-				}
-			}
-			switch {
-			case seen == 0:
-				exclude(inst, fmt.Sprintf("no value of %s in %s", label, yearRange(first, b.Year)))
-			case sum < r.AtLeast:
-				exclude(inst, fmt.Sprintf("%s summed over %s is %s, below %s", label, yearRange(first, b.Year), num(sum, in.Decimals), num(r.AtLeast, in.Decimals)))
-			}
-		}
+		rules = append(rules, popRule{kind: ruleMinTotal, ind: ind, in: dict.Indicators[ind], years: r.Years, limit: r.AtLeast})
 	}
 	for _, r := range spec.MaxValue {
 		ind := indicator(r.Indicator, r.Pos.Line, r.Pos.Column)
@@ -93,19 +68,7 @@ func (l *loader) population(d *Dataset) {
 		if ind < 0 {
 			continue
 		}
-		in := dict.Indicators[ind]
-		label := runningText(in)
-		p.Rules = append(p.Rules, fmt.Sprintf("%s in %d of at most %s", label, b.Year, num(r.AtMost, in.Decimals)))
-		for inst := 0; inst < n; inst++ {
-			v, ok := d.Value(ind, inst, b.Year)
-			if !ok {
-				out.Unchecked++
-				continue
-			}
-			if v > r.AtMost {
-				exclude(inst, fmt.Sprintf("%s in %d is %s, above %s", label, b.Year, num(v, max(in.Decimals, 2)), num(r.AtMost, max(in.Decimals, 2))))
-			}
-		}
+		rules = append(rules, popRule{kind: ruleMaxValue, ind: ind, in: dict.Indicators[ind], limit: r.AtMost})
 	}
 	for _, attr := range spec.Require {
 		if !d.Register.HasAttr(attr) {
@@ -121,15 +84,45 @@ func (l *loader) population(d *Dataset) {
 			l.probs.Addf(b.File, pos.Line, pos.Column, "%s", msg)
 			continue
 		}
-		p.Rules = append(p.Rules, fmt.Sprintf("a value in the register's %s column", attr))
-		for inst, in := range d.Register.Institutions {
-			if v, _ := in.Attr(attr); strings.TrimSpace(v) == "" {
-				exclude(inst, fmt.Sprintf("register field %s is empty", attr))
+		rules = append(rules, popRule{kind: ruleRequire, attr: attr})
+	}
+	p.Rules = rules.texts(d, b.Year)
+	p.RuleExcluded = make([]int, len(rules))
+	for ri, r := range rules {
+		for inst := 0; inst < n; inst++ {
+			why, unchecked := r.excludes(d, inst, b.Year)
+			if unchecked {
+				out.Unchecked++
 			}
+			if why == "" {
+				continue
+			}
+			p.Included[inst] = false
+			p.Excluded[inst] = append(p.Excluded[inst], why)
+			p.RuleExcluded[ri]++
 		}
 	}
-	for len(p.RuleExcluded) < len(p.Rules) {
-		p.RuleExcluded = append(p.RuleExcluded, 0)
+	p.Fixed = spec.EarlierYears == brief.EarlierFixed
+	if !p.Fixed && len(rules) > 0 {
+		p.ByYear = map[int][]bool{}
+		p.YearRules = map[int][]string{}
+		for _, y := range d.Years {
+			if y == b.Year {
+				continue
+			}
+			in := make([]bool, n)
+			for inst := range in {
+				in[inst] = true
+				for _, r := range rules {
+					if why, _ := r.excludes(d, inst, y); why != "" {
+						in[inst] = false
+						break
+					}
+				}
+			}
+			p.ByYear[y] = in
+			p.YearRules[y] = rules.texts(d, y)
+		}
 	}
 	d.Population = p
 	out.Rules = p.Rules
@@ -151,6 +144,122 @@ func (l *loader) population(d *Dataset) {
 		pos := b.PosOf("population")
 		l.probs.Addf(b.File, pos.Line, pos.Column, "the population rules leave no institution of the %s in the register to rank: %s; loosen a rule or remove it", thousands(n), ruleCounts(p))
 	}
+}
+
+// Kinds of population rule.
+const (
+	ruleMinTotal = iota
+	ruleMaxValue
+	ruleRequire
+)
+
+// popRule is one checked population rule of the brief.
+type popRule struct {
+	kind  int
+	ind   int       // dictionary position (min_total, max_value)
+	in    Indicator // its entry
+	years int       // min_total's window
+	limit float64   // at_least or at_most
+	attr  string    // require's register column
+}
+
+type ruleSet []popRule
+
+// texts describes every rule as of a year, in rule order.
+func (rs ruleSet) texts(d *Dataset, year int) []string {
+	out := make([]string, len(rs))
+	for i, r := range rs {
+		out[i] = r.text(d, year)
+	}
+	return out
+}
+
+// window returns the years a min_total rule sums as of a year: the
+// window of r.years ending that year, cut to the years the data hold,
+// with the threshold scaled to the years kept. A window that reaches back
+// before the data (2020 under a three-year rule on data from 2020) would
+// otherwise ask one year's output to reach three years' total; the scaled
+// threshold asks the same output a year (common practice, no source).
+func (r popRule) window(d *Dataset, year int) (first int, held int, atLeast float64) {
+	first = year - r.years + 1
+	for _, y := range d.Years {
+		if y >= first && y <= year {
+			held++
+		}
+	}
+	if len(d.Years) > 0 && first < d.Years[0] && held > 0 {
+		first = d.Years[0]
+		return first, held, r.limit * float64(held) / float64(r.years)
+	}
+	return first, held, r.limit
+}
+
+// text describes the rule as of a year; a scaled window says so.
+func (r popRule) text(d *Dataset, year int) string {
+	switch r.kind {
+	case ruleMinTotal:
+		label := runningText(r.in)
+		first, held, atLeast := r.window(d, year)
+		var s string
+		if first == year {
+			s = fmt.Sprintf("%s in %d of at least %s", label, year, num(atLeast, r.in.Decimals))
+		} else {
+			s = fmt.Sprintf("%s summed over %s of at least %s", label, yearRange(first, year), num(atLeast, r.in.Decimals))
+		}
+		if atLeast != r.limit {
+			s += fmt.Sprintf(" (%s over %d years, scaled to the %s the data hold)", num(r.limit, r.in.Decimals), r.years, yearsWord(held))
+		}
+		return s
+	case ruleMaxValue:
+		return fmt.Sprintf("%s in %d of at most %s", runningText(r.in), year, num(r.limit, r.in.Decimals))
+	}
+	return fmt.Sprintf("a value in the register's %s column", r.attr)
+}
+
+// excludes says why institution inst fails the rule as of a year ("" when
+// it passes); unchecked is set when a max_value rule has no value to
+// check, which keeps the institution in.
+func (r popRule) excludes(d *Dataset, inst, year int) (why string, unchecked bool) {
+	switch r.kind {
+	case ruleMinTotal:
+		label := runningText(r.in)
+		first, _, atLeast := r.window(d, year)
+		sum, seen := 0.0, 0
+		for y := first; y <= year; y++ {
+			if v, ok := d.Value(r.ind, inst, y); ok {
+				sum += v
+				seen++
+			}
+		}
+		switch {
+		case seen == 0:
+			return fmt.Sprintf("no value of %s in %s", label, yearRange(first, year)), false
+		case sum < atLeast:
+			return fmt.Sprintf("%s summed over %s is %s, below %s", label, yearRange(first, year), num(sum, r.in.Decimals), num(atLeast, r.in.Decimals)), false
+		}
+	case ruleMaxValue:
+		v, ok := d.Value(r.ind, inst, year)
+		if !ok {
+			return "", true
+		}
+		if v > r.limit {
+			label := runningText(r.in)
+			return fmt.Sprintf("%s in %d is %s, above %s", label, year, num(v, max(r.in.Decimals, 2)), num(r.limit, max(r.in.Decimals, 2))), false
+		}
+	case ruleRequire:
+		if v, _ := d.Register.Institutions[inst].Attr(r.attr); strings.TrimSpace(v) == "" {
+			return fmt.Sprintf("register field %s is empty", r.attr), false
+		}
+	}
+	return "", false
+}
+
+// yearsWord says "one year" or "2 years".
+func yearsWord(n int) string {
+	if n == 1 {
+		return "one year"
+	}
+	return fmt.Sprintf("%d years", n)
 }
 
 // ruleCounts says how many each rule left out, in rule order.

@@ -18,7 +18,7 @@ func (m *Model) Members(group, indicator string, year int) (insts []int, values 
 	if !ok || col == nil {
 		return nil, nil
 	}
-	for _, i := range g.Members {
+	for _, i := range g.MembersIn(year) {
 		if v := col[i]; !math.IsNaN(v) {
 			insts = append(insts, i)
 			values = append(values, v)
@@ -43,7 +43,7 @@ func (m *Model) MemberPairs(group, x, y string, year int) []Pair {
 		return nil
 	}
 	var out []Pair
-	for _, i := range g.Members {
+	for _, i := range g.MembersIn(year) {
 		if !math.IsNaN(cx[i]) && !math.IsNaN(cy[i]) {
 			out = append(out, Pair{Institution: i, X: cx[i], Y: cy[i]})
 		}
@@ -131,7 +131,7 @@ func (m *Model) PlaceOf(group, indicator string, inst, year int) (*Position, boo
 	v := m.Data.Column(k, year)[inst]
 	var pl stats.Placement
 	if !math.IsNaN(v) {
-		pl = stats.PlaceUnsorted(values, v, RankDirection(ind.Better), g.Has(inst))
+		pl = stats.PlaceUnsorted(values, v, RankDirection(ind.Better), g.HasIn(inst, year))
 	}
 	return position(g, ind, inst, year, v, len(values), pl, d), true
 }

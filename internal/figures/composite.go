@@ -218,14 +218,15 @@ func (m *Model) computeComposite(b *brief.Brief) error {
 			spec.Indicators = append(spec.Indicators, composite.Indicator{Key: wi.Key, Pillar: q, Weight: wi.Weight, Lower: ind.Better == dataset.LowerIsBetter})
 		}
 	}
-	var pop []int
-	for i := range m.Data.Register.Institutions {
-		if m.Data.InPopulation(i) {
-			pop = append(pop, i)
-		}
-	}
 	started := false
 	for _, year := range m.Years {
+		// Each year scores that year's ranked population.
+		var pop []int
+		for i := range m.Data.Register.Institutions {
+			if m.Data.InPopulationIn(i, year) {
+				pop = append(pop, i)
+			}
+		}
 		s := *spec
 		cy := &CompositeYear{Year: year, Population: pop, Indicators: inds, Pillar: pillarOf}
 		s.Focus = cy.Of(m.Focus)
@@ -233,7 +234,7 @@ func (m *Model) computeComposite(b *brief.Brief) error {
 			g, _ := m.Group(c.DistanceGroup)
 			s.Reference = make([]bool, len(pop))
 			for a, i := range pop {
-				s.Reference[a] = g != nil && g.Has(i)
+				s.Reference[a] = g != nil && g.HasIn(i, year)
 			}
 		}
 		cy.cols = make([][]float64, len(inds))

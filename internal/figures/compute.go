@@ -28,7 +28,11 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		return nil, probs
 	}
 	focus, tracked := checkFront(d, b, probs)
-	r := &resolver{d: d, b: b, focus: focus, probs: probs}
+	first, last := b.Years.First, b.Years.Last
+	if first == 0 && last == 0 {
+		first, last = b.Year, b.Year // a brief built without a span
+	}
+	r := &resolver{d: d, b: b, focus: focus, probs: probs, years: spanYears(d.Years, first, last)}
 	r.pm = r.peersFor()
 	groups := r.resolveGroups()
 	checkBlocks(d, b, groups, r.emptied, probs)
@@ -38,10 +42,6 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		return nil, err
 	}
 
-	first, last := b.Years.First, b.Years.Last
-	if first == 0 && last == 0 {
-		first, last = b.Year, b.Year // a brief built without a span
-	}
 	m := &Model{
 		Data:    d,
 		Focus:   focus,
@@ -66,13 +66,13 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 			m.groupIndex[g.Name] = i
 		}
 	}
-	for _, y := range d.Years {
-		if y >= m.First && y <= m.Last {
-			m.Years = append(m.Years, y)
-		}
-	}
+	m.Years = r.years
 	m.corrNeed = m.correlationNeeds(b)
 	if err := m.compute(); err != nil {
+		probs.Add(err)
+		return nil, probs
+	}
+	if err := m.computePanels(); err != nil {
 		probs.Add(err)
 		return nil, probs
 	}
@@ -219,14 +219,15 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 	member := make([]bool, nt)
 	placed := make([]stats.Placement, nt)
 	var sorted []float64
-	for j, inst := range m.Named {
-		member[j] = g.Has(inst)
-	}
 	var res columnResult
 	for _, year := range m.Years {
+		members := g.MembersIn(year)
+		for j, inst := range m.Named {
+			member[j] = g.HasIn(inst, year)
+		}
 		col := m.Data.Column(k, year)
 		vals := buf[:0]
-		for _, i := range g.Members {
+		for _, i := range members {
 			if v := col[i]; !math.IsNaN(v) {
 				vals = append(vals, v)
 			}
@@ -252,9 +253,9 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 				}
 			}
 		}
-		dist.Box = stats.BoxOfUnsorted(vals, len(g.Members)-len(vals), m.Method)
+		dist.Box = stats.BoxOfUnsorted(vals, len(members)-len(vals), m.Method)
 		if len(dist.Box.OutlierValues) > 0 {
-			dist.Outliers = outlierMembers(g.Members, col, dist.Box)
+			dist.Outliers = outlierMembers(members, col, dist.Box)
 		}
 		res.dists = append(res.dists, dist)
 		for j, inst := range m.Named {
@@ -309,7 +310,7 @@ func outlierMembers(members []int, col []float64, b stats.Box) []int {
 // position builds one institution's Position from its placement among
 // the n member values of a group.
 func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int, pl stats.Placement, dist *Distribution) *Position {
-	p := &Position{Group: g.Name, Indicator: ind.Key, Institution: inst, Year: year, Value: v, InGroup: g.Has(inst)}
+	p := &Position{Group: g.Name, Indicator: ind.Key, Institution: inst, Year: year, Value: v, InGroup: g.HasIn(inst, year)}
 	nan := math.NaN()
 	p.Percentile, p.Z, p.GapMedian, p.GapQ3 = nan, nan, nan, nan
 	p.VsMedian, p.VsBetterQuartile = nan, nan

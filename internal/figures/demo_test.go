@@ -13,7 +13,7 @@ import (
 
 // TestDemoInvariants computes the demo scenario's figures and checks
 // properties every model must have, whatever the data (definitions in
-// DEVELOPERS.md): n + missing = members; min <= drawn low whisker <= q1
+// DEVELOPERS.md): n + missing = the year's members; min <= drawn low whisker <= q1
 // <= median <= q3 <= drawn high whisker <= max; 1 <= rank <= of; 0 < percentile <
 // 100; the quartile agrees with the value's place among the group's
 // quartile values (a value on a quartile in the better quarter; ties share
@@ -50,8 +50,8 @@ func checkInvariants(t *testing.T, m *Model) {
 	}
 	for _, dist := range m.dist {
 		g, _ := m.Group(dist.Group)
-		if dist.N+dist.Missing != len(g.Members) {
-			t.Fatalf("%s %s %d: n %d + missing %d != %d members", dist.Group, dist.Indicator, dist.Year, dist.N, dist.Missing, len(g.Members))
+		if dist.N+dist.Missing != len(g.MembersIn(dist.Year)) {
+			t.Fatalf("%s %s %d: n %d + missing %d != %d members", dist.Group, dist.Indicator, dist.Year, dist.N, dist.Missing, len(g.MembersIn(dist.Year)))
 		}
 		if dist.N == 0 {
 			continue

@@ -19,6 +19,8 @@ type resolver struct {
 	probs *diag.List
 	// pm is the peers: section's clustering, for cluster groups.
 	pm *Peers
+	// years are the span's years in the data, for members by year.
+	years []int
 	// emptied names the groups of an each expansion that the population
 	// rules left without members, with why, so a block naming one is told
 	// that rather than "not defined".
@@ -81,6 +83,7 @@ func (r *resolver) resolveGroups() []*Group {
 			g.Over = over
 			g.Phrase = phraseOf(spec.Phrase, g.EachValue)
 			g.FocusIn = g.Has(r.focus)
+			r.yearly(spec, g, r.years)
 			out = append(out, g)
 		}
 	}

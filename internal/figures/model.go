@@ -146,6 +146,9 @@ type Group struct {
 	Dropped []Dropped
 
 	member []bool // by register position
+	// byYear holds the members of span years whose members differ from
+	// the reporting year's (see MembersIn).
+	byYear map[int][]int
 }
 
 // Neighbour is one institution of a nearest-profile group.
@@ -258,6 +261,13 @@ type Trend struct {
 	// between the two years that a raw rank change would mislead; see
 	// SizeChanged.
 	PreferPercentiles bool
+	// PanelOf is the size of the constant panel (the members in both
+	// years with a value in both; the institution counted once, as one
+	// more value when it is not among them), PanelStartRank and
+	// PanelEndRank its ranks within it at both ends, PanelRankChange
+	// their difference (positive = moved up); all 0 without a panel.
+	// See panel.go.
+	PanelOf, PanelStartRank, PanelEndRank, PanelRankChange int
 }
 
 // GroupTrend is the movement of a group's median over the span, for trend

@@ -59,13 +59,25 @@ func (m *Model) populationRows(f rowSink) bool {
 			nRanked++
 		}
 	}
+	pop := m.Data.Population
+	if pop != nil {
+		// Who is ranked in the span's earlier years: the rules as of each
+		// year (rolling) or the reporting year's population (fixed).
+		mode := "rolling"
+		if pop.Fixed {
+			mode = "fixed"
+		}
+		if !emitText(f, pk("earlier_years"), mode) {
+			return false
+		}
+	}
 	ok := emitNum(f, pk("n_excluded"), float64(reg.Len()-nRanked)) &&
 		emitNum(f, pk("n_ranked"), float64(nRanked)) &&
 		emitNum(f, pk("n_register"), float64(reg.Len()))
 	if !ok {
 		return false
 	}
-	if pop := m.Data.Population; pop != nil {
+	if pop != nil {
 		// rule_1, rule_10, rule_11, rule_2, ...: byte order.
 		names := make([]string, len(pop.Rules))
 		for i := range pop.Rules {
@@ -82,7 +94,7 @@ func (m *Model) populationRows(f rowSink) bool {
 			}
 		}
 	}
-	return true
+	return m.populationYearRows(f)
 }
 
 // excludedRow yields why institution inst is outside the ranked
@@ -117,7 +129,7 @@ func (m *Model) groupRows(f rowSink, g *Group) bool {
 	if g.Spec != g.Name && !emitText(f, gk("spec"), g.Spec) {
 		return false
 	}
-	return true
+	return m.groupYearRows(f, g)
 }
 
 // groupMember is one per-institution row of a group: a listed member, a
@@ -245,6 +257,10 @@ func (m *Model) trendRows(f rowSink, t *Trend) bool {
 	ranks := !math.IsNaN(t.PercentileChange)
 	if t.Valid {
 		if !emitNum(f, tk("median_change"), t.MedianChange) {
+			return false
+		}
+		if t.PanelOf > 0 && (!emitNum(f, tk("panel_end_rank"), float64(t.PanelEndRank)) || !emitNum(f, tk("panel_of"), float64(t.PanelOf)) ||
+			!emitNum(f, tk("panel_rank_change"), float64(t.PanelRankChange)) || !emitNum(f, tk("panel_start_rank"), float64(t.PanelStartRank))) {
 			return false
 		}
 		if ranks && (!emitNum(f, tk("percentile_change"), t.PercentileChange) || !emitNum(f, tk("percentile_move"), t.PercentileMove)) {

@@ -195,6 +195,26 @@ func (w *writer) annexPopulation() {
 		w.bullet("", fmt.Sprintf("%s itself does not meet the rules; it is placed among each group's members by its value: %s.", focusName(w.m), strings.Join(pop.Excluded[w.m.Focus], "; ")))
 	}
 	w.y += paraGap - listItemGap
+	w.annexEarlierYears()
+}
+
+// annexEarlierYears says who is ranked in the span's earlier years and,
+// when the rules apply as of each year, how many each year ranks and
+// which windows were scaled to the data.
+func (w *writer) annexEarlierYears() {
+	s := earlierYearsRule(w.m)
+	if s == "" {
+		return
+	}
+	text := "Figures for earlier years " + s
+	if w.m.Data.PopulationByYear() {
+		counts, scaled := yearCounts(w.m, w.b)
+		text += " The ranked population numbers " + counts + "; a group's members in a year are those of its definition in that year's population (nearest-profile and cluster peers are chosen once, in " + fmt.Sprint(w.m.Year) + ")."
+		if len(scaled) > 0 {
+			text += fmt.Sprintf(" Where a year's window reaches back before the first year of the data (%d), its threshold is scaled to the years held: %s.", w.m.Data.Years[0], strings.Join(scaled, "; "))
+		}
+	}
+	w.plain(text)
 }
 
 // annexMoney states which indicators were converted at purchasing-power

@@ -6,6 +6,8 @@ import (
 
 	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
+	"peerpack/internal/figures"
+	"peerpack/internal/format"
 	"peerpack/internal/pdf"
 )
 
@@ -104,7 +106,10 @@ func (w *writer) definitions() {
 	w.bullet("Percentile ranks", "are 100 × (institutions behind + half of those tied) / n: the share of the group an institution is ahead of.")
 	w.bullet("Quarters", "divide a group by its quartiles: the top quarter holds the best 25 per cent of values in the better direction. "+q)
 	w.bullet("Box plots", "show the median, the quartiles and whiskers reaching the furthest values within 1.5 times the interquartile range (Tukey 1977); values beyond are drawn as outliers.")
-	w.bullet("Changes", fmt.Sprintf("compare the first and last year of %d–%d with a value, in the indicator's own unit; percentage-point changes are used for percentages.", w.m.First, w.m.Last))
+	w.bullet("Changes", fmt.Sprintf("compare the first and last year of %d–%d with a value, in the indicator's own unit; percentage-point changes are used for percentages. Where the number of members reporting changed by more than %s per cent, standing is compared by percentile rank and among the members reporting in both years, not by raw rank.", w.m.First, w.m.Last, format.Number(100*figures.SizeChangeLimit, 0)))
+	if s := earlierYearsRule(w.m); s != "" {
+		w.bullet("Earlier years", s)
+	}
 	w.bullet("Rounding", "happens once, when a figure is printed, to the decimals the dictionary declares for the indicator, so tables, charts and text agree.")
 	w.y += paraGap - listItemGap
 }

@@ -186,7 +186,11 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 		head = append(head, "Group")
 		align = append(align, 'L')
 	}
-	span := fmt.Sprintf("%d–%d", w.m.First, w.m.Last)
+	// The change column's heading gives the years its changes run over:
+	// the focus's first and last years with a value, which can differ
+	// from the brief's span (see changeYears).
+	cy := w.changeYears(groups, inds)
+	span := fmt.Sprintf("%d–%d", cy.first, cy.last)
 	titles := map[string]string{"value": fmt.Sprintf("Value %d", year), "rank": "Rank", "percentile": "Percentile rank", "quarter": "Quarter",
 		"median": "Group median", "q1": "Lower quartile", "q3": "Upper quartile", "change": "Change " + span}
 	for _, c := range cols {
@@ -258,13 +262,16 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 				case "change":
 					cl.text = "–"
 					if okt && tr.Valid {
-						cl.text = format.Signed(ind, tr.Change)
+						cl.text = format.Signed(ind, tr.Change) + cy.otherYears(tr)
 					}
 				}
 				row = append(row, cl)
 			}
 			g.rows = append(g.rows, row)
 		}
+	}
+	if contains(cols, "change") && cy.mixed {
+		g.notes = append(g.notes, fmt.Sprintf("Changes run from %d to %d except where a cell names other years: each runs from the first to the last year with a value.", cy.first, cy.last))
 	}
 	g.notes = append(g.notes, w.methodNote())
 	if hasLower(inds) {
@@ -305,7 +312,7 @@ func (w *writer) peersTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 	}
 	first := inds[0]
 	col := w.m.Data.Column(w.m.Data.Dictionary.Index(first.Key), year)
-	members := append([]int(nil), gr.Members...)
+	members := append([]int(nil), gr.MembersIn(year)...)
 	val := func(i int) float64 {
 		if col == nil {
 			return math.NaN()
@@ -374,7 +381,7 @@ func (w *writer) peersTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 		n := fmt.Sprintf("Showing %d of the group's %d members", min(limit, len(members)), len(members))
 		if !focusShown {
 			n += fmt.Sprintf("; %s is added at the foot", reg.Institutions[w.m.Focus].Name)
-			if !gr.FocusIn {
+			if !gr.HasIn(w.m.Focus, year) {
 				n += " and is not a member, its place shown among the members"
 			}
 		}
@@ -400,7 +407,7 @@ func (w *writer) groupsTable(tb *brief.TableBlock, groups []*figures.Group, inds
 	standAlign := []byte{'L'}
 	for _, gr := range groups {
 		// No-break spaces keep "(n = 52)" on one line of the header.
-		head = append(head, fmt.Sprintf("%s median (n\u00a0=\u00a0%s)", gr.Name, format.Int(len(gr.Members))))
+		head = append(head, fmt.Sprintf("%s median (n\u00a0=\u00a0%s)", gr.Name, format.Int(len(gr.MembersIn(year)))))
 		align = append(align, 'R')
 		standHead = append(standHead, gr.Name)
 		standAlign = append(standAlign, 'R')
@@ -519,4 +526,62 @@ func quarterShort(q int) string {
 		return "bottom"
 	}
 	return "–"
+}
+
+// changeSpan is the years a table's change column runs over: the pair
+// most rows share (ties to the earliest start, then the latest end), and
+// whether some rows run over other years.
+type changeSpan struct {
+	first, last int
+	mixed       bool
+}
+
+// changeYears finds the years the focus's changes run over in a table:
+// each change is from the first to the last year of the span with a
+// value, so a focus whose last value is earlier than the reporting year
+// (or whose first is later than the span's start) has a change over other
+// years than the span's, and the heading must say which.
+func (w *writer) changeYears(groups []*figures.Group, inds []dataset.Indicator) changeSpan {
+	count := map[[2]int]int{}
+	var pairs [][2]int
+	for _, ind := range inds {
+		for _, gr := range groups {
+			if tr, ok := w.m.Trend(gr.Name, ind.Key, w.m.Focus); ok && tr.Valid {
+				p := [2]int{tr.StartYear, tr.EndYear}
+				if count[p] == 0 {
+					pairs = append(pairs, p)
+				}
+				count[p]++
+			}
+		}
+	}
+	if len(pairs) == 0 {
+		return changeSpan{first: w.m.First, last: w.m.Last}
+	}
+	sort.SliceStable(pairs, func(a, b int) bool {
+		pa, pb := pairs[a], pairs[b]
+		switch {
+		case count[pa] != count[pb]:
+			return count[pa] > count[pb]
+		case pa[0] != pb[0]:
+			return pa[0] < pb[0]
+		}
+		return pa[1] > pb[1]
+	})
+	return changeSpan{first: pairs[0][0], last: pairs[0][1], mixed: len(pairs) > 1}
+}
+
+// otherYears is the cell's own years when its change runs over other
+// years than the heading's: " (from 2022)", " (to 2024)" or
+// " (2022–2024)"; empty otherwise.
+func (cs changeSpan) otherYears(tr *figures.Trend) string {
+	switch {
+	case tr.StartYear == cs.first && tr.EndYear == cs.last:
+		return ""
+	case tr.EndYear == cs.last:
+		return fmt.Sprintf(" (from %d)", tr.StartYear)
+	case tr.StartYear == cs.first:
+		return fmt.Sprintf(" (to %d)", tr.EndYear)
+	}
+	return fmt.Sprintf(" (%d–%d)", tr.StartYear, tr.EndYear)
 }

@@ -149,6 +149,9 @@ func (c *composer) composite() []Paragraph {
 		}
 		ps = append(ps, Paragraph{Heading: "Over time", Sentences: []Sentence{sent(fmt.Sprintf("Between %d and %d its composite rank went from %s (%s) to %s (%s); %s.",
 			mv.StartYear, mv.EndYear, rank(float64(mv.StartRank)), span(sl, sh), rank(float64(mv.EndRank)), span(el, eh), verdict), nil, sk, ek, slK, shK, elK, ehK, dk).claim(mvClaims...)}})
+		if s, ok := c.compositeCompany(mv); ok {
+			ps[len(ps)-1].Sentences = append(ps[len(ps)-1].Sentences, s)
+		}
 	}
 	// coverage
 	exK, impK := key(figures.CompositeOverall, "", y, "n_excluded"), key(figures.CompositeOverall, "", y, "n_imputed")

@@ -61,6 +61,7 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		Better:    ind.Better,
 		FromYear:  printYear(y0),
 		ToYear:    printYear(y1),
+		EndsEarly: y1 < c.m.Year,
 		From:      printValue(ind, p0.Value),
 		To:        printValue(ind, p1.Value),
 		Direction: direction(ind, change, iqr),
@@ -88,6 +89,7 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 	// Below the small-group floor at either end no percentile is printed.
 	if p0.Rank > 0 && p1.Rank > 0 && !c.small(d0) && !c.small(d1) {
 		cd.hasPct = true
+		f.Percentiles = true
 		f.PctFrom, f.PctTo = printOrdinalPct(p0.Percentile), printOrdinalPct(p1.Percentile)
 		// The noise rule on the percentiles themselves, not their
 		// rounded forms, so the claim recorded is the one decided on.
@@ -97,15 +99,48 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		case -move >= c.noise():
 			f.PctDirection = Below
 		}
-		f.Resized = figures.SizeChanged(p0.Of, p1.Of)
-		if cd.useTrend {
-			f.Resized = t.PreferPercentiles
-		}
-		f.SizeFrom, f.SizeTo = printCount(d0.N), printCount(d1.N)
-		f.Shrank = d1.N < d0.N
+	}
+	if p0.Rank > 0 && p1.Rank > 0 {
+		c.resized(&cd, &f)
 	}
 	cd.f = f
 	return cd, true
+}
+
+// resized decides whether the group's size changed too much between the
+// two years for ranks to compare (figures.SizeChanged; over the trend's
+// own years the trend's prefer_percentiles), and then fills in the
+// constant panel: the focus's ranks among the members reporting in both
+// years, which the trend records over its own years. A size that prints
+// the same at both ends is not called a change.
+func (c *composer) resized(cd *changeData, f *ChangeFact) {
+	d0, d1, t := cd.d0, cd.d1, cd.t
+	f.Resized = figures.SizeChanged(cd.p0.Of, cd.p1.Of)
+	if cd.useTrend {
+		f.Resized = t.PreferPercentiles
+	}
+	if d0.N == d1.N {
+		f.Resized = false
+	}
+	f.SizeFrom, f.SizeTo = printCount(d0.N), printCount(d1.N)
+	f.Shrank = d1.N < d0.N
+	if !f.Resized || !cd.useTrend || t.PanelOf == 0 {
+		return
+	}
+	_, _, b0 := format.RankBand(t.PanelStartRank, c.b.RankBands)
+	_, _, b1 := format.RankBand(t.PanelEndRank, c.b.RankBands)
+	if b0 || b1 {
+		return // banded ranks do not compare place by place
+	}
+	f.PanelOf = printCount(t.PanelOf)
+	f.PanelFrom, f.PanelTo = format.Ordinal(t.PanelStartRank), format.Ordinal(t.PanelEndRank)
+	f.PanelMember = cd.p0.InGroup && cd.p1.InGroup
+	switch {
+	case t.PanelRankChange > 0:
+		f.PanelDirection = Above
+	case t.PanelRankChange < 0:
+		f.PanelDirection = Below
+	}
 }
 
 // noChange says why no change is written when the focus has a value in
@@ -170,12 +205,51 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 		mcl = append(mcl, c.percentileChangeClaims(g, ind, cd)...)
 	}
 	out = append(out, c.say(ind.Key, c.w.ChangeMedian(mf), mc...).claim(mcl...))
-	if cd.hasPct && f.Resized {
-		out = append(out, c.say(ind.Key, c.w.ChangePercentile(f),
-			distKey(g.Name, ind.Key, cd.d0.Year, mN), distKey(g.Name, ind.Key, cd.d1.Year, mN),
-			p0k(mPercentile), p1k(mPercentile)).claim(c.percentileChangeClaims(g, ind, cd)...))
+	if s, ok := c.resizedSentence(g, ind, cd); ok {
+		out = append(out, s)
 	}
 	return out
+}
+
+// resizedSentence: when the group's size changed a lot, the standing is
+// compared by percentile and within the constant panel, never by raw
+// rank. Claims: the size grew or fell (the two years' n), the trend's
+// prefer_percentiles rule where its years are the sentence's, the
+// percentile's movement by the noise rule, and the panel rank's
+// direction.
+func (c *composer) resizedSentence(g *figures.Group, ind dataset.Indicator, cd changeData) (Sentence, bool) {
+	f, id := cd.f, c.m.FocusID
+	if !f.Resized || !cd.hasPct && f.PanelOf == "" {
+		return Sentence{}, false
+	}
+	n0, n1 := distKey(g.Name, ind.Key, cd.d0.Year, mN), distKey(g.Name, ind.Key, cd.d1.Year, mN)
+	cites := []figures.Key{n0, n1}
+	claims := []Claim{Claimed(Fig(n1), OpGreater, Fig(n0))}
+	if f.Shrank {
+		claims[0] = Claimed(Fig(n1), OpLess, Fig(n0))
+	}
+	tk := func(m string) figures.Key { return trendKey(g.Name, ind.Key, id, m) }
+	if cd.useTrend {
+		claims = append(claims, Claimed(Fig(tk("prefer_percentiles")), OpEqual, Num(1)))
+	}
+	if cd.hasPct {
+		cites = append(cites, posKey(g.Name, ind.Key, id, cd.p0.Year, mPercentile), posKey(g.Name, ind.Key, id, cd.p1.Year, mPercentile))
+		claims = append(claims, c.percentileChangeClaims(g, ind, cd)...)
+	}
+	if f.PanelOf != "" {
+		from, to := Fig(tk("panel_start_rank")), Fig(tk("panel_end_rank"))
+		cites = append(cites, tk("panel_of"), tk("panel_start_rank"), tk("panel_end_rank"))
+		switch f.PanelDirection {
+		case Above:
+			claims = append(claims, Claimed(to, OpLess, from))
+		case Below:
+			claims = append(claims, Claimed(to, OpGreater, from))
+		default:
+			claims = append(claims, Claimed(to, OpEqual, from))
+		}
+	}
+	f.Seed, f.Turn = c.next("change-resized")
+	return c.say(ind.Key, c.w.ChangePercentile(f), cites...).claim(claims...), true
 }
 
 // valueChangeClaims: a rise or fall compares the two values; "broadly

@@ -5,7 +5,7 @@ import (
 	"testing"
 )
 
-// TestReview runs the review set: thirty-four invented situations whose
+// TestReview runs the review set: thirty-seven invented situations whose
 // expected text was written by hand, from the templates and figures worked
 // out by hand, before the code ran. A wording change shows here as a diff
 // to review; the files are never rewritten by the test.

@@ -169,9 +169,9 @@ func renderings(m *figures.Model, r figures.Row, bands int) []string {
 		out = append(out, format.Number(v, 1), format.Number(math.Abs(v), 1))
 	case "pearson", "spearman":
 		out = append(out, format.Number(v, 2), format.Number(math.Abs(v), 2))
-	case "rank", figures.MeasureTargetRank:
+	case "rank", figures.MeasureTargetRank, "panel_start_rank", "panel_end_rank":
 		out = append(out, format.Rank(whole, bands), format.Ordinal(whole), format.Int(whole))
-	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n":
+	case "of", "n", "missing", "n_members", "start_of", "end_of", "start_n", "end_n", "panel_of":
 		out = append(out, format.Int(whole))
 	case "percentile":
 		p := format.PercentileRank(v)

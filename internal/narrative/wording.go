@@ -214,6 +214,10 @@ type ChangeFact struct {
 	Better    dataset.Polarity
 	FromYear  string
 	ToYear    string
+	// EndsEarly is set when ToYear is earlier than the reporting year
+	// (the focus's last value is older): the sentence then names both
+	// years rather than reading as a change up to now.
+	EndsEarly bool
 	From, To  string
 	// Direction is Above (rose), Below (fell) or Level (broadly
 	// unchanged: within the noise threshold).
@@ -229,10 +233,23 @@ type ChangeFact struct {
 	// PctFrom and PctTo are percentile ranks at both ends ("60th").
 	PctFrom, PctTo string
 	// Resized is set when the number of members reporting changed by
-	// MembershipShift or more; SizeFrom and SizeTo are those numbers.
+	// more than figures.SizeChangeLimit; SizeFrom and SizeTo are those
+	// numbers. The comparison is then by percentile and within the
+	// constant panel (the members reporting in both years), not by raw
+	// rank.
 	Resized          bool
 	Shrank           bool
 	SizeFrom, SizeTo string
+	// Percentiles is set when percentiles are printed (the group is at or
+	// above the small-group floor at both ends).
+	Percentiles bool
+	// PanelOf is the constant panel's size ("" without one), PanelFrom
+	// and PanelTo the focus's ranks in it ("40th"), PanelDirection Above
+	// when the rank improved, Below when it worsened, Level when equal;
+	// PanelMember is set when the focus is one of the panel.
+	PanelOf, PanelFrom, PanelTo string
+	PanelDirection              int
+	PanelMember                 bool
 	// PctDirection is Above when the percentile rose, Below when it fell.
 	PctDirection int
 	// GroupNamed is set when an earlier sentence of the paragraph has

@@ -378,6 +378,9 @@ func (e english) Change(f ChangeFact) string {
 		}
 	}
 	if f.Diff == "" {
+		if f.EndsEarly {
+			return e.fill("Between {fromYear} and {toYear}, {focus's} figure "+verbed+" from {from} to {to}"+judge+".", kv...)
+		}
 		return e.fill("Since {fromYear}, {focus's} figure has "+verb+" from {from} to {to}"+judge+".", kv...)
 	}
 	tmpl := [...]string{
@@ -385,7 +388,12 @@ func (e english) Change(f ChangeFact) string {
 		"{focus's} figure " + verbed + " by {diff} between {fromYear} and {toYear}, from {from} to {to}" + judge + ".",
 		"Between {fromYear} and {toYear}, {focus} went from {from} to {to}, " + noun + " of {diff}" + judge + ".",
 	}
-	return e.fill(tmpl[rotate(f.Seed, f.Turn, len(tmpl))], kv...)
+	i := rotate(f.Seed, f.Turn, len(tmpl))
+	if f.EndsEarly && i == 0 {
+		// "Since 2020" reads as "up to now"; the last value is older.
+		i = 1
+	}
+	return e.fill(tmpl[i], kv...)
 }
 
 // ChangeMedian: the group median's movement and what it meant for the
@@ -438,18 +446,69 @@ func (e english) ChangeMissing(f MissingFact) string {
 		"focus", f.Focus, "ind", f.Indicator, "year", f.Year)
 }
 
-// ChangePercentile: membership changed a lot, so percentiles are compared.
+// ChangePercentile: membership changed a lot, so the standing is
+// compared by percentile and among the members reporting in both years
+// (the constant panel), not by raw rank.
 func (e english) ChangePercentile(f ChangeFact) string {
 	grew := "grew"
 	if f.Shrank {
 		grew = "fell"
 	}
-	moved := "moved from the {pf} to the {pt} percentile"
-	if f.PctFrom == f.PctTo {
-		moved = "stayed at the {pt} percentile"
+	kv := []string{"focus", f.Focus, "group", f.Group, "sf", f.SizeFrom, "st", f.SizeTo, "pf", f.PctFrom, "pt", f.PctTo,
+		"po", f.PanelOf, "rf", f.PanelFrom, "rt", f.PanelTo}
+	moved := ""
+	if f.Percentiles {
+		switch {
+		case f.PctDirection == Above:
+			moved = "rose from the {pf} to the {pt} percentile"
+		case f.PctDirection == Below:
+			moved = "fell from the {pf} to the {pt} percentile"
+		case f.PctFrom == f.PctTo:
+			moved = "stayed at the {pt} percentile"
+		default:
+			moved = "barely moved, from the {pf} to the {pt} percentile"
+		}
+		if f.Better == dataset.Neutral && f.PctDirection != Level {
+			moved = "went from the {pf} to the {pt} percentile"
+		}
 	}
-	return e.fill("Because the number of members of {group} reporting "+grew+" from {sf} to {st}, the comparison is by percentile rather than rank: {focus} "+moved+".",
-		"focus", f.Focus, "group", f.Group, "sf", f.SizeFrom, "st", f.SizeTo, "pf", f.PctFrom, "pt", f.PctTo)
+	// The focus's rank within the constant panel; "of {po}" when it is
+	// placed among the panel without being one of it.
+	ranked := ""
+	if f.PanelOf != "" {
+		switch f.PanelDirection {
+		case Above:
+			ranked = "moved up from {rf} to {rt}"
+		case Below:
+			ranked = "went down from {rf} to {rt}"
+		default:
+			ranked = "stayed {rt}"
+		}
+		if f.Better == dataset.Neutral {
+			ranked = "placed {rf}, then {rt}"
+			if f.PanelDirection == Level {
+				ranked = "placed {rt} both times"
+			}
+		}
+		if !f.PanelMember {
+			ranked += " of {po}"
+		}
+	}
+	among := "among the {po} members that reported in both years"
+	if !f.PanelMember {
+		among = "placed among the members that reported in both years"
+	}
+	lead := "Because the number of members of {group} reporting " + grew + " from {sf} to {st}, "
+	switch {
+	case moved != "" && ranked != "":
+		return e.fill(lead+"the comparison is by percentile rather than raw rank: {focus} "+moved+"; "+among+" it "+ranked+".", kv...)
+	case moved != "":
+		return e.fill(lead+"the comparison is by percentile rather than rank: {focus} "+moved+".", kv...)
+	}
+	if f.PanelMember {
+		return e.fill(lead+"ranks are compared only among the {po} members that reported in both years: {focus} "+ranked+".", kv...)
+	}
+	return e.fill(lead+"ranks are compared only among the members that reported in both years: placed among them, {focus} "+ranked+".", kv...)
 }
 
 // Overview: which indicators are in the best and worst quarter, with

@@ -182,7 +182,7 @@ func ColumnName(col int) string {
 // pending is a cell holding a formula saved without its result, computed
 // once the whole sheet has been read (see read).
 type pending struct {
-	row  int // index into Table.Rows, or -1 for the header
+	row  int // index into Table.Rows, -1 for the header, -2 beyond the header's columns
 	attr cellAttr
 	line int
 }
@@ -303,9 +303,11 @@ func (bk *xlsxBook) read() (*Table, error) {
 			row[c.Col-1] = c
 		}
 		for _, i := range waiting {
-			if cells[i].col <= len(row) {
-				later = append(later, pending{row: len(t.Rows), attr: cells[i], line: rowNum})
+			p := pending{row: len(t.Rows), attr: cells[i], line: rowNum}
+			if cells[i].col > len(row) {
+				p.row = -2
 			}
+			later = append(later, p)
 		}
 		t.Rows = append(t.Rows, row)
 	}
@@ -324,9 +326,14 @@ func (bk *xlsxBook) read() (*Table, error) {
 		}
 		cell := Cell{Line: p.line, Col: c.col}
 		cell.Text, cell.Kind = bk.finish(&probs, p.line, c, text)
-		if p.row < 0 {
+		switch {
+		case p.row == -2:
+			if strings.TrimSpace(cell.Text) != "" {
+				probs.Addf(bk.file, p.line, c.col, "cell %s%d holds %q but the header row has no column %s; add a header or delete the cell", ColumnName(c.col), p.line, cell.Text, ColumnName(c.col))
+			}
+		case p.row == -1:
 			t.Header[c.col-1].Text = cell.Text
-		} else {
+		default:
 			t.Rows[p.row][c.col-1] = cell
 		}
 	}

@@ -385,3 +385,25 @@ func TestXLSXCalcLaidOut(t *testing.T) {
 		t.Errorf("got %v\nwant %s", err, want)
 	}
 }
+
+// TestXLSXNoReferences: rows and cells without r attributes follow one
+// another (ECMA-376 Part 1, 18.3.1.73 and 18.3.1.4 make r optional, from
+// memory); a formula saved without its result beyond the header's columns
+// is computed and reported like any value there.
+func TestXLSXNoReferences(t *testing.T) {
+	sheet := `<row><c t="inlineStr"><is><t>a</t></is></c><c t="inlineStr"><is><t>b</t></is></c></row>` +
+		`<row><c><v>1</v></c><c t="b"><v>1</v></c></row>` +
+		`<row><c><v>2</v></c><c><v>3</v></c><c><f>A3+B3</f></c></row>`
+	tb, err := ParseXLSX("n.xlsx", book(t, sheet, ""), "")
+	want := `n.xlsx:3:3: cell C3 holds "5" but the header row has no column C; add a header or delete the cell`
+	if err == nil || err.Error() != want {
+		t.Fatalf("got %v\nwant %s", err, want)
+	}
+	got := texts(tb)
+	if strings.Join(got[1], "|") != "1|TRUE" || strings.Join(got[2], "|") != "2|3" {
+		t.Errorf("got %q", got)
+	}
+	if c := tb.Rows[1][1]; c.Line != 3 || c.Col != 2 {
+		t.Errorf("B3 at %d:%d", c.Line, c.Col)
+	}
+}

@@ -206,8 +206,8 @@ func (s *cellScanner) cell(start xml.StartElement, row, prev int) (cellAttr, err
 		case xml.StartElement:
 			switch e.Name.Local {
 			case "v":
-				var v string
-				if err := s.dec.DecodeElement(&v, &e); err != nil {
+				v, err := s.text()
+				if err != nil {
 					return c, s.xmlErr(err)
 				}
 				c.hasV = v != ""
@@ -228,6 +228,32 @@ func (s *cellScanner) cell(start xml.StartElement, row, prev int) (cellAttr, err
 			if e.Name == start.Name {
 				return c, nil
 			}
+		}
+	}
+}
+
+// text reads an element's own character data through its end tag, as
+// encoding/xml's DecodeElement into a string does (nested elements are
+// skipped), without reflection.
+func (s *cellScanner) text() (string, error) {
+	var b []byte
+	for {
+		tok, err := s.dec.Token()
+		if err != nil {
+			if err == io.EOF {
+				err = io.ErrUnexpectedEOF
+			}
+			return "", err
+		}
+		switch e := tok.(type) {
+		case xml.CharData:
+			b = append(b, e...)
+		case xml.StartElement:
+			if err := s.dec.Skip(); err != nil {
+				return "", err
+			}
+		case xml.EndElement:
+			return string(b), nil
 		}
 	}
 }

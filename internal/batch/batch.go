@@ -11,6 +11,7 @@ import (
 	"hash/fnv"
 	"io"
 	"io/fs"
+	"os"
 	"path/filepath"
 	"runtime"
 	"sort"
@@ -228,6 +229,13 @@ func Run(ctx context.Context, base *build.Inputs, jobs []Job, opt Options) []Out
 		workers = runtime.NumCPU()
 	}
 	out := make([]Outcome, len(jobs))
+	if opt.Charts != "" {
+		// Made once here, not by the workers: a pack that fails removes the
+		// folders its charts needed only if it made them, and must not
+		// remove this one from under another pack. A failure shows in each
+		// pack's outcome.
+		_ = os.MkdirAll(opt.Charts, 0o755)
+	}
 	if opt.Progress != nil {
 		opt.Progress.Start(len(jobs))
 	}

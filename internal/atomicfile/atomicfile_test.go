@@ -220,3 +220,120 @@ func TestJoin(t *testing.T) {
 		t.Errorf("left behind: %v", ents)
 	}
 }
+
+func writeString(s string) func(io.Writer) error {
+	return func(w io.Writer) error {
+		_, err := io.WriteString(w, s)
+		return err
+	}
+}
+
+func readDir(t *testing.T, dir string) map[string]string {
+	t.Helper()
+	out := map[string]string{}
+	ents, err := os.ReadDir(dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, e := range ents {
+		b, _ := os.ReadFile(filepath.Join(dir, e.Name()))
+		out[e.Name()] = string(b)
+	}
+	return out
+}
+
+// A folder of the set: a new folder appears whole at Commit and not
+// before; an existing folder gets the new files at Commit, keeps files the
+// set does not write, and is left as it was by a failed set. Either way no
+// staging folder remains.
+func TestFolder(t *testing.T) {
+	root := t.TempDir()
+	charts := filepath.Join(root, "slides", "charts")
+	var s Set
+	f, err := s.Folder(charts, 0o755)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := f.Add("a.svg", 0o644, writeString("new a")); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(charts); err == nil {
+		t.Fatal("the folder exists before Commit")
+	}
+	if err := s.Commit(context.Background()); err != nil {
+		t.Fatal(err)
+	}
+	if got := readDir(t, charts); len(got) != 1 || got["a.svg"] != "new a" {
+		t.Fatalf("after the first commit: %v", got)
+	}
+	if got := readDir(t, filepath.Join(root, "slides")); len(got) != 1 {
+		t.Fatalf("beside the folder: %v", got)
+	}
+	if fi, _ := os.Stat(charts); fi.Mode().Perm() != 0o755 {
+		t.Errorf("folder mode %v", fi.Mode().Perm())
+	}
+
+	os.WriteFile(filepath.Join(charts, "notes.txt"), []byte("mine"), 0o644)
+	// A failed set: the second file's writer fails as a full disk would.
+	var s2 Set
+	f, err = s2.Folder(charts, 0o755)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f.Add("a.svg", 0o644, writeString("newer a"))
+	if err := f.Add("b.svg", 0o644, func(w io.Writer) error {
+		_, err := (&failingWriter{w: w, left: 2}).Write([]byte("too long"))
+		return err
+	}); err == nil {
+		t.Fatal("expected the failing writer's error")
+	}
+	s2.Discard()
+	if got := readDir(t, charts); len(got) != 2 || got["a.svg"] != "new a" || got["notes.txt"] != "mine" {
+		t.Fatalf("after a failed set: %v", got)
+	}
+	// An interrupted set changes nothing either.
+	var s3 Set
+	f, _ = s3.Folder(charts, 0o755)
+	f.Add("a.svg", 0o644, writeString("newer a"))
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	if err := s3.Commit(ctx); err == nil {
+		t.Fatal("expected an interruption error")
+	}
+	if got := readDir(t, charts); len(got) != 2 || got["a.svg"] != "new a" {
+		t.Fatalf("after an interrupted set: %v", got)
+	}
+	// A good set replaces its files and keeps the others.
+	var s4 Set
+	f, _ = s4.Folder(charts, 0o755)
+	f.Add("a.svg", 0o644, writeString("newer a"))
+	f.Add("b.svg", 0o644, writeString("new b"))
+	if err := s4.Commit(context.Background()); err != nil {
+		t.Fatal(err)
+	}
+	if got := readDir(t, charts); len(got) != 3 || got["a.svg"] != "newer a" || got["b.svg"] != "new b" || got["notes.txt"] != "mine" {
+		t.Fatalf("after a good set: %v", got)
+	}
+}
+
+// A discarded set with a new folder leaves no folder behind, nor the parent
+// folders made for it; a folder that names a file is refused.
+func TestFolderDiscardedLeavesNothing(t *testing.T) {
+	root := t.TempDir()
+	var s Set
+	f, err := s.Folder(filepath.Join(root, "out", "slides", "charts"), 0o755)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f.Add("a.svg", 0o644, writeString("a"))
+	s.Discard()
+	if got := readDir(t, root); len(got) != 0 {
+		t.Fatalf("left behind: %v", got)
+	}
+	file := filepath.Join(root, "file")
+	os.WriteFile(file, nil, 0o644)
+	var te *TargetError
+	if _, err := s.Folder(file, 0o755); !errors.As(err, &te) {
+		t.Fatalf("got %v", err)
+	}
+}

@@ -11,6 +11,7 @@ import (
 	"hash/fnv"
 	"io"
 	"io/fs"
+	"os"
 	"path/filepath"
 	"runtime"
 	"sort"
@@ -206,6 +207,10 @@ type Options struct {
 	Charts string
 	// Progress receives a line or a bar as packs finish; nil for none.
 	Progress Progress
+	// beforeCommit, when set, is called for each pack once its outputs are
+	// written to their temporaries, before any is renamed; tests use it to
+	// interrupt a pack part way.
+	beforeCommit func(Job)
 }
 
 // Progress reports a batch's advance.
@@ -224,6 +229,13 @@ func Run(ctx context.Context, base *build.Inputs, jobs []Job, opt Options) []Out
 		workers = runtime.NumCPU()
 	}
 	out := make([]Outcome, len(jobs))
+	if opt.Charts != "" {
+		// Made once here, not by the workers: a pack that fails removes the
+		// folders its charts needed only if it made them, and must not
+		// remove this one from under another pack. A failure shows in each
+		// pack's outcome.
+		_ = os.MkdirAll(opt.Charts, 0o755)
+	}
 	if opt.Progress != nil {
 		opt.Progress.Start(len(jobs))
 	}
@@ -305,18 +317,32 @@ func runOne(ctx context.Context, base *build.Inputs, j Job, opt Options) (o Outc
 		return o
 	}
 	pdf := packed.PDF
-	if err := atomicfile.WriteFile(ctx, filepath.Join(opt.OutDir, j.Output), pdf, 0o644); err != nil {
+	// The pack and its charts sub-folder are one outcome: neither replaces
+	// the previous one unless both are complete.
+	var set atomicfile.Set
+	if err := set.Add(filepath.Join(opt.OutDir, j.Output), 0o644, func(w io.Writer) error {
+		_, err := w.Write(pdf)
+		return err
+	}); err != nil {
 		o.Err = err
 		return o
 	}
-	o.Bytes = len(pdf)
 	if opt.Charts != "" {
 		sub := strings.TrimSuffix(j.Output, filepath.Ext(j.Output))
-		if _, err := chartfiles.Write(ctx, filepath.Join(opt.Charts, sub), packed.Figures); err != nil {
+		if _, err := chartfiles.Add(ctx, &set, filepath.Join(opt.Charts, sub), packed.Figures); err != nil {
+			set.Discard()
 			o.Err = err
 			return o
 		}
 	}
+	if opt.beforeCommit != nil {
+		opt.beforeCommit(j)
+	}
+	if err := set.Commit(ctx); err != nil {
+		o.Err = err
+		return o
+	}
+	o.Bytes = len(pdf)
 	return o
 }
 

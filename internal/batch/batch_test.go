@@ -3,8 +3,11 @@ package batch
 import (
 	"bytes"
 	"context"
+	"io/fs"
 	"os"
 	"path/filepath"
+	"reflect"
+	"sort"
 	"strings"
 	"syscall"
 	"testing"
@@ -360,4 +363,67 @@ func TestPlanKindCheckedBeforeOpening(t *testing.T) {
 			t.Fatal("reading a plan that is a named pipe blocked")
 		}
 	}
+}
+
+// A pack of a batch and its charts sub-folder are one outcome (common
+// practice, no source): a pack that fails after its charts are drawn, here
+// interrupted before any output is renamed, leaves the previous pack and
+// the previous sub-folder as they were, with no staging folder behind.
+func TestBatchFailedPackKeepsPreviousCharts(t *testing.T) {
+	in := loadDemo(t)
+	g := in.Figures.Groups[0]
+	jobs := []Job{{Focus: in.Figures.InstitutionID(g.Members[0]), Output: "first.pdf"}}
+	dir, charts := t.TempDir(), t.TempDir()
+	opt := Options{OutDir: dir, Workers: 1, Created: created, Version: "test", Charts: charts}
+	if o := Run(context.Background(), in, jobs, opt)[0]; o.Err != nil {
+		t.Fatal(o.Err)
+	}
+	svgs, _ := filepath.Glob(filepath.Join(charts, "first", "figure-01-*.svg"))
+	if len(svgs) != 1 {
+		t.Fatalf("%d first-figure SVG files", len(svgs))
+	}
+	os.WriteFile(svgs[0], []byte("<svg>previous</svg>"), 0o644)
+	os.WriteFile(filepath.Join(dir, "first.pdf"), []byte("%PDF-1.4 previous"), 0o644)
+	list := func(d string) map[string]string {
+		out := map[string]string{}
+		filepath.WalkDir(d, func(p string, e fs.DirEntry, err error) error {
+			if err == nil && !e.IsDir() {
+				b, _ := os.ReadFile(p)
+				out[p] = string(b)
+			} else if err == nil {
+				out[p+"/"] = ""
+			}
+			return err
+		})
+		return out
+	}
+	beforeCharts, beforeOut := list(charts), list(dir)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	drawn := 0
+	opt.beforeCommit = func(Job) {
+		pngs, _ := filepath.Glob(filepath.Join(charts, "first", ".staging-*", "*.png"))
+		drawn = len(pngs)
+		cancel()
+	}
+	if o := Run(ctx, in, jobs, opt)[0]; o.Err == nil || !strings.Contains(o.Err.Error(), "interrupted") {
+		t.Fatalf("want an interruption, got %v", o.Err)
+	}
+	if drawn < 3 {
+		t.Errorf("%d charts drawn before the interruption; the test proves nothing", drawn)
+	}
+	for name, d := range map[string][2]map[string]string{"charts": {beforeCharts, list(charts)}, "packs": {beforeOut, list(dir)}} {
+		if !reflect.DeepEqual(d[0], d[1]) {
+			t.Errorf("%s folder changed:\n before %v\n after  %v", name, keys(d[0]), keys(d[1]))
+		}
+	}
+}
+
+func keys(m map[string]string) []string {
+	var out []string
+	for k := range m {
+		out = append(out, k)
+	}
+	sort.Strings(out)
+	return out
 }

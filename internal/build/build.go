@@ -280,7 +280,8 @@ type Options struct {
 	// Limits cap every input; the zero value means the defaults.
 	Limits limits.Limits
 	// AfterStage, when set, is called after each stage ("load", "pack",
-	// "written": every output in its temporary, none renamed yet)
+	// "written": every output in its temporary, the charts in their
+	// staging folder, none renamed yet)
 	// with the stage's name; tests use it to interrupt a build part way.
 	AfterStage func(stage string)
 }
@@ -412,6 +413,7 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 		return nil, err
 	}
 	if modelErr != nil {
+		modelSet.Discard()
 		return nil, modelErr
 	}
 	pdf := packed.PDF
@@ -428,16 +430,20 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 		return nil, err
 	}
 	set.Join(&modelSet)
+	// The charts folder is part of the same outcome: its files are drawn
+	// into a staging folder and reach it only when the pack does.
+	if opt.Charts != "" {
+		if _, err := chartfiles.Add(ctx, &set, opt.Charts, packed.Figures); err != nil {
+			set.Discard()
+			if ctx.Err() != nil {
+				return nil, interrupted(opt.Output)
+			}
+			return nil, err
+		}
+	}
 	after("written")
 	if err := set.Commit(ctx); err != nil {
 		return nil, err
-	}
-	// The charts are a folder of many files, each written atomically,
-	// after the pack itself is in place.
-	if opt.Charts != "" {
-		if _, err := chartfiles.Write(ctx, opt.Charts, packed.Figures); err != nil {
-			return nil, err
-		}
 	}
 	return &Result{Output: opt.Output, Bytes: len(pdf), Inputs: in}, nil
 }

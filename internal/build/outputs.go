@@ -44,6 +44,11 @@ func checkOutputKinds(opt Options) error {
 			return err
 		}
 	}
+	if opt.Charts != "" {
+		if fi, err := os.Stat(opt.Charts); err == nil && !fi.IsDir() {
+			return fmt.Errorf("%s: --charts names a file, not a folder; give a folder (made if missing), e.g. --charts charts", opt.Charts)
+		}
+	}
 	for i, a := range outs {
 		for _, b := range outs[:i] {
 			if samePath(a.path, b.path) {

@@ -9,7 +9,6 @@ import (
 	"fmt"
 	"image/color"
 	"io"
-	"os"
 	"path/filepath"
 	"strings"
 	"unicode"
@@ -66,25 +65,43 @@ func Name(f layout.Figure) string {
 }
 
 // Write draws every figure into dir (made if missing) as NAME.svg and
-// NAME.png, each written atomically. It returns the paths written.
+// NAME.png, as one outcome: every file is drawn before any reaches dir,
+// and a failure leaves dir as it was. It returns the paths written.
 func Write(ctx context.Context, dir string, figs []layout.Figure) ([]string, error) {
-	if err := os.MkdirAll(dir, 0o755); err != nil {
+	var set atomicfile.Set
+	paths, err := Add(ctx, &set, dir, figs)
+	if err != nil {
+		set.Discard()
+		return nil, err
+	}
+	if err := set.Commit(ctx); err != nil {
+		return nil, err
+	}
+	return paths, nil
+}
+
+// Add draws every figure as Write does into a folder of set, so that the
+// charts are replaced together with the set's other outputs (the pack)
+// or not at all. It returns the paths the files will have; on error the
+// caller discards the set.
+func Add(ctx context.Context, set *atomicfile.Set, dir string, figs []layout.Figure) ([]string, error) {
+	folder, err := set.Folder(dir, 0o755)
+	if err != nil {
 		return nil, fmt.Errorf("cannot make the charts folder %s: %w", dir, err)
 	}
 	var paths []string
 	for _, f := range figs {
 		if err := ctx.Err(); err != nil {
-			return paths, err
+			return nil, err
 		}
-		base := filepath.Join(dir, Name(f))
-		if err := atomicfile.Write(ctx, base+".svg", 0o644, func(w io.Writer) error { return SVG(w, f) }); err != nil {
-			return paths, err
+		name := Name(f)
+		if err := folder.Add(name+".svg", 0o644, func(w io.Writer) error { return SVG(w, f) }); err != nil {
+			return nil, err
 		}
-		paths = append(paths, base+".svg")
-		if err := atomicfile.Write(ctx, base+".png", 0o644, func(w io.Writer) error { return PNG(w, f) }); err != nil {
-			return paths, err
+		if err := folder.Add(name+".png", 0o644, func(w io.Writer) error { return PNG(w, f) }); err != nil {
+			return nil, err
 		}
-		paths = append(paths, base+".png")
+		paths = append(paths, filepath.Join(dir, name+".svg"), filepath.Join(dir, name+".png"))
 	}
 	return paths, nil
 }

@@ -3,10 +3,13 @@ package tabular
 import (
 	"archive/zip"
 	"bytes"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/xuri/excelize/v2"
 
 	"peerpack/internal/limits"
 )
@@ -192,18 +195,19 @@ func TestXLSXBomb(t *testing.T) {
 
 func TestCellRef(t *testing.T) {
 	// Column letters per ECMA-376 Part 1, 18.3.1.4 (A = 1, Z = 26, AA = 27,
-	// XFD = 16384).
+	// XFD = 16384); the scanner reads references with excelize's
+	// CellNameToCoordinates, and positions are named back with ColumnName.
 	for ref, want := range map[string][2]int{"A1": {1, 1}, "C12": {3, 12}, "Z9": {26, 9}, "AA3": {27, 3}, "XFD1048576": {16384, 1048576}} {
-		c, r, ok := cellRef(ref)
-		if !ok || c != want[0] || r != want[1] {
-			t.Errorf("%s: %d %d %v", ref, c, r, ok)
+		c, r, err := excelize.CellNameToCoordinates(ref)
+		if err != nil || c != want[0] || r != want[1] {
+			t.Errorf("%s: %d %d %v", ref, c, r, err)
 		}
 		if ColumnName(c) != strings.TrimRight(ref, "0123456789") {
 			t.Errorf("ColumnName(%d) = %s", c, ColumnName(c))
 		}
 	}
-	for _, bad := range []string{"", "1A", "A", "a1", "XFE1", "A0", "A1048577"} {
-		if _, _, ok := cellRef(bad); ok {
+	for _, bad := range []string{"", "1A", "A", "XFE1", "A0", "A1048577"} {
+		if _, _, err := excelize.CellNameToCoordinates(bad); err == nil {
 			t.Errorf("%q accepted", bad)
 		}
 	}
@@ -302,5 +306,104 @@ func TestXLSXLyingHeader(t *testing.T) {
 	_, err := ParseXLSX("lying.xlsx", data, "")
 	if err == nil || !strings.Contains(err.Error(), "workbook part xl/worksheets/sheet1.xml is damaged") {
 		t.Fatalf("got %v", err)
+	}
+}
+
+// TestXLSXBadChecksum: a part whose bytes do not match the CRC-32 its
+// header states (APPNOTE.TXT 4.4.7) is reported as damaged, though excelize
+// itself keeps what it inflated.
+func TestXLSXBadChecksum(t *testing.T) {
+	data := storedBook(`<row r="1"><c r="A1"><v>1</v></c></row><row r="2"><c r="A2"><v>2</v></c></row>`, "")
+	// Stored without compression, so the sheet's bytes are in the file as
+	// they are: change the digit 2 to 3.
+	i := bytes.Index(data, []byte("<v>2</v>"))
+	if i < 0 {
+		t.Fatal("value not found")
+	}
+	data[i+3] = '3'
+	_, err := ParseXLSX("crc.xlsx", data, "")
+	if err == nil || !strings.Contains(err.Error(), "crc.xlsx: workbook part xl/worksheets/sheet1.xml is damaged") {
+		t.Fatalf("got %v", err)
+	}
+}
+
+// TestXLSXMalformedSheet: XML that stops in the middle of a row is
+// reported, not read as a shorter sheet.
+func TestXLSXMalformedSheet(t *testing.T) {
+	_, err := ParseXLSX("m.xlsx", book(t, `<row r="1"><c r="A1"><v>1</v></c></row><row r="2"><c r="A2"><v>2</v></c>`, ""), "")
+	if err == nil || !strings.Contains(err.Error(), "workbook part xl/worksheets/sheet1.xml is not well-formed XML") {
+		t.Fatalf("got %v", err)
+	}
+}
+
+// TestXLSXOrder: rows and the cells of a row are written in order by every
+// spreadsheet (ECMA-376 Part 1, 18.3.1.73 and 18.3.1.4, from memory); out
+// of order, the workbook is refused with the place named.
+func TestXLSXOrder(t *testing.T) {
+	cases := []struct{ sheet, want string }{
+		{`<row r="1"><c r="A1"><v>1</v></c></row><row r="3"><c r="A3"><v>3</v></c></row><row r="2"><c r="A2"><v>2</v></c></row>`,
+			"o.xlsx:2: row 2 comes after row 3; the rows of a sheet must be in order"},
+		{`<row r="1"><c r="A1"><v>1</v></c><c r="B1"><v>1</v></c></row><row r="2"><c r="B2"><v>2</v></c><c r="A2"><v>3</v></c></row>`,
+			"o.xlsx:2:1: cell A2 comes after cell B2; the cells of a row must be in order"},
+		{`<row r="1"><c r="A1"><v>1</v></c></row><row r="x"><c><v>2</v></c></row>`,
+			`o.xlsx:2: the row after row 1 is numbered "x", which is not a row number`},
+		{`<row r="1"><c r="A1"><v>1</v></c></row><row r="2"><c r="2A"><v>2</v></c></row>`,
+			`o.xlsx:2:1: a cell of row 2 has the reference "2A", which is not a cell reference`},
+	}
+	for _, c := range cases {
+		_, err := ParseXLSX("o.xlsx", book(t, c.sheet, ""), "")
+		if err == nil || !strings.HasPrefix(err.Error(), c.want) {
+			t.Errorf("got %v\nwant %s", err, c.want)
+		}
+	}
+}
+
+// TestXLSXCalcLaidOut: excelize's calculation engine lays the whole sheet
+// out, every row padded to its last cell, empty cells included; a formula
+// saved without its result in a sheet that would lay out beyond the
+// sheet-cells limit is refused with the cell named, not computed.
+func TestXLSXCalcLaidOut(t *testing.T) {
+	var rows strings.Builder
+	rows.WriteString(`<row r="1"><c r="A1" t="inlineStr"><is><t>a</t></is></c><c r="B1" t="inlineStr"><is><t>b</t></is></c></row>`)
+	rows.WriteString(`<row r="2"><c r="A2"><v>1</v></c><c r="B2"><f>A2*2</f></c></row>`)
+	for i := 3; i <= 20; i++ {
+		fmt.Fprintf(&rows, `<row r="%d"><c r="J%d"/></row>`, i, i)
+	}
+	data := book(t, rows.String(), "")
+	tb, err := ParseXLSXWith("c.xlsx", data, "", mustLimits(t, "sheet-cells=1000"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// A2*2 with A2 = 1.
+	if got := tb.Rows[0][1].Text; got != "2" {
+		t.Errorf("B2 = %q, want 2", got)
+	}
+	// 2 + 2 + 18 x 10 = 184 cells laid out.
+	_, err = ParseXLSXWith("c.xlsx", data, "", mustLimits(t, "sheet-cells=50"))
+	want := "c.xlsx:2:2: cell B2 holds a formula with no stored result, and computing it here would lay the sheet out as 184 cells, over the limit of 50"
+	if err == nil || !strings.HasPrefix(err.Error(), want) {
+		t.Errorf("got %v\nwant %s", err, want)
+	}
+}
+
+// TestXLSXNoReferences: rows and cells without r attributes follow one
+// another (ECMA-376 Part 1, 18.3.1.73 and 18.3.1.4 make r optional, from
+// memory); a formula saved without its result beyond the header's columns
+// is computed and reported like any value there.
+func TestXLSXNoReferences(t *testing.T) {
+	sheet := `<row><c t="inlineStr"><is><t>a</t></is></c><c t="inlineStr"><is><t>b</t></is></c></row>` +
+		`<row><c><v>1</v></c><c t="b"><v>1</v></c></row>` +
+		`<row><c><v>2</v></c><c><v>3</v></c><c><f>A3+B3</f></c></row>`
+	tb, err := ParseXLSX("n.xlsx", book(t, sheet, ""), "")
+	want := `n.xlsx:3:3: cell C3 holds "5" but the header row has no column C; add a header or delete the cell`
+	if err == nil || err.Error() != want {
+		t.Fatalf("got %v\nwant %s", err, want)
+	}
+	got := texts(tb)
+	if strings.Join(got[1], "|") != "1|TRUE" || strings.Join(got[2], "|") != "2|3" {
+		t.Errorf("got %q", got)
+	}
+	if c := tb.Rows[1][1]; c.Line != 3 || c.Col != 2 {
+		t.Errorf("B3 at %d:%d", c.Line, c.Col)
 	}
 }

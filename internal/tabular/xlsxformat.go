@@ -1,7 +1,6 @@
 package tabular
 
 import (
-	"bytes"
 	"fmt"
 	"strconv"
 	"strings"
@@ -28,49 +27,18 @@ const (
 	KindDate
 )
 
-// library opens the workbook with excelize, once, for what the streaming
-// reader leaves to it: number formats and formulas saved without a result.
-// The reader has already inflated every part it needs under the project's
-// limits; excelize gets the same limits as its unzip limits, so a part it
-// reads besides is held to them too.
-func (bk *xlsxBook) library() (*excelize.File, error) {
-	if bk.lib != nil || bk.libErr != nil {
-		return bk.lib, bk.libErr
-	}
-	part := min(bk.part, bk.lim.FileBytes)
-	// excelize reads every part but the sheets and shared strings whole,
-	// capped only by UnzipSizeLimit; hold each part to the project's cap
-	// on one part first, by its stated size (which archive/zip enforces
-	// while inflating), so a bomb in the styles is refused before it is
-	// inflated.
-	total := uint64(0)
-	for _, zf := range bk.zr.File {
-		total += zf.UncompressedSize64
-		if zf.UncompressedSize64 > uint64(part) || total > uint64(bk.lim.FileBytes) {
-			bk.libErr = fmt.Errorf("workbook part %s would take the workbook beyond the limit of %s bytes for one part or %s bytes in all; the file may be damaged or hostile: save it again from the spreadsheet, or export the sheet as CSV UTF-8", zf.Name, limits.Group(part), limits.Group(bk.lim.FileBytes))
-			return nil, bk.libErr
-		}
-	}
-	bk.lib, bk.libErr = excelize.OpenReader(bytes.NewReader(bk.data), excelize.Options{
-		UnzipSizeLimit:    bk.lim.FileBytes,
-		UnzipXMLSizeLimit: part,
-	})
-	if bk.libErr != nil {
-		bk.libErr = fmt.Errorf("the workbook's styles and formulas cannot be read (%v); save it again from the spreadsheet, or export the sheet as CSV UTF-8", bk.libErr)
-	}
-	return bk.lib, bk.libErr
-}
-
 // calc computes a formula cell saved without its result (as some libraries
 // write them) with excelize's calculation engine; a formula it cannot
-// compute is refused, never read as a missing value.
-func (bk *xlsxBook) calc(ref string) (string, error) {
-	f, err := bk.library()
-	if err != nil {
-		return "", fmt.Errorf("cell %s holds a formula with no stored result: %v", ref, err)
+// compute is refused, never read as a missing value. The engine lays the
+// whole sheet out in memory, every row padded to its last cell (laidOut
+// cells in all), so a sheet that would lay out beyond the sheet-cells limit
+// is refused instead.
+func (bk *xlsxBook) calc(ref string, laidOut int64) (string, error) {
+	if laidOut > bk.lim.SheetCells {
+		return "", fmt.Errorf("cell %s holds a formula with no stored result, and computing it here would lay the sheet out as %s; open the workbook in a spreadsheet and save it, which stores the results, or replace the formula by its value", ref, bk.lim.Over(limits.SheetCells, laidOut, ""))
 	}
-	formula, _ := f.GetCellFormula(bk.sheetName, ref)
-	v, err := f.CalcCellValue(bk.sheetName, ref, excelize.Options{RawCellValue: true})
+	formula, _ := bk.f.GetCellFormula(bk.sheet, ref)
+	v, err := bk.f.CalcCellValue(bk.sheet, ref, excelize.Options{RawCellValue: true})
 	if err == nil && strings.HasPrefix(v, "#") {
 		err = fmt.Errorf("it gives %s", v)
 	}
@@ -89,12 +57,8 @@ func (bk *xlsxBook) calc(ref string) (string, error) {
 func (bk *xlsxBook) styled(style int, text string) (string, Kind, error) {
 	k, ok := bk.kinds[style]
 	if !ok {
-		f, err := bk.library()
-		if err != nil {
-			return text, KindPlain, err
-		}
 		k = KindPlain
-		if st, err := f.GetStyle(style); err == nil && st != nil {
+		if st, err := bk.f.GetStyle(style); err == nil && st != nil {
 			code := ""
 			if st.CustomNumFmt != nil {
 				code = *st.CustomNumFmt
@@ -113,12 +77,14 @@ func (bk *xlsxBook) styled(style int, text string) (string, Kind, error) {
 	if err != nil {
 		return text, KindPlain, nil
 	}
-	f, _ := bk.library()
-	date1904 := false
-	if p, err := f.GetWorkbookProps(); err == nil && p.Date1904 != nil {
-		date1904 = *p.Date1904
+	if bk.date1904 == nil {
+		d := false
+		if p, err := bk.f.GetWorkbookProps(); err == nil && p.Date1904 != nil {
+			d = *p.Date1904
+		}
+		bk.date1904 = &d
 	}
-	tm, err := excelize.ExcelDateToTime(x, date1904)
+	tm, err := excelize.ExcelDateToTime(x, *bk.date1904)
 	if err != nil {
 		return text, KindPlain, fmt.Errorf("%s is formatted as a date but is not one (%v)", text, err)
 	}

@@ -464,3 +464,61 @@ func TestAgainstPandas(t *testing.T) {
 		t.Errorf("only %d reference values compared", n)
 	}
 }
+
+// TestPairsNotAdjacent: in the shape with one row per paper and
+// affiliation, a paper whose rows are split by another paper is an error
+// naming the file, both lines and the paper, in the full run and in a run
+// over own papers with supplied baselines (common practice, no source:
+// counting it twice would double its weight in the baselines).
+func TestPairsNotAdjacent(t *testing.T) {
+	const split = "paper,year,type,field,citations,institution,country\n" +
+		"P1,2024,article,1.1,3,A,X\n" +
+		"P1,2024,article,1.1,3,B,Y\n" +
+		"P2,2024,article,1.1,1,B,Y\n" +
+		"P1,2024,article,1.1,3,C,Z\n"
+	want := "p.csv:5:1: paper P1 has rows on line 2 and again here, with other papers between; in the shape with one row per paper and affiliation the rows of a paper must be adjacent: sort the file by its paper column and run again"
+	fsys := fstest.MapFS{"p.csv": {Data: []byte(split)}}
+	if _, err := Papers(OpenFile(fsys, "p.csv", limits.Default()), PaperOptions{}); err == nil || err.Error() != want {
+		t.Errorf("full run:\n got %v\nwant %s", err, want)
+	}
+	base, err := baselinePass(OpenFile(fstest.MapFS{"p.csv": {Data: []byte(split[:strings.LastIndex(split[:len(split)-1], "\n")+1])}}, "p.csv", limits.Default()), PaperOptions{Limits: limits.Default()}, &PaperResult{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Papers(OpenFile(fsys, "p.csv", limits.Default()), PaperOptions{Baselines: base}); err == nil || err.Error() != want {
+		t.Errorf("with supplied baselines:\n got %v\nwant %s", err, want)
+	}
+	// Sorted, the same rows are accepted.
+	sorted := "paper,year,type,field,citations,institution,country\n" +
+		"P1,2024,article,1.1,3,A,X\nP1,2024,article,1.1,3,B,Y\nP1,2024,article,1.1,3,C,Z\nP2,2024,article,1.1,1,B,Y\n"
+	if res := run(t, map[string]string{"p.csv": sorted}, "p.csv", PaperOptions{}); res.Papers != 2 {
+		t.Errorf("sorted: %d papers, want 2", res.Papers)
+	}
+}
+
+// TestSeenPapers: the fingerprint table finds every id again after growing,
+// and a fingerprint that matches no earlier row (a collision) is not an
+// error: firstLineOf finds no earlier line.
+func TestSeenPapers(t *testing.T) {
+	var s seenPapers
+	for i := range 5000 {
+		if s.add([]byte("W" + strconv.Itoa(i))) {
+			t.Fatalf("W%d reported as seen on first sight", i)
+		}
+	}
+	for i := range 5000 {
+		if !s.add([]byte("W" + strconv.Itoa(i))) {
+			t.Fatalf("W%d not found again", i)
+		}
+	}
+	fsys := fstest.MapFS{"p.csv": {Data: []byte("paper,year\nP1,2024\nP2,2024\nP3,2024\n")}}
+	for _, c := range []struct {
+		id           string
+		before, want int
+	}{{"P2", 4, 3}, {"P3", 4, 0}, {"P9", 4, 0}, {"P1", 2, 0}} {
+		got, err := firstLineOf(OpenFile(fsys, "p.csv", limits.Default()), 0, []byte(c.id), c.before)
+		if err != nil || got != c.want {
+			t.Errorf("firstLineOf(%s, before %d) = %d, %v; want %d", c.id, c.before, got, err, c.want)
+		}
+	}
+}

@@ -185,7 +185,10 @@ type ChangeFact struct {
 	Better    dataset.Polarity
 	FromYear  string
 	ToYear    string
-	From, To  string
+	// Later is set when FromYear is later than the years asked for
+	// because no member of the group has a value before it.
+	Later    bool
+	From, To string
 	// Direction is Above (rose), Below (fell) or Level (broadly
 	// unchanged: within the noise threshold).
 	Direction int

@@ -400,7 +400,7 @@ var AppendixKinds = []string{"methodology", "data"}
 var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns", "clusters", "composite"}
 
 // ChartKinds are the chart kinds.
-var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem"}
+var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem", "vote-profile"}
 
 // TableKinds are the table kinds.
 var TableKinds = []string{"position", "peers", "groups", "population"}

@@ -387,9 +387,15 @@ func (r *paperReader) next() error {
 		return err
 	}
 	r.pending = nil
-	if r.open != nil && r.seen.add(r.p.id) {
-		if err := r.notAdjacent(); err != nil {
+	if r.open != nil {
+		again, err := r.seen.check(r.open, r.c.paper, r.p.id, r.p.line)
+		if err != nil {
 			return err
+		}
+		if again {
+			if err := r.notAdjacent(); err != nil {
+				return err
+			}
 		}
 	}
 	for {

@@ -2,6 +2,7 @@ package records
 
 import (
 	"bytes"
+	"io"
 	"math"
 	"os"
 	"strconv"
@@ -520,5 +521,48 @@ func TestSeenPapers(t *testing.T) {
 		if err != nil || got != c.want {
 			t.Errorf("firstLineOf(%s, before %d) = %d, %v; want %d", c.id, c.before, got, err, c.want)
 		}
+	}
+}
+
+// TestPairsOrder: runs of rows need not be sorted, only adjacent. A file
+// sorted by paper keeps no table of ids (a new id above the last cannot
+// repeat one); an unsorted file fills the table from the lines before the
+// first id out of order and still finds a split paper behind it.
+func TestPairsOrder(t *testing.T) {
+	const head = "paper,year,type,field,citations,institution,country\n"
+	read := func(body string) (*paperReader, error) {
+		fsys := fstest.MapFS{"p.csv": {Data: []byte(head + body)}}
+		open := OpenFile(fsys, "p.csv", limits.Default())
+		src, closer, err := open()
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer closer.Close()
+		c, err := findPaperColumns(src)
+		if err != nil {
+			t.Fatal(err)
+		}
+		r := &paperReader{src: src, c: c, lim: limits.Default(), lastType: -1, open: open,
+			fields: newNames("field", 100), types: newNames("type", 100)}
+		for {
+			if err := r.next(); err == io.EOF {
+				return r, nil
+			} else if err != nil {
+				return r, err
+			}
+		}
+	}
+	r, err := read("P1,2024,article,1.1,3,A,X\nP1,2024,article,1.1,3,B,Y\nP2,2024,article,1.1,1,B,Y\nP3,2024,article,1.1,0,C,Z\n")
+	if err != nil || r.seen.slots != nil || r.seen.unsorted {
+		t.Errorf("sorted file: error %v, table of %d slots, unsorted %v; want no error and no table", err, len(r.seen.slots), r.seen.unsorted)
+	}
+	r, err = read("P2,2024,article,1.1,1,B,Y\nP2,2024,article,1.1,1,C,Z\nP1,2024,article,1.1,3,A,X\nP3,2024,article,1.1,0,C,Z\n")
+	if err != nil || !r.seen.unsorted || r.seen.n != 3 {
+		t.Errorf("unsorted, adjacent: error %v, unsorted %v, %d ids held; want no error and all three ids", err, r.seen.unsorted, r.seen.n)
+	}
+	_, err = read("P2,2024,article,1.1,1,B,Y\nP1,2024,article,1.1,3,A,X\nP3,2024,article,1.1,0,C,Z\nP1,2024,article,1.1,3,C,Z\n")
+	want := "p.csv:5:1: paper P1 has rows on line 3 and again here"
+	if err == nil || !strings.HasPrefix(err.Error(), want) {
+		t.Errorf("unsorted, split:\n got %v\nwant %s...", err, want)
 	}
 }

@@ -62,6 +62,13 @@ func newVoteProfile(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, 
 		return nil, err
 	}
 	year := chartYear(m, spec)
+	if !anyValue(m, inds, groups, year) {
+		keys := make([]string, len(inds))
+		for i, ind := range inds {
+			keys[i] = ind.Key
+		}
+		return nil, specError(spec, "no institution has a value of %s in %d; these come from survey votes: give data.votes in the brief and list them under its indicators (or leave indicators out to compute all)", strings.Join(keys, ", "), year)
+	}
 	focusName := institution(m, m.Focus).Name
 	rc := &RadarChart{Theme: th}
 	if _, err := commonRadar(m, spec, rc, inds, groups, year, focusName); err != nil {
@@ -81,6 +88,22 @@ func newVoteProfile(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, 
 			ringText(inds[0], rc.Axes[0].Outer, rc.CommonStep) + " at the rim (rings every " + ringText(inds[0], rc.CommonStep, rc.CommonStep) + ")."
 	}
 	return &VoteProfileChart{RadarChart: rc, Text: voteProfileCaption(m, inds, groups, year, focusName, voted)}, nil
+}
+
+// anyValue tells whether any group has a value of any of the indicators
+// in the year, or the focus has one.
+func anyValue(m *figures.Model, inds []dataset.Indicator, groups []*figures.Group, year int) bool {
+	for _, ind := range inds {
+		if _, ok := valueOf(m, ind, m.Focus, year); ok {
+			return true
+		}
+		for _, g := range groups {
+			if d, ok := m.Distribution(g.Name, ind.Key, year); ok && d.N > 0 {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // voteProfileCaption writes the caption from the figures: each group with

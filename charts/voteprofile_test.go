@@ -4,6 +4,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"peerpack/internal/figures"
 )
 
 // TestVoteProfileReadsTheModel: the vote profile draws, on each field's
@@ -98,5 +100,27 @@ func TestVoteProfileWithoutVotes(t *testing.T) {
 	}
 	if got := vp.Axes[0].Outer; got != 4*ceilStep(top/4) {
 		t.Errorf("rim %v, want %v from the largest median %v", got, 4*ceilStep(top/4), top)
+	}
+}
+
+// TestVoteProfileWithoutData: esteem indicators with no values at all
+// (the brief computes none from votes) are an error at the block saying
+// where they come from.
+func TestVoteProfileWithoutData(t *testing.T) {
+	m, b := buildModel(t, 60, "\n```chart\nkind: vote-profile\nindicators: [peer_esteem_natural, peer_esteem_health, peer_esteem_social]\ngroups: [Kestria national]\nyear: 2025\n```\n")
+	for _, key := range []string{"peer_esteem_natural", "peer_esteem_health", "peer_esteem_social"} {
+		ind := m.Data.Dictionary.Index(key)
+		for i := range m.Data.Register.Institutions {
+			m.Data.Set(ind, i, 2025, math.NaN())
+		}
+	}
+	m2, err := figures.Compute(m.Data, b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = New(m2, chartBlocks(b)[0], Theme{})
+	want := "vote-profile chart: no institution has a value of peer_esteem_natural, peer_esteem_health, peer_esteem_social in 2025; these come from survey votes: give data.votes in the brief and list them under its indicators (or leave indicators out to compute all)"
+	if err == nil || !strings.Contains(err.Error(), want) {
+		t.Errorf("got %v\nwant %s", err, want)
 	}
 }

@@ -19,6 +19,9 @@ type changeData struct {
 	t      *figures.Trend
 	// useTrend: the years are the trend's, so its change can be cited.
 	useTrend bool
+	// asked is the first year the block asked for when the change starts
+	// later, at the first year with figures (f.Later).
+	asked int
 	hasPct   bool
 	hasMed   bool
 }
@@ -37,6 +40,7 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		}
 		y0, y1 = t.StartYear, t.EndYear
 	} else {
+		cd.asked = y0
 		y0, later = c.seriesStart(g, ind, y0, y1)
 	}
 	if y0 == y1 {
@@ -169,7 +173,17 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 		cites = append(cites, distKey(g.Name, ind.Key, cd.d1.Year, mIQR))
 	}
 	f.Seed, f.Turn = c.next("change")
-	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...).claim(c.valueChangeClaims(g, ind, cd)...)}
+	claims := c.valueChangeClaims(g, ind, cd)
+	if f.Later {
+		// "the first year with figures": no member has a value in any
+		// year asked for before it.
+		for y := cd.asked; y < cd.p0.Year; y++ {
+			if _, ok := c.m.Distribution(g.Name, ind.Key, y); ok {
+				claims = append(claims, Claimed(Fig(distKey(g.Name, ind.Key, y, mN)), OpEqual, Num(0)))
+			}
+		}
+	}
+	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...).claim(claims...)}
 	if !cd.hasMed || cd.d1.N < 2 {
 		return out
 	}

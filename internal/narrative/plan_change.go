@@ -21,9 +21,9 @@ type changeData struct {
 	useTrend bool
 	// asked is the first year the block asked for when the change starts
 	// later, at the first year with figures (f.Later).
-	asked int
-	hasPct   bool
-	hasMed   bool
+	asked  int
+	hasPct bool
+	hasMed bool
 }
 
 func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator) (changeData, bool) {

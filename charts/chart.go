@@ -1,5 +1,5 @@
 // Package charts draws peerpack's chart kinds (box, radar, trend, scatter, esteem,
-// heatmap, bars) with gonum/plot from the figures model. A chart draws; it
+// vote-profile, heatmap, bars) with gonum/plot from the figures model. A chart draws; it
 // never decides what a quartile is: every statistic comes precomputed from
 // the model, and each kind's plotter takes plain structs (BoxRow,
 // RadarSeries, ...) so it can be drawn and tested without a model.
@@ -38,6 +38,8 @@ var kinds = map[string]planner{
 	"heatmap": newHeatmap,
 	"bars":    newBars,
 	"esteem":  newEsteem,
+	// vote-profile: one institution's esteem per field, from votes.
+	"vote-profile": newVoteProfile,
 }
 
 // New plans the chart a block asks for. Errors are *diag.Problem values

@@ -23,6 +23,10 @@ var fixtureIndicators = []dataset.Indicator{
 	// Two more shares, drawn after the others so their values stay as they were.
 	{Key: "field_a", Label: "Share of papers in natural sciences", Short: "Natural sciences", Unit: dataset.UnitPercent, Better: dataset.Neutral, Decimals: 1},
 	{Key: "field_b", Label: "Share of papers in social sciences", Short: "Social sciences", Unit: dataset.UnitPercent, Better: dataset.Neutral, Decimals: 1},
+	// Esteem in three fields (the most voted = 100), drawn after the others.
+	{Key: "peer_esteem_natural", Label: "Peer esteem in the natural sciences", Short: "Natural sciences", Unit: dataset.UnitScore, Better: dataset.HigherIsBetter, Decimals: 1},
+	{Key: "peer_esteem_health", Label: "Peer esteem in the medical and health sciences", Short: "Medical, health", Unit: dataset.UnitScore, Better: dataset.HigherIsBetter, Decimals: 1},
+	{Key: "peer_esteem_social", Label: "Peer esteem in the social sciences", Short: "Social sciences", Unit: dataset.UnitScore, Better: dataset.HigherIsBetter, Decimals: 1},
 }
 
 var fixtureYears = []int{2021, 2022, 2023, 2024, 2025}
@@ -60,8 +64,8 @@ func buildModel(t testing.TB, n int, body string) (*figures.Model, *brief.Brief)
 	reg := dataset.NewRegister("register.csv", insts, []string{"mission", "short_name"})
 	dict := dataset.NewDictionary("indicators.yaml", fixtureIndicators)
 	d := dataset.New(reg, dict, fixtureYears)
-	means := []float64{1, 18, 16, 90000, 30, 20}
-	sds := []float64{0.3, 6, 4, 30000, 8, 6}
+	means := []float64{1, 18, 16, 90000, 30, 20, 30, 25, 20}
+	sds := []float64{0.3, 6, 4, 30000, 8, 6, 15, 12, 10}
 	for k := range fixtureIndicators {
 		for i := range insts {
 			base := means[k] + sds[k]*r.NormFloat64()
@@ -113,7 +117,8 @@ const goldenBody = "# Charts\n" +
 	"\n```chart\nkind: scatter\nindicators: [intl_staff, fnci]\ngroups: [Kestria national, Aldmere national]\nlabel: [AL001]\nfit: true\n```\n" +
 	"\n```chart\nkind: heatmap\nindicators: [fnci, intl_staff, ssr, income]\ngroups: [Kestria national]\nlabel: [KE002]\nlimit: 12\n```\n" +
 	"\n```chart\nkind: bars\nindicators: [fnci]\ngroups: [Kestria national]\nlimit: 10\n```\n" +
-	"\n```chart\nkind: esteem\nindicators: [intl_staff, fnci]\ngroups: [Kestria national, Aldmere national]\nlabel: [AL001]\n```\n"
+	"\n```chart\nkind: esteem\nindicators: [intl_staff, fnci]\ngroups: [Kestria national, Aldmere national]\nlabel: [AL001]\n```\n" +
+	"\n```chart\nkind: vote-profile\nindicators: [peer_esteem_natural, peer_esteem_health, peer_esteem_social]\ngroups: [Kestria national, Aldmere national]\n```\n"
 
 // chartBlocks returns the brief's chart blocks.
 func chartBlocks(b *brief.Brief) []*brief.ChartBlock {

@@ -175,13 +175,15 @@ func TestBlockErrors(t *testing.T) {
 		spec brief.ChartBlock
 		want string
 	}{
-		{brief.ChartBlock{Type: "pie", Indicators: []string{"fnci"}}, `kind "pie" is not drawn; use one of bars, box, esteem, heatmap, radar, scatter, trend`},
+		{brief.ChartBlock{Type: "pie", Indicators: []string{"fnci"}}, `kind "pie" is not drawn; use one of bars, box, esteem, heatmap, radar, scatter, trend, vote-profile`},
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fncii"}}, `indicator "fncii" is not in the dictionary (did you mean "fnci"?)`},
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fnci"}, Groups: []string{"Kestria nationl"}}, `group "Kestria nationl" is not defined in the brief (did you mean "Kestria national"?)`},
 		{brief.ChartBlock{Type: "scatter", Indicators: []string{"fnci"}}, "a scatter takes exactly two indicators, x then y; found 1"},
 		{brief.ChartBlock{Type: "radar", Indicators: []string{"fnci", "ssr"}}, "a radar needs at least three indicators; found 2"},
 		{brief.ChartBlock{Type: "radar", Indicators: []string{"fnci", "ssr", "income"}, Scale: "log"}, `scale "log": use percentile, range or common`},
 		{brief.ChartBlock{Type: "box", Indicators: []string{"fnci"}, Label: []string{"XX999"}}, `label "XX999" is neither a register id nor an institution name`},
+		{brief.ChartBlock{Type: "vote-profile", Indicators: []string{"peer_esteem_natural", "fnci", "peer_esteem_social"}}, "fnci is not a field's esteem from survey votes; a vote profile draws one spoke per field"},
+		{brief.ChartBlock{Type: "vote-profile", Indicators: []string{"peer_esteem_natural", "peer_esteem_social"}}, "a vote profile needs the esteem of at least three fields; found 2"},
 	} {
 		spec := c.spec
 		spec.At = brief.Pos{Line: 12, Column: 1}

@@ -200,9 +200,29 @@ func (r *RadarPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 		// value beside each of its vertices, just outside the polygon.
 		// Ring values sit on the edge between the first two spokes, clear
 		// of the spoke names and of the focus's values on the spokes.
+		// With few spokes (or a small radar) the edge midpoints crowd
+		// together; a ring value that would touch the one before it is left
+		// out (the rim's value is always printed, and the note states the
+		// scale).
+		var ringAt []vg.Point
 		for _, f := range []float64{0.25, 0.5, 0.75, 1} {
 			a, b := spoke(ctr, rad, 0, n, f), spoke(ctr, rad, 1, n, f)
-			fillText(&c, small, (a.X+b.X)/2+2, (a.Y+b.Y)/2+1.5, draw.XLeft, ringText(rc.Unit, f*rc.Axes[0].Outer, rc.CommonStep))
+			ringAt = append(ringAt, vg.Point{X: (a.X+b.X)/2 + 2, Y: (a.Y+b.Y)/2 + 1.5})
+		}
+		keep := make([]bool, len(ringAt))
+		keep[len(keep)-1] = true
+		last := ringAt[len(ringAt)-1]
+		for k := len(ringAt) - 2; k >= 0; k-- {
+			p := ringAt[k]
+			w := small.Width(ringText(rc.Unit, float64(k+1)*rc.CommonStep, rc.CommonStep))
+			if last.Y-p.Y >= textHeight(small)+1 || last.X-p.X >= w+3 {
+				keep[k], last = true, p
+			}
+		}
+		for k, p := range ringAt {
+			if keep[k] {
+				fillText(&c, small, p.X, p.Y, draw.XLeft, ringText(rc.Unit, float64(k+1)/4*rc.Axes[0].Outer, rc.CommonStep))
+			}
 		}
 		val := th.focusLabelStyle()
 		for _, s := range rc.Series {
@@ -214,12 +234,24 @@ func (r *RadarPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 					continue
 				}
 				a := math.Pi/2 - 2*math.Pi*float64(i)/float64(n)
-				pt := spoke(ctr, rad, i, n, rc.Axes[i].fraction(s.Values[i]))
+				f := rc.Axes[i].fraction(s.Values[i])
+				pt := spoke(ctr, rad, i, n, f)
 				align := draw.XLeft
 				if math.Cos(a) < -0.2 {
 					align = draw.XRight
 				}
 				off := vg.Length(7)
+				if f > 0.8 {
+					// Near the rim the value goes inside the vertex, clear
+					// of the spoke's name outside the rim.
+					off = -off
+					switch {
+					case math.Cos(a) < -0.2:
+						align = draw.XLeft
+					case math.Cos(a) > 0.2:
+						align = draw.XRight
+					}
+				}
 				fillText(&c, val, pt.X+off*vg.Length(math.Cos(a))+2*vg.Length(math.Cos(a)), pt.Y+off*vg.Length(math.Sin(a))-textHeight(val)/3, align, valueText(rc.Unit, s.Values[i]))
 			}
 		}

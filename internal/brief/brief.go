@@ -417,7 +417,7 @@ var AppendixKinds = []string{"methodology", "data"}
 var BlockKinds = []string{"chart", "table", "commentary", "appendix", "pagebreak", "columns", "clusters", "composite"}
 
 // ChartKinds are the chart kinds.
-var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem"}
+var ChartKinds = []string{"box", "radar", "trend", "scatter", "heatmap", "bars", "esteem", "vote-profile"}
 
 // MaxScaleIndicators is the most size measures a scale table shows, so its
 // rows of institutions stay readable on a portrait page.

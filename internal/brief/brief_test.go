@@ -109,7 +109,7 @@ func TestParseAllProblemsListed(t *testing.T) {
 	if len(lines) != 2 {
 		t.Fatalf("want both problems listed, got %q", err)
 	}
-	want0 := `brief.md:33:1: unknown chart kind "bxo"; did you mean "box"? (kinds are box, radar, trend, scatter, heatmap, bars, esteem)`
+	want0 := `brief.md:33:1: unknown chart kind "bxo"; did you mean "box"? (kinds are box, radar, trend, scatter, heatmap, bars, esteem, vote-profile)`
 	if lines[0] != want0 {
 		t.Errorf("got  %s\nwant %s", lines[0], want0)
 	}

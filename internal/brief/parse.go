@@ -568,6 +568,9 @@ func (b *Brief) validateBlocks() error {
 			if v.Type == "radar" && len(v.Indicators) < 3 {
 				bad(v, "a radar chart needs at least three indicators, found %d", len(v.Indicators))
 			}
+			if v.Type == "vote-profile" && len(v.Indicators) < 3 {
+				bad(v, "a vote profile needs the esteem of at least three fields (peer_esteem_<field> indicators), found %d", len(v.Indicators))
+			}
 			switch v.Size {
 			case "":
 				v.Size = "full"

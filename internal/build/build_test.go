@@ -3,6 +3,7 @@ package build
 import (
 	"bytes"
 	"context"
+	"fmt"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -160,6 +161,16 @@ func TestDemoPDFChecks(t *testing.T) {
 	}
 	if !strings.Contains(string(txt), in.Brief.Title) {
 		t.Errorf("pdftotext does not find the title %q", in.Brief.Title)
+	}
+	// The vote profile writes its caption from the figures: the group's
+	// members with votes, as the model counts them.
+	d, ok := in.Figures.Distribution("Kestrian sector", "peer_esteem_health", in.Figures.Year)
+	if !ok || d.N == 0 {
+		t.Fatal("the demo has no esteem by field in the Kestrian sector")
+	}
+	words := strings.Join(strings.Fields(string(txt)), " ")
+	if want := fmt.Sprintf("Kestrian sector (%d institutions with votes), %d; %s against the group's median in each field", d.N, in.Figures.Year, focus); !strings.Contains(words, want) {
+		t.Errorf("pdftotext does not find the vote profile's caption %q", want)
 	}
 }
 

@@ -103,3 +103,39 @@ func TestRecordsBriefErrors(t *testing.T) {
 		}
 	}
 }
+
+// TestUnvotedInstitutionIsMissing: a register institution that no
+// respondent names has no esteem value (missing, not 0), and the check
+// report's coverage counts it as missing. C is in the register and named
+// by nobody, so peer esteem covers two institutions of three in 2024.
+func TestUnvotedInstitutionIsMissing(t *testing.T) {
+	reg := recRegister + "C,Cedar University,X,North\n"
+	files := map[string]string{"reg.csv": reg, "dict.yaml": recDict, "v.csv": recVotes,
+		"vals.csv": "institution,year,indicator,value\nA,2024,staff,50\nB,2024,staff,20\nC,2024,staff,30\n"}
+	d, rep, err := load(t, recBrief("  votes: v.csv\n"), files)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ind := d.Dictionary.Index("peer_esteem")
+	if v, ok := d.Value(ind, d.Register.Index("C"), 2024); ok {
+		t.Errorf("C is named by no respondent: peer esteem should be missing, got %v", v)
+	}
+	if v, ok := d.Value(ind, d.Register.Index("B"), 2024); !ok || v != 100 {
+		t.Errorf("B's peer esteem %v (present %v), want 100", v, ok)
+	}
+	var found bool
+	for _, ic := range rep.Indicators {
+		if ic.Key != "peer_esteem" {
+			continue
+		}
+		found = true
+		for i, y := range rep.Years {
+			if y == 2024 && (ic.Values[i] != 2 || !closeTo(ic.Coverage[i], 2.0/3)) {
+				t.Errorf("peer esteem coverage in 2024: %d institutions (%v), want 2 of 3", ic.Values[i], ic.Coverage[i])
+			}
+		}
+	}
+	if !found {
+		t.Error("no coverage row for peer_esteem in the check report")
+	}
+}

@@ -106,7 +106,7 @@ func (w *writer) followingNeed(next ast.Node) float64 {
 		}
 		// The chart as setCharts will set it: scaled for its section,
 		// perhaps a little shorter still when it nearly fits.
-		t := w.chartTexts(blk, 0, width)
+		t := w.chartTexts(blk, ch, 0, width)
 		if elastic(blk) {
 			h *= w.plan.chartScale(w.section) * minChartScale
 		}

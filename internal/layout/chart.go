@@ -148,7 +148,7 @@ func (w *writer) setCharts(row []placed, half bool) {
 	for i, p := range row {
 		w.figureNo++
 		numbers[i] = w.figureNo
-		texts[i] = w.chartTexts(p.spec, w.figureNo, width)
+		texts[i] = w.chartTexts(p.spec, p.ch, w.figureNo, width)
 		titleH = math.Max(titleH, texts[i].titleH)
 	}
 	for i, p := range row {
@@ -232,14 +232,19 @@ type chartText struct {
 
 // chartTexts sets a chart's title in the bold text face and its numbered
 // caption ("Figure 3. Caption") at a width.
-func (w *writer) chartTexts(spec *brief.ChartBlock, no int, width float64) chartText {
+func (w *writer) chartTexts(spec *brief.ChartBlock, ch charts.Chart, no int, width float64) chartText {
 	var t chartText
 	if spec.Title != "" {
 		t.titleSpans = []span{{text: spec.Title, font: w.st.font(pdf.Bold, chartTitleSize), color: w.st.text}}
 		t.title = w.wrap(t.titleSpans, w.tokenize(t.titleSpans), width, width)
 		t.titleH = float64(len(t.title))*w.st.lineHeight(chartTitleSize) + 1.2
 	}
-	t.capSpans = w.captionSpans("Figure", no, spec.Caption)
+	caption := spec.Caption
+	if c, ok := ch.(charts.Captioner); ok && caption == "" {
+		// A kind that writes its caption from the figures it draws.
+		caption = c.Caption()
+	}
+	t.capSpans = w.captionSpans("Figure", no, caption)
 	t.caption = w.wrap(t.capSpans, w.tokenize(t.capSpans), width, width)
 	t.capH = float64(len(t.caption))*w.st.lineHeight(captionSize) + captionGap
 	return t
@@ -286,7 +291,7 @@ const minChartScale = 0.86
 // labels would collide.
 func elastic(spec *brief.ChartBlock) bool {
 	switch spec.Type {
-	case "scatter", "radar", "trend":
+	case "scatter", "radar", "vote-profile", "trend":
 		return true
 	}
 	return false

@@ -231,6 +231,44 @@ block: {style: detail, topics: [position], indicators: [intl]}
 	}
 }
 
+// An indicator whose series starts after the block's first year (one
+// computed over three-year windows of paper records, first available at
+// the end of the first window): no member has a value in 2021, so that is
+// not a value the focus failed to report; the change runs from the first
+// year with figures, and its claims still hold (compose verifies them).
+func TestChangeFromTheSeriesStart(t *testing.T) {
+	s := parseSituation(t, edgeIndicators+`
+years: [2021, 2023, 2025]
+columns: [intl@2023, intl@2025]
+institutions:
+  F: [Kestria, Arlen University, 35, 42]
+  A: [Kestria, Bexmoor College, 30, 31]
+  B: [Kestria, Corrin Institute, 38, 39]
+groups:
+  - {name: Kestria sector, where: {country: Kestria}}
+block: {style: detail, topics: [change], indicators: [intl], years: [2021, 2025]}
+`)
+	c, _, b := s.compose(t)
+	got := blockText(c, b)
+	// "the first year with figures" is claimed: no member has a value in
+	// 2021 (the span's years are 2021, 2023 and 2025).
+	claimed := false
+	for _, sn := range c.Sentences {
+		for _, cl := range sn.Claims {
+			claimed = claimed || (cl.Left.Key.String() == "distribution/Kestria sector/intl//2021/n" && cl.Op == OpEqual && cl.Right.IsNum && cl.Right.Num == 0)
+		}
+	}
+	if !claimed {
+		t.Error("no sentence claims that the group has no value in 2021")
+	}
+	if strings.Contains(got, "reports no") {
+		t.Errorf("a year before the series starts is read as the focus's missing value:\n%s", got)
+	}
+	if !strings.Contains(got, "2023 (the first year with figures)") || !strings.Contains(got, "35.0%") || !strings.Contains(got, "42.0%") {
+		t.Errorf("want the change from 2023, the first year with figures, 35.0%% to 42.0%%:\n%s", got)
+	}
+}
+
 // No value at the start of the block's years: the change cannot be given,
 // and the sentence says so instead of falling silent.
 func TestChangeWithoutAStartValue(t *testing.T) {

@@ -19,8 +19,11 @@ type changeData struct {
 	t      *figures.Trend
 	// useTrend: the years are the trend's, so its change can be cited.
 	useTrend bool
-	hasPct   bool
-	hasMed   bool
+	// asked is the first year the block asked for when the change starts
+	// later, at the first year with figures (f.Later).
+	asked  int
+	hasPct bool
+	hasMed bool
 }
 
 func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator) (changeData, bool) {
@@ -30,11 +33,15 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		return cd, false
 	}
 	y0, y1 := sc.first, sc.last
+	later := false
 	if y0 == 0 {
 		if !t.Valid {
 			return cd, false
 		}
 		y0, y1 = t.StartYear, t.EndYear
+	} else {
+		cd.asked = y0
+		y0, later = c.seriesStart(g, ind, y0, y1)
 	}
 	if y0 == y1 {
 		return cd, false
@@ -62,6 +69,7 @@ func (c *composer) changeData(sc *scope, g *figures.Group, ind dataset.Indicator
 		FromYear:  printYear(y0),
 		ToYear:    printYear(y1),
 		EndsEarly: y1 < c.m.Year,
+		Later:     later,
 		From:      printValue(ind, p0.Value),
 		To:        printValue(ind, p1.Value),
 		Direction: direction(ind, change, iqr),
@@ -155,6 +163,7 @@ func (c *composer) noChange(sc *scope, g *figures.Group, ind dataset.Indicator) 
 	if y0 == 0 {
 		y0 = c.m.First
 	}
+	y0, _ = c.seriesStart(g, ind, y0, sc.year)
 	if y0 >= sc.year {
 		return nil
 	}
@@ -164,6 +173,21 @@ func (c *composer) noChange(sc *scope, g *figures.Group, ind dataset.Indicator) 
 	}
 	f := MissingFact{Seed: ind.Key, Focus: c.focus, Indicator: c.w.Indicator(ind), Group: c.phrase(g), Year: printYear(y0)}
 	return []Sentence{c.say(ind.Key, c.w.ChangeMissing(f), posKey(g.Name, ind.Key, c.m.FocusID, y0, "has_value"))}
+}
+
+// seriesStart moves the start of a change forward to the first year, up
+// to y1, in which any member of the group has a value: an indicator that
+// starts later than the block's years (one computed over windows of
+// several years, first available at the end of the first window, or one
+// first collected later) has no series before then, which is not a value
+// the focus failed to report. later tells whether the start moved.
+func (c *composer) seriesStart(g *figures.Group, ind dataset.Indicator, y0, y1 int) (int, bool) {
+	for y := y0; y < y1; y++ {
+		if d, ok := c.m.Distribution(g.Name, ind.Key, y); ok && d.N > 0 {
+			return y, y != y0
+		}
+	}
+	return y0, false
 }
 
 // change writes the focus's movement, the group median's movement and,
@@ -184,7 +208,17 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 		cites = append(cites, distKey(g.Name, ind.Key, cd.d1.Year, mIQR))
 	}
 	f.Seed, f.Turn = c.next("change")
-	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...).claim(c.valueChangeClaims(g, ind, cd)...)}
+	claims := c.valueChangeClaims(g, ind, cd)
+	if f.Later {
+		// "the first year with figures": no member has a value in any
+		// year asked for before it.
+		for y := cd.asked; y < cd.p0.Year; y++ {
+			if _, ok := c.m.Distribution(g.Name, ind.Key, y); ok {
+				claims = append(claims, Claimed(Fig(distKey(g.Name, ind.Key, y, mN)), OpEqual, Num(0)))
+			}
+		}
+	}
+	out := []Sentence{c.say(ind.Key, c.w.Change(f), cites...).claim(claims...)}
 	if cd.useTrend && f.Direction != Level {
 		out = append(out, c.oneYear(g, ind, false)...)
 	}

@@ -218,7 +218,10 @@ type ChangeFact struct {
 	// (the focus's last value is older): the sentence then names both
 	// years rather than reading as a change up to now.
 	EndsEarly bool
-	From, To  string
+	// Later is set when FromYear is later than the years asked for
+	// because no member of the group has a value before it.
+	Later    bool
+	From, To string
 	// Direction is Above (rose), Below (fell) or Level (broadly
 	// unchanged: within the noise threshold).
 	Direction int

@@ -351,8 +351,12 @@ func (e english) Alone(f PositionFact) string {
 // Change: the focus's own movement over the span. Like Position and Gap it
 // follows the indicator's run-in heading and does not name it again.
 func (e english) Change(f ChangeFact) string {
+	fromYear := f.FromYear
+	if f.Later {
+		fromYear += " (the first year with figures)"
+	}
 	kv := []string{"focus", f.Focus, "focus's", possessive(f.Focus), "ind", f.Indicator, "from", f.From, "to", f.To,
-		"fromYear", f.FromYear, "toYear", f.ToYear, "diff", f.Diff, "iqr", f.NoiseIQR}
+		"fromYear", fromYear, "toYear", f.ToYear, "diff", f.Diff, "iqr", f.NoiseIQR}
 	if f.Direction == Level {
 		switch {
 		case f.From == f.To:

@@ -188,6 +188,11 @@ type paperReader struct {
 	// ctry holds the distinct countries of a paper in the per-paper shape,
 	// compared as bytes (a handful per paper: cheaper than interning).
 	ctry [][]byte
+	// open, when set in the per-affiliation shape, makes the reader check
+	// that the rows of each paper are adjacent (seen: the ids closed so
+	// far); open reads the file again to name the earlier line.
+	open Opener
+	seen seenPapers
 }
 
 func (r *paperReader) keyLimit(line, col int, kind string) error {
@@ -382,6 +387,17 @@ func (r *paperReader) next() error {
 		return err
 	}
 	r.pending = nil
+	if r.open != nil {
+		again, err := r.seen.check(r.open, r.c.paper, r.p.id, r.p.line)
+		if err != nil {
+			return err
+		}
+		if again {
+			if err := r.notAdjacent(); err != nil {
+				return err
+			}
+		}
+	}
 	for {
 		row, line, err := r.src.next()
 		if err == io.EOF {
@@ -400,6 +416,17 @@ func (r *paperReader) next() error {
 			return err
 		}
 	}
+}
+
+// notAdjacent is called when a run of rows starts with a paper id whose
+// fingerprint was seen before: it finds the earlier line and, when the id
+// really is the same, returns the error naming both lines.
+func (r *paperReader) notAdjacent() error {
+	first, err := firstLineOf(r.open, r.c.paper, r.p.id, r.p.line)
+	if err != nil || first == 0 {
+		return err
+	}
+	return fieldError(r.src, r.p.line, r.c.paper, "paper %s has rows on line %d and again here, with other papers between; in the shape with one row per paper and affiliation the rows of a paper must be adjacent: sort the file by its paper column and run again", r.p.id, first)
 }
 
 // hold copies a row that starts the next paper, since the source reuses
@@ -468,6 +495,9 @@ func baselinePass(open Opener, opt PaperOptions, res *PaperResult) (*Baselines, 
 	}
 	r := &paperReader{src: src, c: c, lim: opt.Limits, lastType: -1,
 		fields: newNames("field", opt.Limits.RecordKeys), types: newNames("type", opt.Limits.RecordKeys)}
+	if c.pairs {
+		r.open = open
+	}
 	groups := map[groupKey]*groupAcc{}
 	for {
 		err := r.next()
@@ -579,6 +609,10 @@ func institutionPass(open Opener, opt PaperOptions, base *Baselines, res *PaperR
 	r := &paperReader{src: src, c: c, lim: opt.Limits, withInsts: true, lastType: -1,
 		fields: base.fields.clone(), types: base.types.clone(),
 		insts: newNames("institution", opt.Limits.RecordKeys), countries: newNames("country", opt.Limits.RecordKeys)}
+	if c.pairs && opt.Baselines != nil {
+		// Without a first pass over this file the check runs here.
+		r.open = open
+	}
 	var accs []instAcc
 	broadOf := []int8{} // per field id: broad field 0..5, -1 unmapped
 	first, last := math.MaxInt, math.MinInt

@@ -2,6 +2,7 @@ package records
 
 import (
 	"bytes"
+	"io"
 	"math"
 	"os"
 	"strconv"
@@ -462,5 +463,106 @@ func TestAgainstPandas(t *testing.T) {
 	}
 	if n < 900 {
 		t.Errorf("only %d reference values compared", n)
+	}
+}
+
+// TestPairsNotAdjacent: in the shape with one row per paper and
+// affiliation, a paper whose rows are split by another paper is an error
+// naming the file, both lines and the paper, in the full run and in a run
+// over own papers with supplied baselines (common practice, no source:
+// counting it twice would double its weight in the baselines).
+func TestPairsNotAdjacent(t *testing.T) {
+	const split = "paper,year,type,field,citations,institution,country\n" +
+		"P1,2024,article,1.1,3,A,X\n" +
+		"P1,2024,article,1.1,3,B,Y\n" +
+		"P2,2024,article,1.1,1,B,Y\n" +
+		"P1,2024,article,1.1,3,C,Z\n"
+	want := "p.csv:5:1: paper P1 has rows on line 2 and again here, with other papers between; in the shape with one row per paper and affiliation the rows of a paper must be adjacent: sort the file by its paper column and run again"
+	fsys := fstest.MapFS{"p.csv": {Data: []byte(split)}}
+	if _, err := Papers(OpenFile(fsys, "p.csv", limits.Default()), PaperOptions{}); err == nil || err.Error() != want {
+		t.Errorf("full run:\n got %v\nwant %s", err, want)
+	}
+	base, err := baselinePass(OpenFile(fstest.MapFS{"p.csv": {Data: []byte(split[:strings.LastIndex(split[:len(split)-1], "\n")+1])}}, "p.csv", limits.Default()), PaperOptions{Limits: limits.Default()}, &PaperResult{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Papers(OpenFile(fsys, "p.csv", limits.Default()), PaperOptions{Baselines: base}); err == nil || err.Error() != want {
+		t.Errorf("with supplied baselines:\n got %v\nwant %s", err, want)
+	}
+	// Sorted, the same rows are accepted.
+	sorted := "paper,year,type,field,citations,institution,country\n" +
+		"P1,2024,article,1.1,3,A,X\nP1,2024,article,1.1,3,B,Y\nP1,2024,article,1.1,3,C,Z\nP2,2024,article,1.1,1,B,Y\n"
+	if res := run(t, map[string]string{"p.csv": sorted}, "p.csv", PaperOptions{}); res.Papers != 2 {
+		t.Errorf("sorted: %d papers, want 2", res.Papers)
+	}
+}
+
+// TestSeenPapers: the fingerprint table finds every id again after growing,
+// and a fingerprint that matches no earlier row (a collision) is not an
+// error: firstLineOf finds no earlier line.
+func TestSeenPapers(t *testing.T) {
+	var s seenPapers
+	for i := range 5000 {
+		if s.add([]byte("W" + strconv.Itoa(i))) {
+			t.Fatalf("W%d reported as seen on first sight", i)
+		}
+	}
+	for i := range 5000 {
+		if !s.add([]byte("W" + strconv.Itoa(i))) {
+			t.Fatalf("W%d not found again", i)
+		}
+	}
+	fsys := fstest.MapFS{"p.csv": {Data: []byte("paper,year\nP1,2024\nP2,2024\nP3,2024\n")}}
+	for _, c := range []struct {
+		id           string
+		before, want int
+	}{{"P2", 4, 3}, {"P3", 4, 0}, {"P9", 4, 0}, {"P1", 2, 0}} {
+		got, err := firstLineOf(OpenFile(fsys, "p.csv", limits.Default()), 0, []byte(c.id), c.before)
+		if err != nil || got != c.want {
+			t.Errorf("firstLineOf(%s, before %d) = %d, %v; want %d", c.id, c.before, got, err, c.want)
+		}
+	}
+}
+
+// TestPairsOrder: runs of rows need not be sorted, only adjacent. A file
+// sorted by paper keeps no table of ids (a new id above the last cannot
+// repeat one); an unsorted file fills the table from the lines before the
+// first id out of order and still finds a split paper behind it.
+func TestPairsOrder(t *testing.T) {
+	const head = "paper,year,type,field,citations,institution,country\n"
+	read := func(body string) (*paperReader, error) {
+		fsys := fstest.MapFS{"p.csv": {Data: []byte(head + body)}}
+		open := OpenFile(fsys, "p.csv", limits.Default())
+		src, closer, err := open()
+		if err != nil {
+			t.Fatal(err)
+		}
+		defer closer.Close()
+		c, err := findPaperColumns(src)
+		if err != nil {
+			t.Fatal(err)
+		}
+		r := &paperReader{src: src, c: c, lim: limits.Default(), lastType: -1, open: open,
+			fields: newNames("field", 100), types: newNames("type", 100)}
+		for {
+			if err := r.next(); err == io.EOF {
+				return r, nil
+			} else if err != nil {
+				return r, err
+			}
+		}
+	}
+	r, err := read("P1,2024,article,1.1,3,A,X\nP1,2024,article,1.1,3,B,Y\nP2,2024,article,1.1,1,B,Y\nP3,2024,article,1.1,0,C,Z\n")
+	if err != nil || r.seen.slots != nil || r.seen.unsorted {
+		t.Errorf("sorted file: error %v, table of %d slots, unsorted %v; want no error and no table", err, len(r.seen.slots), r.seen.unsorted)
+	}
+	r, err = read("P2,2024,article,1.1,1,B,Y\nP2,2024,article,1.1,1,C,Z\nP1,2024,article,1.1,3,A,X\nP3,2024,article,1.1,0,C,Z\n")
+	if err != nil || !r.seen.unsorted || r.seen.n != 3 {
+		t.Errorf("unsorted, adjacent: error %v, unsorted %v, %d ids held; want no error and all three ids", err, r.seen.unsorted, r.seen.n)
+	}
+	_, err = read("P2,2024,article,1.1,1,B,Y\nP1,2024,article,1.1,3,A,X\nP3,2024,article,1.1,0,C,Z\nP1,2024,article,1.1,3,C,Z\n")
+	want := "p.csv:5:1: paper P1 has rows on line 3 and again here"
+	if err == nil || !strings.HasPrefix(err.Error(), want) {
+		t.Errorf("unsorted, split:\n got %v\nwant %s...", err, want)
 	}
 }

@@ -308,23 +308,10 @@ func Votes(open Opener, targets *Targets, opt VoteOptions) (*VoteResult, error) 
 			}
 		}
 	}
-	// A register institution named by no respondent had its chance and
-	// scores 0 (its home share and spread are undefined).
-	for id := range opt.Institutions {
-		if i, ok := insts.ids[id]; ok && uv[i] > 0 {
-			continue
-		}
-		add := func(key string) {
-			res.Values = append(res.Values, Value{Institution: id, Year: opt.Year, Indicator: key, Value: 0})
-		}
-		add(KeyEsteem)
-		add(KeyEsteemUnweighted)
-		add(KeyVotes)
-		add(KeyVotesUnweighted)
-		for f := 0; f < nF; f++ {
-			add(fieldKeys[f])
-		}
-	}
+	// A register institution that no respondent names gets no value at
+	// all, not 0: the survey says nothing about it (a respondent names the
+	// few institutions they know best, so silence is not a measured zero),
+	// and the coverage of the esteem indicators then reports it as missing.
 	sort.SliceStable(res.Values, func(a, b int) bool {
 		if res.Values[a].Institution != res.Values[b].Institution {
 			return res.Values[a].Institution < res.Values[b].Institution

@@ -151,7 +151,7 @@ func (w *writer) scaleTable(tb *brief.TableBlock, gr *figures.Group, inds []data
 		g.rows = append(g.rows, row)
 		g.focus = append(g.focus, i == w.m.Focus)
 	}
-	med := []cell{{text: "Median of " + gr.Name, bold: true}, {text: ""}}
+	med := []cell{{text: "Median, " + gr.Name, bold: true}, {text: ""}}
 	for _, ind := range inds {
 		cl := cell{text: "–", bold: true}
 		if d, ok := w.m.Distribution(gr.Name, ind.Key, year); ok && d.N > 0 {

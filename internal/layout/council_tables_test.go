@@ -126,7 +126,7 @@ func TestGoverningBodyTablesAgainstPandas(t *testing.T) {
 		}
 		check(name, id, fields)
 	}
-	fields, ok := layoutLine(scale, "Median of Chosen peers")
+	fields, ok := layoutLine(scale, "Median, Chosen peers")
 	if !ok {
 		t.Fatal("no median row")
 	}
@@ -156,7 +156,7 @@ func TestScaleTableKeepsTheFocus(t *testing.T) {
 		t.Fatal("no scale table")
 	}
 	table := text[at:]
-	table = table[:strings.Index(table, "Median of Kestrian sector")]
+	table = table[:strings.Index(table, "Median, Kestrian sector")]
 	rows := 0
 	reg := m.Data.Register
 	focusRow := false

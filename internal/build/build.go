@@ -308,14 +308,17 @@ type Packed struct {
 // composes the commentary into in.Figures, so it runs once per figures
 // model; the figures file written afterwards carries the commentary rows.
 func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) {
-	return pack(in, created, version, nil)
+	return pack(in, created, version, nil, false)
 }
 
 // pack is Pack that runs alongside, when given, on another goroutine
 // while the pack is laid out: from the moment the commentary is in the
 // model, which nothing changes after, so a writer of the figures model
 // reads what the pack shows. pack returns after alongside has.
-func pack(in *Inputs, created time.Time, version string, alongside func()) (p *Packed, err error) {
+//
+// draft leaves the page streams uncompressed: for check, which lays the
+// pack out only to prove that it builds and throws the bytes away.
+func pack(in *Inputs, created time.Time, version string, alongside func(), draft bool) (p *Packed, err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = fmt.Errorf("internal error while laying out the pack (please report it with the brief): %v\n%s", r, debug.Stack())
@@ -344,6 +347,7 @@ func pack(in *Inputs, created time.Time, version string, alongside func()) (p *P
 	pdf, figs, err := layout.RenderFigures(layout.Input{
 		Brief: in.Brief, Model: in.Figures, Commentary: com, FS: in.FS,
 		Created: created, Version: version, Sources: in.Sources, Rebuild: in.Rebuild,
+		Draft: draft,
 	})
 	if err != nil {
 		return nil, err
@@ -407,7 +411,7 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	if opt.Figures != "" || opt.Workbook != "" {
 		alongside = func() { modelErr = writeModelFiles(&modelSet, opt, in.Figures) }
 	}
-	packed, err := pack(in, opt.Created, opt.Version, alongside)
+	packed, err := pack(in, opt.Created, opt.Version, alongside, false)
 	if err != nil {
 		modelSet.Discard()
 		return nil, err

@@ -22,7 +22,7 @@ import (
 func CheckBuild(in *Inputs, version string) error {
 	done := make(chan error, 1)
 	go func() { done <- in.Report.Summarise() }()
-	_, err := Pack(in, time.Unix(0, 0).UTC(), version)
+	_, err := pack(in, time.Unix(0, 0).UTC(), version, nil, true)
 	if serr := <-done; err == nil {
 		err = serr
 	}

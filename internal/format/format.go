@@ -203,6 +203,20 @@ func Signed(ind dataset.Indicator, d float64) string {
 	return n
 }
 
+// SignedValue is Signed with the unit a value carries when it stands
+// alone in prose, where no column heading gives it: "+PPP$ 21,916" for
+// international dollars, "+3.6 pp" for percent, else the signed number.
+func SignedValue(ind dataset.Indicator, d float64) string {
+	n := Signed(ind, d)
+	if !InDollars(ind) {
+		return n
+	}
+	if r := []rune(n); len(r) > 0 && (r[0] == '+' || r[0] == '−') {
+		return string(r[0]) + "PPP$ " + string(r[1:])
+	}
+	return "PPP$ " + n
+}
+
 // Percent prints a percentage with the decimals: Percent(12.345, 1) is
 // "12.3%".
 func Percent(p float64, decimals int) string {

@@ -3,6 +3,8 @@ package format
 import (
 	"math"
 	"testing"
+
+	"peerpack/internal/dataset"
 )
 
 // Signs: plus for gains, the Unicode minus sign U+2212 for losses (the
@@ -34,6 +36,29 @@ func TestSignedPercent(t *testing.T) {
 	for _, c := range cases {
 		if got := SignedPercent(c.v); got != c.want {
 			t.Errorf("SignedPercent(%v) = %q, want %q", c.v, got, c.want)
+		}
+	}
+}
+
+// A change quoted in prose carries its unit (common practice, no source:
+// a figure in running text names what it counts).
+func TestSignedValue(t *testing.T) {
+	dollars := dataset.Indicator{Unit: dataset.UnitCurrency, Currency: true}
+	pct := dataset.Indicator{Unit: dataset.UnitPercent, Decimals: 1}
+	plain := dataset.Indicator{Decimals: 2}
+	for _, c := range []struct {
+		ind  dataset.Indicator
+		d    float64
+		want string
+	}{
+		{dollars, 21915.6, "+PPP$ 21,916"},
+		{dollars, -1200, "−PPP$ 1,200"},
+		{dollars, 0.2, "PPP$ 0"},
+		{pct, 3.64, "+3.6 pp"},
+		{plain, -0.104, "−0.10"},
+	} {
+		if got := SignedValue(c.ind, c.d); got != c.want {
+			t.Errorf("SignedValue(%v) = %q, want %q", c.d, got, c.want)
 		}
 	}
 }

@@ -44,6 +44,10 @@ type Input struct {
 	// generic one is given). Both go into "About these figures".
 	Sources []provenance.File
 	Rebuild string
+	// Draft leaves the page streams uncompressed (check lays a pack out
+	// to prove it builds and discards the bytes; compression is a fifth
+	// of the layout's time). The pages are the same.
+	Draft bool
 
 	// plans holds the charts planned by an earlier pass of the same
 	// render (nil: plan afresh); predraw the final pass's charts being
@@ -155,6 +159,7 @@ func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 		Paper: paper, Margins: margins,
 		Title: b.Title, Author: author(b), Subject: subject(in), Keywords: b.Keywords,
 		Creator: producer, Producer: producer, Lang: b.Language, Created: in.Created,
+		NoCompression: in.Draft,
 	})
 	w := &writer{
 		in: in, b: b, m: in.Model, com: in.Commentary, doc: doc, st: newStyle(b.Theme.Font, b.Theme.Accent),

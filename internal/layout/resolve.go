@@ -142,7 +142,7 @@ func resolvePlaceholder(b *brief.Brief, m *figures.Model, p brief.Placeholder) (
 			return "–", nil
 		}
 		if p.Measure == "change" {
-			return format.Signed(ind, t.Change), nil
+			return format.SignedValue(ind, t.Change), nil
 		}
 		return format.SignedPercent(t.ChangePct), nil
 	}

@@ -283,7 +283,10 @@ type GroupTrend struct {
 	Change             float64
 	ChangePct          float64
 	// Slope is the least-squares slope of the yearly medians.
-	Slope        float64
+	Slope float64
+	// ChangePerIQR is abs(Change) / the group's IQR in EndYear (NaN when
+	// that year has fewer than two values or no spread).
+	ChangePerIQR float64
 	StartN, EndN int
 	Valid        bool
 }

@@ -300,6 +300,9 @@ func groupTrendRows(f rowSink, t *GroupTrend) bool {
 		if !emitNum(f, tk("median_change"), t.Change) || !emitNum(f, tk("median_change_pct"), t.ChangePct) {
 			return false
 		}
+		if !math.IsNaN(t.ChangePerIQR) && !emitNum(f, tk("median_change_per_iqr"), t.ChangePerIQR) {
+			return false
+		}
 	}
 	if !emitNum(f, tk("median_end"), t.MedianEnd) || !emitNum(f, tk("median_end_year"), float64(t.EndYear)) {
 		return false

@@ -103,3 +103,43 @@ func TestRuleFiguresOnTheFixture(t *testing.T) {
 		t.Errorf("the fixture gives %d rank targets and %d steps; expected some of each", targets, steps)
 	}
 }
+
+// A group median's movement against the last year's interquartile range,
+// on the fixture: abs(median_end - median_start) / IQR of the end year's
+// distribution, recomputed here from the model's own distributions
+// (the definition the noise rule reads; common practice, no source).
+func TestGroupMedianChangePerIQR(t *testing.T) {
+	d, b := loadFixture(t)
+	m, err := Compute(d, b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	seen := 0
+	for _, g := range m.Groups {
+		for _, ind := range d.Dictionary.Indicators {
+			gt, ok := m.GroupTrend(g.Name, ind.Key)
+			if !ok || !gt.Valid {
+				continue
+			}
+			end, ok := m.Distribution(g.Name, ind.Key, gt.EndYear)
+			if !ok || end.N < 2 || end.IQR <= 0 {
+				if !math.IsNaN(gt.ChangePerIQR) {
+					t.Errorf("%s %s: %v with no spread to divide by", g.Name, ind.Key, gt.ChangePerIQR)
+				}
+				continue
+			}
+			want := math.Abs(end.Median-gt.MedianStart) / end.IQR
+			if math.Abs(gt.ChangePerIQR-want) > 1e-12 {
+				t.Errorf("%s %s: median_change_per_iqr %v, want %v", g.Name, ind.Key, gt.ChangePerIQR, want)
+			}
+			r, ok := m.Lookup(Key{Section: SectionTrend, Group: g.Name, Indicator: ind.Key, Measure: "median_change_per_iqr"})
+			if !ok || r.Value != gt.ChangePerIQR {
+				t.Errorf("%s %s: the figures row is %v, %v", g.Name, ind.Key, r, ok)
+			}
+			seen++
+		}
+	}
+	if seen == 0 {
+		t.Fatal("no group trend with a spread on the fixture")
+	}
+}

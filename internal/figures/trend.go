@@ -90,6 +90,12 @@ func groupTrendOf(g *Group, ind dataset.Indicator, dists []*Distribution) *Group
 	t.Change = stats.Change(s.Median, e.Median)
 	t.ChangePct = stats.ChangePct(s.Median, e.Median)
 	t.Slope = stats.Slope(xs, ys)
+	t.ChangePerIQR = nan
+	if e.N >= 2 && e.IQR > 0 {
+		// As an institution's change_per_iqr: the size of the movement
+		// against the last year's spread, which the noise rule reads.
+		t.ChangePerIQR = math.Abs(t.Change) / e.IQR
+	}
 	return t
 }
 

@@ -235,6 +235,17 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 		mc = append(mc, p0k(mPercentile), p1k(mPercentile))
 	}
 	mcl := medianChangeClaims(ind, Fig(distKey(g.Name, ind.Key, cd.d0.Year, mMedian)), Fig(distKey(g.Name, ind.Key, cd.d1.Year, mMedian)), mf.MedianDirection)
+	if mf.MedianDirection == Level && mf.MedianFrom != mf.MedianTo {
+		// "broadly unchanged" over two medians that print apart: the
+		// movement was under the noise share of the last year's spread,
+		// claimed on the group trend's own figure when the sentence spans
+		// the trend's years (withinNoise divides as that figure does).
+		if gt, ok := c.m.GroupTrend(g.Name, ind.Key); ok && gt.Valid && gt.StartYear == cd.d0.Year && gt.EndYear == cd.d1.Year && !math.IsNaN(gt.ChangePerIQR) {
+			k := trendKey(g.Name, ind.Key, "", "median_change_per_iqr")
+			mc = append(mc, k)
+			mcl = append(mcl, Claimed(Fig(k), OpLess, Num(NoiseIQRShare)))
+		}
+	}
 	if cd.hasPct && !f.Resized {
 		mcl = append(mcl, c.percentileChangeClaims(g, ind, cd)...)
 	}

@@ -333,7 +333,7 @@ func pack(in *Inputs, created time.Time, version string, alongside func(), draft
 	// claim that does not hold, fails the build rather than reaching a
 	// council (wording is chosen from claims that hold, so this is a
 	// safety net for the wording code, not a check of the data).
-	if err := narrative.Verify(in.Figures, com); err != nil {
+	if err := verifyCommentary(in.Figures, com); err != nil {
 		return nil, fmt.Errorf("the commentary did not pass its own check, so no pack was written; this is a fault in peerpack, not in the brief or data: please report it with the brief\n%w", err)
 	}
 	if alongside != nil {
@@ -451,6 +451,10 @@ func Build(ctx context.Context, src Source, opt Options) (res *Result, err error
 	}
 	return &Result{Output: opt.Output, Bytes: len(pdf), Inputs: in}, nil
 }
+
+// verifyCommentary is narrative.Verify; a test replaces it to prove that a
+// failed check stops the build.
+var verifyCommentary = narrative.Verify
 
 func writeBytes(b []byte) func(io.Writer) error {
 	return func(w io.Writer) error {

@@ -130,7 +130,25 @@ func (c *composer) peersParagraphs(part string) []Paragraph {
 				cs = append(cs, fmt.Sprintf("%s (%s)", cc.Country, format.Int(cc.N)))
 				cites = append(cites, key(g, "", "", figures.CountryMeasure(cc.Country)))
 			}
-			focus = append(focus, say("Its members come mostly from "+joinAnd(cs)+".", cites...))
+			// Listed largest first: each count at least the next, none
+			// above the cluster's size (the countries left unlisted have
+			// fewer members by construction, figures.Cluster.Countries).
+			lead := "Most of its members come from "
+			if len(cs) > 1 {
+				lead = "The countries with most of its members are "
+			}
+			cs0 := say(lead+joinAnd(cs)+".", cites...)
+			for i := range cites {
+				if i > 0 {
+					cs0 = cs0.claim(Claimed(Fig(cites[i-1]), OpGreaterEq, Fig(cites[i])))
+				}
+				cs0 = cs0.claim(Claimed(Fig(cites[i]), OpLessEq, Fig(key(g, "", "", "size"))))
+			}
+			if len(cites) == 1 {
+				// "most": more than half of the members.
+				cs0 = cs0.claim(Claimed(Fig(cites[0]), OpGreater, Num(float64(k.Size)/2)))
+			}
+			focus = append(focus, cs0)
 		}
 		if st := a.Stability; st != nil {
 			comp := pm.FocusCompanions

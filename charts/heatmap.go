@@ -410,9 +410,15 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 		shown--
 		outside = fmt.Sprintf(" %s is not a member: its row places it among them.", institution(m, m.Focus).Name)
 	}
-	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown.%s Percentile ranks run in each indicator's better direction (higher is better; for neutral indicators, higher values).", shortName(inds[0]), shown, len(g.MembersIn(year)), outside)
-	if len(small) > 0 {
-		hc.Note += fmt.Sprintf(" Fewer than %d members report %s: %s give ranks, 1 the best, unshaded, as quarters and percentiles of so few values mean little.", hc.Floor, joinAnd(small), map[bool]string{true: "its column", false: "their columns"}[len(small) == 1])
+	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown.%s", shortName(inds[0]), shown, len(g.MembersIn(year)), outside)
+	const direction = " run in each indicator's better direction (higher is better; for neutral indicators, higher values)"
+	switch {
+	case len(small) == 0:
+		hc.Note += " Percentile ranks" + direction + "."
+	case len(small) == len(inds):
+		hc.Note += fmt.Sprintf(" Ranks%s, 1 the best: fewer than %d members report each indicator, too few for percentiles or quarters.", direction, hc.Floor)
+	default:
+		hc.Note += fmt.Sprintf(" Percentile ranks%s. Fewer than %d members report %s: %s ranks, 1 the best, unshaded.", direction, hc.Floor, joinAnd(small), map[bool]string{true: "its column gives", false: "their columns give"}[len(small) == 1])
 	}
 	return hc, nil
 }

@@ -121,3 +121,27 @@ func TestHeatmapSmallGroupRanksOnly(t *testing.T) {
 		}
 	}
 }
+
+// A heatmap whose second column is below the floor prints that column's
+// ranks unshaded and keeps the others' percentiles and shades.
+func TestHeatmapMixedColumns(t *testing.T) {
+	hc := fxHeatmap()
+	hc.RanksOnly = []bool{false, true, false, false, false}
+	for i := range hc.Rows {
+		hc.Rows[i].Ranks = []int{0, 140 + i, 0, 0, 0}
+		hc.Rows[i].Percentiles[1] = 50 // would be shaded in the second quarter
+		hc.Rows[i].Quarters[1] = 2
+	}
+	texts := drawnTexts(record(t, hc, fullWidth).Actions)
+	for i := range hc.Rows {
+		if !slices.Contains(texts, format.Int(140+i)) {
+			t.Errorf("rank %d not printed", 140+i)
+		}
+	}
+	if slices.Contains(texts, "50") {
+		t.Errorf("a percentile is printed in a ranks-only column")
+	}
+	if !slices.Contains(texts, "Percentile rank in Kestria national; shading by quarter:") {
+		t.Errorf("the other columns lost their legend: %q", texts)
+	}
+}

@@ -4,6 +4,8 @@ import (
 	"regexp"
 	"strings"
 	"testing"
+
+	"peerpack/internal/narrative"
 )
 
 // A position table over a group below the small-group floor (the four
@@ -48,5 +50,38 @@ func TestPositionTableBelowFloor(t *testing.T) {
 	large := regexp.MustCompile(`\d(st|nd|rd|th) of [12]\d \d+(st|nd|rd|th) (top|second|third|bottom) [0-9][0-9.,%]* [0-9][0-9.,%]* [0-9][0-9.,%]*$`)
 	if n := count(large); n != 4 {
 		t.Errorf("want 4 full rows for Valmoria, found %d:\n%s", n, strings.Join(rows, "\n"))
+	}
+}
+
+// The evidence appendix reads a group below the small-group floor as the
+// sentences do: a cited percentile prints as the rank "of n" it stands
+// for, a cited quarter not at all; groups above the floor keep theirs.
+func TestEvidenceBelowFloorByRank(t *testing.T) {
+	body := "# Peers\n\n```commentary\ntopics: [peerchoice]\ngroups: [Chosen peers, Valmoria, Northern region]\n```\n"
+	in := fixtureInputFrom(t, 60, fixtureBody(t, body))
+	com, err := narrative.Compose(in.Model, in.Brief)
+	if err != nil {
+		t.Fatal(err)
+	}
+	in.Commentary = com
+	in.Brief.Sources = true
+	out, err := Render(in)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := flatText(t, out)
+	at := strings.Index(text, "Statements of the commentary and their evidence")
+	if at < 0 {
+		t.Fatalf("no evidence table:\n%s", text)
+	}
+	ev := text[at:]
+	if m := regexp.MustCompile(`Chosen peers, 2025: [^;A-Z]*(percentile|quarter)`).FindString(ev); m != "" {
+		t.Errorf("a percentile or quarter of the chosen peers (4 members) is printed: %q", m)
+	}
+	if !regexp.MustCompile(`Chosen peers, 2025: rank \d+(st|nd|rd|th) of [45]`).MatchString(ev) {
+		t.Errorf("no rank of n for the chosen peers in the evidence:\n%s", ev)
+	}
+	if !regexp.MustCompile(`(Valmoria|Northern region), 2025: [^;A-Z]*\d+(st|nd|rd|th) percentile`).MatchString(ev) {
+		t.Errorf("the larger groups lost their percentiles:\n%s", ev)
 	}
 }

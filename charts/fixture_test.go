@@ -204,7 +204,13 @@ func fxHeatmap() *HeatmapChart {
 		if i == 3 {
 			ps[2] = math.NaN()
 		}
-		hc.Rows = append(hc.Rows, HeatRow{Label: n, Focus: i == 1, Named: i == 2, Percentiles: ps})
+		// Drawing fixture: quarters by percentile (the model draws them by
+		// the group's quartile values).
+		qs := make([]int, len(ps))
+		for k, p := range ps {
+			qs[k] = stats.QuartileOf(p)
+		}
+		hc.Rows = append(hc.Rows, HeatRow{Label: n, Focus: i == 1, Named: i == 2, Percentiles: ps, Quarters: qs})
 	}
 	hc.Note = "Rows ordered by Citation impact; 8 of the group's 38 members shown."
 	return hc

@@ -14,23 +14,32 @@ import (
 	"peerpack/internal/brief"
 	"peerpack/internal/figures"
 	"peerpack/internal/format"
-	"peerpack/internal/stats"
 )
 
-// HeatRow is one institution's row of percentile ranks (NaN: no value).
+// HeatRow is one institution's row of percentile ranks (NaN: no value),
+// with the quarter of each (Position.Quartile, 0: unshaded) and, for the
+// columns of a group below the small-group floor, the rank.
 type HeatRow struct {
 	Label       string
 	Focus       bool
 	Named       bool
 	Percentiles []float64
+	Quarters    []int
+	Ranks       []int
 }
 
 // HeatmapChart shows institutions x indicators: each cell the percentile
-// rank in a group, shaded by the quarter it falls in (stats.QuartileOf,
-// as the tables shade).
+// rank in a group, printed as tables print it (format.PercentileRank),
+// shaded by the quarter it falls in as the tables shade. A column whose
+// indicator fewer members report than the small-group floor gives ranks,
+// unshaded, as the tables do.
 type HeatmapChart struct {
 	Columns []string
-	Rows    []HeatRow
+	// RanksOnly marks the columns below the small-group floor.
+	RanksOnly []bool
+	// Floor is the small-group floor, for the note on such columns.
+	Floor int
+	Rows  []HeatRow
 	// Group names the group the percentiles are taken in, for the legend.
 	Group string
 	Note  string
@@ -62,9 +71,10 @@ func QuartileShade(q int) color.Color {
 	return whiteColor
 }
 
-// quarterWords name the quarters in the legend, with their percentile
-// bounds as stats.QuartileOf draws them.
-var quarterWords = []string{"top quarter (above 75)", "second (50–75)", "third (25–50)", "bottom (25 or below)"}
+// quarterWords name the quarters in the legend. Quarters are drawn by the
+// group's quartile values (Position.Quartile), so no percentile bounds are
+// given: a tie on a quartile goes to the better quarter.
+var quarterWords = []string{"top quarter", "second", "third", "bottom"}
 
 const (
 	heatRowH    = 14
@@ -135,9 +145,25 @@ func (h *HeatmapPlotter) Plot(c draw.Canvas, _ *plot.Plot) {
 				fillText(&c, cellText, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(cellText)/2+cellText.FontExtents().Descent, draw.XCenter, "–")
 				continue
 			}
-			c.SetColor(QuartileShade(stats.QuartileOf(p)))
-			c.Fill(cell.Path())
-			fillText(&c, cellText, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(cellText)/2+cellText.FontExtents().Descent, draw.XCenter, format.Number(p, 0))
+			txt, q := format.Int(format.PercentileRank(p)), 0
+			if j < len(r.Quarters) {
+				q = r.Quarters[j]
+			}
+			if j < len(hc.RanksOnly) && hc.RanksOnly[j] {
+				// Below the small-group floor: the rank, unshaded.
+				txt, q = "–", 0
+				if j < len(r.Ranks) && r.Ranks[j] > 0 {
+					txt = format.Int(r.Ranks[j])
+				}
+			}
+			if q == 0 {
+				c.SetLineStyle(draw.LineStyle{Color: greyGrid, Width: vg.Points(0.5)})
+				c.Stroke(cell.Path())
+			} else {
+				c.SetColor(QuartileShade(q))
+				c.Fill(cell.Path())
+			}
+			fillText(&c, cellText, (cell.Min.X+cell.Max.X)/2, (y0+y1)/2-textHeight(cellText)/2+cellText.FontExtents().Descent, draw.XCenter, txt)
 		}
 		if r.Focus {
 			// A black frame round the focus row, in any print.
@@ -222,14 +248,29 @@ func (hc *HeatmapChart) panels() *panels {
 			break
 		}
 	}
-	l.add(legendEntry{Text: "Percentile rank in " + hc.Group + "; shading by quarter:", Width: 0.01})
-	for q, words := range quarterWords {
-		l.add(legendEntry{Text: words, Thumb: fillThumb(QuartileShade(q+1), greyGrid)})
+	if hc.ranksOnly() < len(hc.Columns) {
+		l.add(legendEntry{Text: "Percentile rank in " + hc.Group + "; shading by quarter:", Width: 0.01})
+		for q, words := range quarterWords {
+			l.add(legendEntry{Text: words, Thumb: fillThumb(QuartileShade(q+1), greyGrid)})
+		}
+	} else {
+		l.add(legendEntry{Text: "Rank in " + hc.Group + ", 1 the best", Width: 0.01})
 	}
 	l.add(legendEntry{Text: "– no value", Width: 0.01})
 	l.note = hc.Note
 	hc.built = ps
 	return ps
+}
+
+// ranksOnly counts the columns below the small-group floor.
+func (hc *HeatmapChart) ranksOnly() int {
+	n := 0
+	for _, r := range hc.RanksOnly {
+		if r {
+			n++
+		}
+	}
+	return n
 }
 
 // Height implements Chart.
@@ -327,9 +368,16 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 			n++
 		}
 	}
-	hc := &HeatmapChart{Group: g.Name, Theme: th}
+	hc := &HeatmapChart{Group: g.Name, Theme: th, Floor: m.Floor}
+	var small []string
 	for _, ind := range inds {
 		hc.Columns = append(hc.Columns, shortName(ind))
+		d, ok := m.Distribution(g.Name, ind.Key, year)
+		below := ok && m.BelowFloor(d)
+		hc.RanksOnly = append(hc.RanksOnly, below)
+		if below {
+			small = append(small, shortName(ind))
+		}
 	}
 	for _, inst := range order {
 		if !chosen[inst] {
@@ -340,13 +388,19 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 			r.Label = sn
 		}
 		for k, ind := range inds {
-			p := percentileOf(places[k], inst)
+			pl, ok := placeOf(places[k], inst)
 			if inst == m.Focus && !g.HasIn(inst, year) {
-				if pos, ok := m.Position(g.Name, ind.Key, inst, year); ok && pos.HasValue {
-					p = pos.Percentile
+				if pos, okp := m.Position(g.Name, ind.Key, inst, year); okp && pos.HasValue {
+					pl, ok = figures.MemberPlace{Institution: inst, Value: pos.Value, Quartile: pos.Quartile}, true
+					pl.Rank, pl.Of, pl.Percentile = pos.Rank, pos.Of, pos.Percentile
 				}
 			}
-			r.Percentiles = append(r.Percentiles, p)
+			if !ok {
+				pl.Percentile = math.NaN()
+			}
+			r.Percentiles = append(r.Percentiles, pl.Percentile)
+			r.Quarters = append(r.Quarters, pl.Quartile)
+			r.Ranks = append(r.Ranks, pl.Rank)
 		}
 		hc.Rows = append(hc.Rows, r)
 	}
@@ -356,6 +410,15 @@ func newHeatmap(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, erro
 		shown--
 		outside = fmt.Sprintf(" %s is not a member: its row places it among them.", institution(m, m.Focus).Name)
 	}
-	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown.%s Percentile ranks run in each indicator's better direction (higher is better; for neutral indicators, higher values).", shortName(inds[0]), shown, len(g.MembersIn(year)), outside)
+	hc.Note = fmt.Sprintf("Rows ordered by %s; %d of the group's %d members shown.%s", shortName(inds[0]), shown, len(g.MembersIn(year)), outside)
+	const direction = " run in each indicator's better direction (higher is better; for neutral indicators, higher values)"
+	switch {
+	case len(small) == 0:
+		hc.Note += " Percentile ranks" + direction + "."
+	case len(small) == len(inds):
+		hc.Note += fmt.Sprintf(" Ranks%s, 1 the best: fewer than %d members report each indicator, too few for percentiles or quarters.", direction, hc.Floor)
+	default:
+		hc.Note += fmt.Sprintf(" Percentile ranks%s. Fewer than %d members report %s: %s ranks, 1 the best, unshaded.", direction, hc.Floor, joinAnd(small), map[bool]string{true: "its column gives", false: "their columns give"}[len(small) == 1])
+	}
 	return hc, nil
 }

@@ -1,7 +1,7 @@
 package charts
 
 import (
-	"math"
+	"strings"
 
 	"peerpack/internal/figures"
 )
@@ -11,12 +11,20 @@ import (
 // tables and the stored positions use, so a rank printed on a chart is the
 // rank in the tables.
 
-// percentileOf finds an institution's percentile among placements.
-func percentileOf(ps []figures.MemberPlace, inst int) float64 {
+// placeOf finds an institution's placement among placements.
+func placeOf(ps []figures.MemberPlace, inst int) (figures.MemberPlace, bool) {
 	for _, p := range ps {
 		if p.Institution == inst {
-			return p.Percentile
+			return p, true
 		}
 	}
-	return math.NaN()
+	return figures.MemberPlace{}, false
+}
+
+// joinAnd lists names as "A", "A and B", "A, B and C".
+func joinAnd(xs []string) string {
+	if len(xs) < 2 {
+		return strings.Join(xs, "")
+	}
+	return strings.Join(xs[:len(xs)-1], ", ") + " and " + xs[len(xs)-1]
 }

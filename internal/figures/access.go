@@ -152,6 +152,9 @@ type MemberPlace struct {
 	Institution int
 	Value       float64
 	stats.Placement
+	// Quartile is the quarter of the group the value falls in, 1 the
+	// best, by the rule of the stored positions (Position.Quartile).
+	Quartile int
 }
 
 // MemberPlaces places every member of a group that has a value of the
@@ -167,9 +170,13 @@ func (m *Model) MemberPlaces(group, indicator string, year int) []MemberPlace {
 	dir := RankDirection(m.Data.Dictionary.Indicators[k].Better)
 	sorted := slices.Clone(values)
 	slices.Sort(sorted)
+	d, _ := m.Distribution(group, indicator, year)
 	out := make([]MemberPlace, len(insts))
 	for i, inst := range insts {
 		out[i] = MemberPlace{Institution: inst, Value: values[i], Placement: stats.Place(sorted, values[i], dir, true)}
+		if d != nil {
+			out[i].Quartile = quarterOf(m.Data.Dictionary.Indicators[k], values[i], d)
+		}
 	}
 	slices.SortStableFunc(out, func(a, b MemberPlace) int { return a.Rank - b.Rank })
 	return out

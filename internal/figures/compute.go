@@ -324,11 +324,18 @@ func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int,
 	p.Rank, p.Of, p.Percentile, p.Ties = pl.Rank, pl.Of, pl.Percentile, pl.Ties
 	// The quarter by the group's quartile values, ties and a value on a
 	// quartile going to the better quarter (stats.QuartileByValue).
-	p.Quartile = stats.QuartileByValue(v, dist.Box, RankDirection(ind.Better) == stats.LowerFirst)
+	p.Quartile = quarterOf(ind, v, dist)
 	p.Z = stats.Z(v, dist.Mean, dist.SD)
 	p.GapMedian, p.GapQ3 = gaps(ind.Better, v, dist.Box)
 	p.VsMedian, p.VsBetterQuartile = signedDifferences(ind.Better, v, dist.Box)
 	return p
+}
+
+// quarterOf is the quarter of a group a value falls in, 1 the best, by the
+// group's quartile values, ties and a value on a quartile going to the
+// better quarter: the one rule for positions and member placements.
+func quarterOf(ind dataset.Indicator, v float64, dist *Distribution) int {
+	return stats.QuartileByValue(v, dist.Box, RankDirection(ind.Better) == stats.LowerFirst)
 }
 
 // signedDifferences returns the value's difference to the group's median

@@ -197,8 +197,9 @@ func TestManyTrackedAgrees(t *testing.T) {
 	}
 }
 
-// MemberPlaces agrees with the stored positions of tracked members and
-// runs best first.
+// MemberPlaces agrees with the stored positions of tracked members (rank,
+// percentile and quarter: one rule for charts and tables) and runs best
+// first.
 func TestMemberPlaces(t *testing.T) {
 	d, b := loadFixture(t)
 	m, err := Compute(d, b)
@@ -213,7 +214,7 @@ func TestMemberPlaces(t *testing.T) {
 					t.Fatalf("%s %s: not best first", g.Name, ind)
 				}
 				if pos, ok := m.Position(g.Name, ind, p.Institution, 2025); ok {
-					if pos.Rank != p.Rank || pos.Of != p.Of || pos.Percentile != p.Percentile {
+					if pos.Rank != p.Rank || pos.Of != p.Of || pos.Percentile != p.Percentile || pos.Quartile != p.Quartile {
 						t.Fatalf("%s %s %s: %+v vs stored %+v", g.Name, ind, m.InstitutionID(p.Institution), p, pos)
 					}
 				}

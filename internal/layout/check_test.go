@@ -241,3 +241,55 @@ func TestPlaceholderUnknownGroupOnce(t *testing.T) {
 		t.Errorf("message: %v", err)
 	}
 }
+
+// Below the small-group floor (default 10) the pack prints ranks only,
+// in text as in tables: an inline percentile, quarter or quartile of such
+// a group is refused at its line and column with what to write instead,
+// while ranks, medians and values pass; at or above the floor all pass
+// (the issue's rule "quarters and percentiles are not printed for groups
+// below a floor", common practice, no source).
+func TestPlaceholderQuartersBelowFloor(t *testing.T) {
+	src, err := os.ReadFile(filepath.Join(fixtureDir, "brief.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// "Chosen peers" has four members, all reporting fnci.
+	lines := bytes.Count(src, []byte("\n"))
+	for _, c := range []struct {
+		measure, want string
+	}{
+		{"percentile", `write {=rank fnci in "Chosen peers"} or {=median fnci in "Chosen peers"} instead`},
+		{"quartile", `write {=rank fnci in "Chosen peers"} or {=median fnci in "Chosen peers"} instead`},
+		{"q1", `write {=median fnci in "Chosen peers"} or {=rank fnci in "Chosen peers"} instead`},
+		{"q3", `write {=median fnci in "Chosen peers"} or {=rank fnci in "Chosen peers"} instead`},
+	} {
+		t.Run(c.measure, func(t *testing.T) {
+			extra := "\n\nAmong them: {=" + c.measure + ` fnci in "Chosen peers"}.` + "\n"
+			in := fixtureInputFrom(t, 60, append(bytes.Clone(src), extra...))
+			err := CheckPlaceholders(in.Brief, in.Model)
+			var l *diag.List
+			if !errors.As(err, &l) || len(l.Items) != 1 {
+				t.Fatalf("want exactly one problem, got %v", err)
+			}
+			at := fmt.Sprintf("brief.md:%d:13: placeholder {=%s fnci in \"Chosen peers\"}: only 4 members of Chosen peers report fnci in 2025, fewer than the small-group floor of 10", lines+3, c.measure)
+			if !strings.HasPrefix(err.Error(), at) || !strings.Contains(err.Error(), c.want) {
+				t.Errorf("got  %v\nwant %s ... %s", err, at, c.want)
+			}
+			// The build refuses it too, at the same place.
+			if _, err := Render(in); err == nil || !strings.Contains(err.Error(), at) {
+				t.Errorf("build: %v", err)
+			}
+			// With a floor of 4 the group may be read in quarters.
+			floor4 := bytes.Replace(bytes.Clone(src), []byte("named: [OR002]\n"), []byte("named: [OR002]\nsmall_group: 4\n"), 1)
+			in = fixtureInputFrom(t, 60, append(floor4, extra...))
+			if err := CheckPlaceholders(in.Brief, in.Model); err != nil {
+				t.Errorf("small_group 4: %v", err)
+			}
+		})
+	}
+	extra := "\n\nAmong them: {=rank fnci in \"Chosen peers\"}, median {=median fnci in \"Chosen peers\"}, z {=z fnci in \"Chosen peers\"}, {=value fnci}.\n"
+	in := fixtureInputFrom(t, 60, append(bytes.Clone(src), extra...))
+	if err := CheckPlaceholders(in.Brief, in.Model); err != nil {
+		t.Errorf("ranks and medians below the floor: %v", err)
+	}
+}

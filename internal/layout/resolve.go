@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"peerpack/internal/brief"
+	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
 	"peerpack/internal/figures"
 	"peerpack/internal/format"
@@ -88,6 +89,9 @@ func resolvePlaceholder(b *brief.Brief, m *figures.Model, p brief.Placeholder) (
 	if m.Data.YearIndex(year) < 0 {
 		return "", fmt.Errorf("placeholder %s asks for %d, a year the data does not hold (years %s)", p.Raw, year, yearList(m.Data.Years))
 	}
+	if err := quarterBelowFloor(m, p, g, ind, year); err != nil {
+		return "", err
+	}
 	switch p.Measure {
 	case "value":
 		v, _ := m.Data.Value(m.Data.Dictionary.Index(ind.Key), inst, year)
@@ -147,6 +151,32 @@ func resolvePlaceholder(b *brief.Brief, m *figures.Model, p brief.Placeholder) (
 		return format.SignedPercent(t.ChangePct), nil
 	}
 	return "", fmt.Errorf("placeholder %s: measure %q is not available", p.Raw, p.Measure)
+}
+
+// quarterMeasures are the inline measures that read a group's quarters:
+// below the small-group floor the pack prints ranks only, in text as in
+// tables, so these are refused there.
+var quarterMeasures = map[string]bool{"percentile": true, "quartile": true, "q1": true, "q3": true}
+
+// quarterBelowFloor refuses a percentile, quarter or quartile of a group
+// whose distribution has fewer values than the brief's small-group floor,
+// saying what to write instead.
+func quarterBelowFloor(m *figures.Model, p brief.Placeholder, g *figures.Group, ind dataset.Indicator, year int) error {
+	if !quarterMeasures[p.Measure] {
+		return nil
+	}
+	d, ok := m.Distribution(g.Name, ind.Key, year)
+	if !ok || !m.BelowFloor(d) {
+		return nil
+	}
+	// The measure is the placeholder's first word: the suggestions keep
+	// the rest as written.
+	rank, median := strings.Replace(p.Raw, p.Measure, "rank", 1), strings.Replace(p.Raw, p.Measure, "median", 1)
+	instead := rank + " or " + median
+	if p.Measure == "q1" || p.Measure == "q3" {
+		instead = median + " or " + rank
+	}
+	return fmt.Errorf("placeholder %s: only %s members of %s report %s in %d, fewer than the small-group floor of %d, where the pack prints ranks only, no quarters or percentiles; write %s instead, or lower small_group in the front matter", p.Raw, format.Int(d.N), g.Name, ind.Key, year, m.Floor, instead)
 }
 
 func placeholderGroup(m *figures.Model, p brief.Placeholder) (*figures.Group, error) {

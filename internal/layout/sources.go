@@ -55,6 +55,7 @@ func (w *writer) sources() {
 		}
 		ev := make([]string, len(subjects))
 		for i, subj := range subjects {
+			vals[subj] = rankOfOnce(vals[subj])
 			ev[i] = strings.Join(vals[subj], ", ")
 			if subj != "" {
 				ev[i] = subj + ": " + ev[i]
@@ -68,6 +69,42 @@ func (w *writer) sources() {
 	}
 	g.notes = append(g.notes, "Every figure named here is a row of the figures file (peerpack build --figures), under the section, group, indicator, institution, year and measure given in words above.")
 	w.setTable(g)
+}
+
+// rankOfOnce drops a subject's "rank 4th" and "among 8" where its
+// values also read "rank 4th of 8" (a percentile below the small-group
+// floor, printed as the rank it stands for).
+func rankOfOnce(vals []string) []string {
+	drop := map[string]bool{}
+	for _, v := range vals {
+		if r, of, ok := strings.Cut(v, " of "); ok && strings.HasPrefix(v, "rank ") {
+			drop[r], drop["among "+of] = true, true
+		}
+	}
+	if len(drop) == 0 {
+		return vals
+	}
+	return slices.DeleteFunc(vals, func(v string) bool { return drop[v] })
+}
+
+// rankBelowFloor reports, for a cited position figure of a group below
+// the small-group floor, the rank and group size stored beside it.
+func (w *writer) rankBelowFloor(k figures.Key) (rank, of int, ok bool) {
+	if k.Section != figures.SectionPosition {
+		return 0, 0, false
+	}
+	d, okd := w.m.Distribution(k.Group, k.Indicator, k.Year)
+	if !okd || !w.m.BelowFloor(d) {
+		return 0, 0, false
+	}
+	kr, ko := k, k
+	kr.Measure, ko.Measure = "rank", "of"
+	r, okr := w.m.Lookup(kr)
+	o, oko := w.m.Lookup(ko)
+	if !okr || !oko || r.IsText || o.IsText || r.Value < 1 {
+		return 0, 0, false
+	}
+	return int(r.Value), int(o.Value), true
 }
 
 // evidence prints one cited figure in words: what it is of, and its
@@ -120,8 +157,16 @@ func (w *writer) evidence(k figures.Key) (subject, value string) {
 		}
 	case "percentile":
 		val = format.Percentile(v)
+		if r, of, ok := w.rankBelowFloor(k); ok {
+			// Below the small-group floor the pack reads the group by
+			// rank "of n" only, and so does its evidence.
+			val = "rank " + format.Rank(r, w.b.RankBands) + " of " + format.Int(of)
+		}
 	case "quartile":
 		val = quarterShort(int(v)) + " quarter"
+		if _, _, ok := w.rankBelowFloor(k); ok {
+			return subject, "" // no quarter below the small-group floor
+		}
 	case "rank":
 		val = "rank " + format.Rank(int(v), w.b.RankBands)
 	case "n", "n_members", "of", "start_n", "end_n", "start_of", "end_of", "missing", "ties":

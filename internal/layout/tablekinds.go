@@ -210,6 +210,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 		g.caption = fmt.Sprintf("Position of %s in %s, %d", focusName(w.m), strings.Join(names, ", "), year)
 	}
 	focus := w.m.Focus
+	anySmall := false
 	for _, ind := range inds {
 		for gi, gr := range groups {
 			row := []cell{{text: unitLabel(ind, false)}}
@@ -226,6 +227,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 			// Below the brief's small-group floor no quarter or
 			// percentile is printed, in tables as in text.
 			small := okd && w.m.BelowFloor(dist)
+			anySmall = anySmall || small
 			for _, c := range cols {
 				var cl cell
 				switch c {
@@ -254,7 +256,7 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 					}
 				case "median", "q1", "q3":
 					cl.text = "–"
-					if okd && dist.N > 0 {
+					if okd && dist.N > 0 && (c == "median" || !small) {
 						v := map[string]float64{"median": dist.Median, "q1": dist.Q1, "q3": dist.Q3}[c]
 						cl.text = tableValue(ind, v)
 					}
@@ -274,6 +276,9 @@ func (w *writer) positionTable(tb *brief.TableBlock, groups []*figures.Group, in
 		g.notes = append(g.notes, fmt.Sprintf("Changes run from %d to %d except where a cell names other years: each runs from the first to the last year with a value.", cy.first, cy.last))
 	}
 	g.notes = append(g.notes, w.methodNote())
+	if anySmall && (contains(cols, "percentile") || contains(cols, "quarter") || contains(cols, "q1") || contains(cols, "q3")) {
+		g.notes = append(g.notes, fmt.Sprintf("Where fewer than %d members report an indicator, the rank and median are given but no percentile, quarter or quartile: those of so few values mean little.", w.m.Floor))
+	}
 	if hasLower(inds) {
 		g.notes = append(g.notes, "↓ marks indicators on which lower values are better; ranks, percentiles and quarters already take this into account.")
 	}

@@ -169,6 +169,18 @@ func (w *writer) evidence(k figures.Key) (subject, value string) {
 		}
 	case "rank":
 		val = "rank " + format.Rank(int(v), w.b.RankBands)
+	case figures.MeasureTargetRank, "panel_start_rank", "panel_end_rank":
+		val = measureWords[k.Measure] + format.Ordinal(int(v))
+	case figures.MeasureTargetRankValue:
+		val = measureWords[k.Measure] + printed(v)
+	case figures.MeasureTargetRankGap, "largest_step":
+		if hasInd {
+			val = measureWords[k.Measure] + format.Difference(ind, v)
+		} else {
+			val = measureWords[k.Measure] + format.Number(v, 2)
+		}
+	case "panel_of", "largest_step_year":
+		val = measureWords[k.Measure] + strconv.Itoa(int(v))
 	case "n", "n_members", "of", "start_n", "end_n", "start_of", "end_of", "missing", "ties":
 		val = measureWords[k.Measure] + format.Int(int(v))
 	case "start_year", "end_year", "median_start_year", "median_end_year":
@@ -194,6 +206,9 @@ var measureWords = map[string]string{
 	"start_of": "ranked at the start: ", "end_of": "ranked at the end: ", "missing": "without a value: ", "ties": "sharing the value: ",
 	"start_year": "from ", "end_year": "to ", "median_start_year": "median from ", "median_end_year": "median to ",
 	"change_pct": "change ", "median_change_pct": "change in the median ", "cagr": "yearly growth ",
+	"target_rank": "rank to reach ", "target_rank_value": "value at that rank ", "target_rank_gap": "still to gain ",
+	"panel_start_rank": "rank at the start among those reporting in both years ", "panel_end_rank": "rank at the end among those reporting in both years ",
+	"panel_of": "reporting in both years: ", "largest_step": "largest one-year step ", "largest_step_year": "largest step in ",
 }
 
 // institutionName names a register id as the pack prints it.

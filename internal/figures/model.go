@@ -110,6 +110,9 @@ type Model struct {
 	groupIndex map[string]int
 	// composites holds the brief's composite, one per span year with data;
 	// CompositeSpec is the brief's composite: section (nil without one).
+	// placed caches the data columns rounded to the declared decimals
+	// that ranks and orders compare (placedColumn).
+	placed        *placedColumns
 	composites    []*CompositeYear
 	CompositeSpec *brief.CompositeSpec
 }

@@ -11,7 +11,8 @@ import (
 
 // nearTieWorld: ten members of one group with one indicator declared at
 // two decimals, two of them (P05 1.9189 and P06 1.9234) printed alike as
-// 1.92, and one outsider (P11) at exactly 1.92.
+// 1.92, and one outsider (P11) at exactly 1.92; the same values in 2023
+// and 2024, the focus P05.
 func nearTieWorld(t *testing.T, better dataset.Polarity) *Model {
 	t.Helper()
 	values := []float64{2.50, 2.31, 2.10, 1.97, 1.9189, 1.9234, 1.80, 1.52, 1.40, 1.20, 1.92}
@@ -25,14 +26,15 @@ func nearTieWorld(t *testing.T, better dataset.Polarity) *Model {
 		}
 	}
 	inds := []dataset.Indicator{{Key: "score", Unit: dataset.UnitScore, Better: better, Decimals: 2}}
-	d := dataset.New(dataset.NewRegister("near.csv", insts, nil), dataset.NewDictionary("near.yaml", inds), []int{2024})
+	d := dataset.New(dataset.NewRegister("near.csv", insts, nil), dataset.NewDictionary("near.yaml", inds), []int{2023, 2024})
 	for i, v := range values {
 		if better == dataset.LowerIsBetter {
 			v = 4 - v // the same order, mirrored; still two decimals apart
 		}
+		d.Set(0, i, 2023, v)
 		d.Set(0, i, 2024, v)
 	}
-	b := &brief.Brief{File: "near.md", Focus: "P06", Year: 2024, Years: brief.Span{First: 2024, Last: 2024},
+	b := &brief.Brief{File: "near.md", Focus: "P05", Year: 2024, Years: brief.Span{First: 2023, Last: 2024},
 		Named: []string{"P11"}, Quantiles: "type7",
 		Groups: []brief.GroupSpec{{Name: "Ten", Members: members}}}
 	m, err := Compute(d, b)
@@ -53,7 +55,8 @@ func nearTieWorld(t *testing.T, better dataset.Polarity) *Model {
 // percentile 100 x (4 + 3/2) / 11 = 50. The type 7 median of the
 // unrounded values, (1.9189 + 1.9234) / 2 = 1.92115, prints 1.92, so
 // both are on the median: the second quarter (unrounded, 1.9189 would
-// fall below it into the third).
+// fall below it into the third). In the constant panel of 2023 and 2024
+// the focus P05 is 5th at both ends (unrounded it was 6th).
 func TestRanksAtDeclaredPrecision(t *testing.T) {
 	for _, better := range []dataset.Polarity{dataset.HigherIsBetter, dataset.LowerIsBetter} {
 		t.Run(string(better), func(t *testing.T) {
@@ -73,10 +76,10 @@ func TestRanksAtDeclaredPrecision(t *testing.T) {
 						what, p.Rank, p.Of, p.Ties, p.Percentile, p.Quartile, rank, of, ties, pct)
 				}
 			}
-			focus, _ := m.Position("Ten", "score", 5, 2024) // P06, stored
-			check("P06 (focus)", focus, 5, 10, 2, 50)
-			other, _ := m.PlaceOf("Ten", "score", 4, 2024) // P05, on demand
-			check("P05 (on demand)", other, 5, 10, 2, 50)
+			focus, _ := m.Position("Ten", "score", 4, 2024) // P05, stored
+			check("P05 (focus)", focus, 5, 10, 2, 50)
+			other, _ := m.PlaceOf("Ten", "score", 5, 2024) // P06, on demand
+			check("P06 (on demand)", other, 5, 10, 2, 50)
 			out, _ := m.Position("Ten", "score", 10, 2024) // P11, not a member
 			check("P11 (outsider)", out, 5, 11, 3, 100*5.5/11)
 			// Member lists: the tie shares rank 5, in register order, and
@@ -92,6 +95,10 @@ func TestRanksAtDeclaredPrecision(t *testing.T) {
 			}
 			if v := ps[4].Value; v != 1.9189 && v != 4-1.9189 {
 				t.Errorf("member value %v: values must stay unrounded", v)
+			}
+			tr, ok := m.Trend("Ten", "score", 4)
+			if !ok || tr.PanelOf != 10 || tr.PanelStartRank != 5 || tr.PanelEndRank != 5 || tr.RankChange != 0 {
+				t.Errorf("trend of P05: %+v; want panel of 10, 5th at both ends", tr)
 			}
 		})
 	}

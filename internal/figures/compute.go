@@ -261,6 +261,7 @@ func (m *Model) column(g *Group, k int, buf, pbuf []float64) (columnResult, []fl
 			}
 		}
 		dist.Box = stats.BoxOfUnsorted(vals, len(members)-len(vals), m.Method)
+		dist.printed = placedBox(ind, dist.Box)
 		if len(dist.Box.OutlierValues) > 0 {
 			dist.Outliers = outlierMembers(members, col, dist.Box)
 		}
@@ -334,7 +335,7 @@ func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int,
 	// The value and the quartiles are compared as printed (placed.go), so
 	// values printed alike share a quarter as they share a rank, and a
 	// value printed as the quartile is on it.
-	p.Quartile = stats.QuartileByValue(placedValue(ind, v), placedBox(ind, dist.Box), RankDirection(ind.Better) == stats.LowerFirst)
+	p.Quartile = stats.QuartileByValue(placedValue(ind, v), dist.printed, RankDirection(ind.Better) == stats.LowerFirst)
 	p.Z = stats.Z(v, dist.Mean, dist.SD)
 	p.GapMedian, p.GapQ3 = gaps(ind.Better, v, dist.Box)
 	p.VsMedian, p.VsBetterQuartile = signedDifferences(ind.Better, v, dist.Box)

@@ -184,6 +184,9 @@ type Distribution struct {
 	Skewness float64
 	// Outliers are register positions of members beyond the whiskers.
 	Outliers []int
+	// printed holds N and the quartiles as printed (placedBox), which a
+	// value is placed in a quarter by; computed once with the box.
+	printed stats.Box
 }
 
 // Position is where one institution stands within a group on one

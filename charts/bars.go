@@ -240,6 +240,6 @@ func newBars(m *figures.Model, spec *brief.ChartBlock, th Theme) (Chart, error) 
 	if ind.Better == dataset.LowerIsBetter {
 		dirWords = "lowest first (lower is better)"
 	}
-	bc.Note = fmt.Sprintf("%s, %s, %d: %s of %s ranked %s; ties share the better rank.", g.Name, shortName(ind), year, format.Int(len(bc.Items)), format.Int(len(places)), dirWords)
+	bc.Note = fmt.Sprintf("%s, %s, %d: %s of %s ranked %s; values equal as printed share the better rank.", g.Name, shortName(ind), year, format.Int(len(bc.Items)), format.Int(len(places)), dirWords)
 	return bc, nil
 }

@@ -225,6 +225,6 @@ func fxBars() *BarsChart {
 		bc.Items = append(bc.Items, BarItem{Label: names[i], Rank: ranks[i], Value: vals[i], Named: i == 5})
 	}
 	bc.Items = append(bc.Items, BarItem{Label: "Høgskolen i Vårdø", Rank: 14, Value: 1.137, Focus: true, GapBefore: true})
-	bc.Note = "Kestria national, Citation impact, 2023: 10 of 38 ranked highest first; ties share the better rank."
+	bc.Note = "Kestria national, Citation impact, 2023: 10 of 38 ranked highest first; values equal as printed share the better rank."
 	return bc
 }

@@ -126,14 +126,15 @@ func (m *Model) PlaceOf(group, indicator string, inst, year int) (*Position, boo
 	if !ok || !okd || inst < 0 || inst >= m.Data.Register.Len() {
 		return nil, false
 	}
-	_, values := m.Members(group, indicator, year)
+	insts, _ := m.Members(group, indicator, year)
 	ind := m.Data.Dictionary.Indicators[k]
 	v := m.Data.Column(k, year)[inst]
+	pcol := m.placedColumn(k, year)
 	var pl stats.Placement
 	if !math.IsNaN(v) {
-		pl = stats.PlaceUnsorted(values, v, RankDirection(ind.Better), g.HasIn(inst, year))
+		pl = stats.PlaceUnsorted(gather(pcol, insts), pcol[inst], RankDirection(ind.Better), g.HasIn(inst, year))
 	}
-	return position(g, ind, inst, year, v, len(values), pl, d), true
+	return position(g, ind, inst, year, v, len(insts), pl, d), true
 }
 
 // Tracked reports whether the model stores positions for an institution
@@ -158,9 +159,10 @@ type MemberPlace struct {
 }
 
 // MemberPlaces places every member of a group that has a value of the
-// indicator in the year, best first (ties in register order), with the
-// same definitions as the stored positions: for charts and tables that
-// show every member (bars, heatmaps, league tables). One sort, O(n log n).
+// indicator in the year, best first (ties, values equal at the declared
+// decimals, in register order), with the same definitions as the stored
+// positions: for charts and tables that show every member (bars,
+// heatmaps, league tables). One sort, O(n log n).
 func (m *Model) MemberPlaces(group, indicator string, year int) []MemberPlace {
 	k := m.Data.Dictionary.Index(indicator)
 	insts, values := m.Members(group, indicator, year)
@@ -168,16 +170,27 @@ func (m *Model) MemberPlaces(group, indicator string, year int) []MemberPlace {
 		return nil
 	}
 	dir := RankDirection(m.Data.Dictionary.Indicators[k].Better)
-	sorted := slices.Clone(values)
+	// placed at the declared precision (placed.go); Value stays unrounded
+	placed := gather(m.placedColumn(k, year), insts)
+	sorted := slices.Clone(placed)
 	slices.Sort(sorted)
 	d, _ := m.Distribution(group, indicator, year)
 	out := make([]MemberPlace, len(insts))
 	for i, inst := range insts {
-		out[i] = MemberPlace{Institution: inst, Value: values[i], Placement: stats.Place(sorted, values[i], dir, true)}
+		out[i] = MemberPlace{Institution: inst, Value: values[i], Placement: stats.Place(sorted, placed[i], dir, true)}
 		if d != nil {
 			out[i].Quartile = quarterOf(m.Data.Dictionary.Indicators[k], values[i], d)
 		}
 	}
 	slices.SortStableFunc(out, func(a, b MemberPlace) int { return a.Rank - b.Rank })
+	return out
+}
+
+// gather picks col's values at the register positions insts.
+func gather(col []float64, insts []int) []float64 {
+	out := make([]float64, len(insts))
+	for i, inst := range insts {
+		out[i] = col[inst]
+	}
 	return out
 }

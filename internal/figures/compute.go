@@ -59,6 +59,7 @@ func Compute(d *dataset.Dataset, b *brief.Brief) (*Model, error) {
 		trend:   map[trendKey]*Trend{},
 		gtrend:  map[gtrendKey]*GroupTrend{},
 		corr:    map[corrKey]int{},
+		placed:  &placedColumns{},
 	}
 	m.groupIndex = make(map[string]int, len(groups))
 	for i, g := range groups {
@@ -153,11 +154,11 @@ func (m *Model) compute() error {
 					}
 				}
 			}()
-			var buf []float64
+			var buf, pbuf []float64
 			for j := range jobs {
 				if j < len(results) {
 					g, k := m.Groups[j/nInd], j%nInd
-					results[j], buf = m.column(g, k, buf)
+					results[j], buf, pbuf = m.column(g, k, buf, pbuf)
 				} else {
 					gi := j - len(results)
 					corrs[gi] = m.correlations(m.Groups[gi], m.corrNeed[gi])
@@ -210,8 +211,10 @@ const manyTracked = 8
 // column computes one group's indicator over every year of the span.
 // Each year's values are gathered once; the quartiles come by selection
 // (stats.BoxOfUnsorted, expected O(n)) and the tracked institutions are
-// placed in one counting pass, so no column is ever fully sorted.
-func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64) {
+// placed in one counting pass, so no column is ever fully sorted. Ranks
+// compare the values rounded to the declared decimals (placed.go); the
+// distribution keeps the unrounded values.
+func (m *Model) column(g *Group, k int, buf, pbuf []float64) (columnResult, []float64, []float64) {
 	ind := m.Data.Dictionary.Indicators[k]
 	dir := RankDirection(ind.Better)
 	nt := len(m.Named)
@@ -226,10 +229,14 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 			member[j] = g.HasIn(inst, year)
 		}
 		col := m.Data.Column(k, year)
+		// pcol: the values as printed, which ranks compare (placed.go)
+		pcol := m.placedColumn(k, year)
 		vals := buf[:0]
+		pvals := pbuf[:0]
 		for _, i := range members {
 			if v := col[i]; !math.IsNaN(v) {
 				vals = append(vals, v)
+				pvals = append(pvals, pcol[i])
 			}
 		}
 		dist := &Distribution{Group: g.Name, Indicator: ind.Key, Year: year}
@@ -238,13 +245,13 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 		dist.Mean, dist.SD = stats.MeanSD(vals)
 		dist.Skewness = stats.Skewness(vals)
 		for j, inst := range m.Named {
-			targets[j] = col[inst]
+			targets[j] = pcol[inst]
 		}
 		if nt <= manyTracked {
-			stats.PlaceAll(vals, targets, member, dir, placed)
+			stats.PlaceAll(pvals, targets, member, dir, placed)
 		} else {
 			// many tracked institutions: one sort, then binary searches
-			sorted = append(sorted[:0], vals...)
+			sorted = append(sorted[:0], pvals...)
 			slices.Sort(sorted)
 			for j, v := range targets {
 				placed[j] = stats.Placement{}
@@ -254,14 +261,15 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 			}
 		}
 		dist.Box = stats.BoxOfUnsorted(vals, len(members)-len(vals), m.Method)
+		dist.printed = placedBox(ind, dist.Box)
 		if len(dist.Box.OutlierValues) > 0 {
 			dist.Outliers = outlierMembers(members, col, dist.Box)
 		}
 		res.dists = append(res.dists, dist)
 		for j, inst := range m.Named {
-			res.poss = append(res.poss, position(g, ind, inst, year, targets[j], len(vals), placed[j], dist))
+			res.poss = append(res.poss, position(g, ind, inst, year, col[inst], len(vals), placed[j], dist))
 		}
-		buf = vals
+		buf, pbuf = vals, pvals
 	}
 	for ti, inst := range m.Named {
 		// Positions of inst were appended year by year, nt apart.
@@ -272,7 +280,7 @@ func (m *Model) column(g *Group, k int, buf []float64) (columnResult, []float64)
 		res.trends = append(res.trends, trendOf(g, ind, inst, series, res.dists))
 	}
 	res.gtrend = groupTrendOf(g, ind, res.dists)
-	return res, buf
+	return res, buf, pbuf
 }
 
 // outlierMembers lists the members beyond the whiskers, ascending by value
@@ -334,8 +342,12 @@ func position(g *Group, ind dataset.Indicator, inst, year int, v float64, n int,
 // quarterOf is the quarter of a group a value falls in, 1 the best, by the
 // group's quartile values, ties and a value on a quartile going to the
 // better quarter: the one rule for positions and member placements.
+//
+// The value and the quartiles are compared as printed (placed.go), so
+// values printed alike share a quarter as they share a rank, and a value
+// printed as the quartile is on it.
 func quarterOf(ind dataset.Indicator, v float64, dist *Distribution) int {
-	return stats.QuartileByValue(v, dist.Box, RankDirection(ind.Better) == stats.LowerFirst)
+	return stats.QuartileByValue(placedValue(ind, v), dist.printed, RankDirection(ind.Better) == stats.LowerFirst)
 }
 
 // signedDifferences returns the value's difference to the group's median

@@ -9,6 +9,7 @@ import (
 	"peerpack/internal/brief"
 	"peerpack/internal/dataset"
 	"peerpack/internal/demo"
+	"peerpack/internal/format"
 )
 
 // TestDemoInvariants computes the demo scenario's figures and checks
@@ -16,7 +17,8 @@ import (
 // DEVELOPERS.md): n + missing = the year's members; min <= drawn low whisker <= q1
 // <= median <= q3 <= drawn high whisker <= max; 1 <= rank <= of; 0 < percentile <
 // 100; the quartile agrees with the value's place among the group's
-// quartile values (a value on a quartile in the better quarter; ties share
+// quartile values, both as printed at the indicator's declared decimals
+// (a value on a quartile in the better quarter; ties share
 // one quarter, so a joint-best value is in the top quarter); a member's of
 // equals the
 // group's n, an outsider's n + 1. (The demo's golden file comes with the
@@ -77,15 +79,17 @@ func checkInvariants(t *testing.T, m *Model) {
 			t.Fatalf("position out of range: %+v (n=%d)", p, dist.N)
 		}
 		ind, _ := m.Indicator(p.Indicator)
-		hi, lo := dist.Q3, dist.Q1
+		// compared as printed: value and quartiles at the declared decimals
+		pr := func(x float64) float64 { return format.Round(x, ind.Decimals) }
+		hi, lo := pr(dist.Q3), pr(dist.Q1)
 		if ind.Better == dataset.LowerIsBetter {
-			hi, lo = -dist.Q1, -dist.Q3
+			hi, lo = -pr(dist.Q1), -pr(dist.Q3)
 		}
-		v := p.Value
+		v := pr(p.Value)
 		if ind.Better == dataset.LowerIsBetter {
 			v = -v
 		}
-		med := dist.Median
+		med := pr(dist.Median)
 		if ind.Better == dataset.LowerIsBetter {
 			med = -med
 		}

@@ -110,6 +110,9 @@ type Model struct {
 	groupIndex map[string]int
 	// composites holds the brief's composite, one per span year with data;
 	// CompositeSpec is the brief's composite: section (nil without one).
+	// placed caches the data columns rounded to the declared decimals
+	// that ranks and orders compare (placedColumn).
+	placed        *placedColumns
 	composites    []*CompositeYear
 	CompositeSpec *brief.CompositeSpec
 }
@@ -181,6 +184,9 @@ type Distribution struct {
 	Skewness float64
 	// Outliers are register positions of members beyond the whiskers.
 	Outliers []int
+	// printed holds N and the quartiles as printed (placedBox), which a
+	// value is placed in a quarter by; computed once with the box.
+	printed stats.Box
 }
 
 // Position is where one institution stands within a group on one

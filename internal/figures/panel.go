@@ -93,7 +93,8 @@ type panelBuffers struct {
 func (m *Model) placeInPanel(k panelKey, ts []*Trend, b *panelBuffers) {
 	g, ok := m.Group(k.group)
 	ind := m.Data.Dictionary.Index(k.ind)
-	c0, c1 := m.Data.Column(ind, k.y0), m.Data.Column(ind, k.y1)
+	// the values as printed, which ranks compare (placed.go)
+	c0, c1 := m.placedColumn(ind, k.y0), m.placedColumn(ind, k.y1)
 	if !ok || c0 == nil || c1 == nil {
 		return
 	}
@@ -106,8 +107,8 @@ func (m *Model) placeInPanel(k panelKey, ts []*Trend, b *panelBuffers) {
 	}
 	b.t0, b.t1, b.member = b.t0[:0], b.t1[:0], b.member[:0]
 	for _, t := range ts {
-		b.t0 = append(b.t0, t.StartValue)
-		b.t1 = append(b.t1, t.EndValue)
+		b.t0 = append(b.t0, c0[t.Institution])
+		b.t1 = append(b.t1, c1[t.Institution])
 		// In the panel: a member at both ends (its values are there, as
 		// its trend is valid).
 		b.member = append(b.member, g.HasIn(t.Institution, k.y0) && g.HasIn(t.Institution, k.y1))

@@ -23,6 +23,12 @@ func Round(v float64, decimals int) float64 {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return v
 	}
+	if atPrecision(v, clampDecimals(decimals)) {
+		if v == 0 {
+			return 0 // no negative zero
+		}
+		return v
+	}
 	r, _ := strconv.ParseFloat(roundString(math.Abs(v), clampDecimals(decimals)), 64)
 	if r == 0 {
 		return 0 // no negative zero
@@ -31,6 +37,22 @@ func Round(v float64, decimals int) float64 {
 		return -r
 	}
 	return r
+}
+
+// pow10 holds the exact powers of ten up to the largest decimals.
+var pow10 = [...]float64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9}
+
+// atPrecision reports, without formatting, that v is already what Round
+// returns: v is the float nearest to some whole r divided by 10^decimals
+// (r/10^decimals is correctly rounded as parsing is, and r is exact below
+// 2^53), so a decimal string of at most that many decimals reads back as
+// v, its shortest form has no more decimals, and rounding there changes
+// nothing. A fast path for data already at their declared decimals; it
+// never changes a result (TestRoundFastPathAgrees).
+func atPrecision(v float64, decimals int) bool {
+	p := pow10[decimals]
+	r := math.Round(v * p)
+	return math.Abs(r) < MaxExact && r/p == v
 }
 
 // roundString rounds a non-negative v half up at the decimals on its

@@ -293,7 +293,7 @@ func (w *writer) methodNote() string {
 		"type6":  "quartiles by Hyndman and Fan (1996) type 6",
 		"hinges": "quartiles as Tukey's (1977) hinges",
 	}[w.m.Method.String()]
-	return "Rank 1 is best, ties share the better rank; percentile rank is 100 × (institutions behind + half the ties) / n; " + q + "."
+	return "Rank 1 is best; values equal as printed are ties and share the better rank; percentile rank is 100 × (institutions behind + half the ties) / n; " + q + "."
 }
 
 func contains(set []string, s string) bool {

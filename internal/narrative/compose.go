@@ -10,6 +10,7 @@ import (
 	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
 	"peerpack/internal/figures"
+	"peerpack/internal/format"
 	"peerpack/internal/yamlx"
 )
 
@@ -253,33 +254,52 @@ func (c *composer) edgeClaims(pct figures.Key, edge int) []Claim {
 
 // quarterClaims: the quarter a value is said to be in, checked against
 // the group's quartile values (the one boundary rule, stats.QuartileByValue:
-// a value on a quartile is in the better quarter).
-func quarterClaims(ind dataset.Indicator, value Operand, group, key string, year, q int) []Claim {
+// a value on a quartile is in the better quarter). The model places a
+// value in a quarter as printed, value and quartiles at the indicator's
+// declared decimals, so a comparison that holds only as printed (1.92
+// against a median of 1.92115) is recorded on the printed numbers.
+func (c *composer) quarterClaims(ind dataset.Indicator, value Operand, group, key string, year, q int) []Claim {
 	q1, med, q3 := Fig(distKey(group, key, year, mQ1)), Fig(distKey(group, key, year, mMedian)), Fig(distKey(group, key, year, mQ3))
+	var out []Claim
+	claim := func(l Operand, op string, r Operand) {
+		cl := Claimed(l, op, r)
+		if ok, err := cl.Holds(c.m); err == nil && !ok {
+			if lv, err := l.value(c.m); err == nil {
+				if rv, err := r.value(c.m); err == nil {
+					cl = Claimed(Num(format.Round(lv, ind.Decimals)), op, Num(format.Round(rv, ind.Decimals)))
+				}
+			}
+		}
+		out = append(out, cl)
+	}
 	if ind.Better == dataset.LowerIsBetter {
 		switch q {
 		case 1:
-			return []Claim{Claimed(value, OpLessEq, q1)}
+			claim(value, OpLessEq, q1)
 		case 2:
-			return []Claim{Claimed(value, OpGreater, q1), Claimed(value, OpLessEq, med)}
+			claim(value, OpGreater, q1)
+			claim(value, OpLessEq, med)
 		case 3:
-			return []Claim{Claimed(value, OpGreater, med), Claimed(value, OpLessEq, q3)}
+			claim(value, OpGreater, med)
+			claim(value, OpLessEq, q3)
 		case 4:
-			return []Claim{Claimed(value, OpGreater, q3)}
+			claim(value, OpGreater, q3)
 		}
-		return nil
+		return out
 	}
 	switch q {
 	case 1:
-		return []Claim{Claimed(value, OpGreaterEq, q3)}
+		claim(value, OpGreaterEq, q3)
 	case 2:
-		return []Claim{Claimed(value, OpLess, q3), Claimed(value, OpGreaterEq, med)}
+		claim(value, OpLess, q3)
+		claim(value, OpGreaterEq, med)
 	case 3:
-		return []Claim{Claimed(value, OpLess, med), Claimed(value, OpGreaterEq, q1)}
+		claim(value, OpLess, med)
+		claim(value, OpGreaterEq, q1)
 	case 4:
-		return []Claim{Claimed(value, OpLess, q1)}
+		claim(value, OpLess, q1)
 	}
-	return nil
+	return out
 }
 
 // phrase is how sentences name a group: the brief's phrase, else the

@@ -3,6 +3,8 @@ package narrative
 import (
 	"strings"
 	"testing"
+
+	"peerpack/internal/brief"
 )
 
 // The edge cases of the commentary, each with the exact text expected.
@@ -108,8 +110,25 @@ institutions:
 ` + home("intl"),
 			// sorted 30, 38, 38.04, 45: median 38.02 prints 38.0 like the
 			// value; Q3 = 38.04 + 0.25 x 6.96 = 39.78; the gap 1.74 prints
-			// 1.7 but 39.8 - 38.0 reads 1.8, so it is left out.
-			"International staff share: Arlen University stands 2nd of 4 in the Kestria sector at 38.0% in 2025, in the second quarter. That is level with the group median of 38.0%, and short of the upper quartile (39.8%).\n"},
+			// 1.7 but 39.8 - 38.0 reads 1.8, so it is left out. 38.04 and
+			// 38.0 both print 38.0 at the declared decimal, so they tie:
+			// joint 2nd (ranks at the declared precision).
+			"International staff share: Arlen University stands joint 2nd of 4 with one other in the Kestria sector at 38.0% in 2025, in the second quarter. That is level with the group median of 38.0%, and short of the upper quartile (39.8%).\n"},
+		{"a value just below the median that prints as the median is on it", `
+columns: [intl@2025]
+institutions:
+  F: [Kestria, Arlen University, 38.0]
+  A: [Kestria, Bexmoor College, 30]
+  B: [Kestria, Corrin Institute, 38.04]
+  C: [Kestria, Dunmere University, 45]
+` + home("intl"),
+			// sorted 30, 38, 38.04, 45: median 38.02, below which 38.0
+			// lies, but both print 38.0 at the declared decimal: the value
+			// is on the median, so the second quarter, and it ties with
+			// 38.04 (joint 2nd); the quarter's claim is recorded on the
+			// printed numbers (38 >= 38), Verify re-evaluates it. Q3 39.78
+			// prints 39.8, 1.78 short reads 1.8 either way.
+			"International staff share: Arlen University stands joint 2nd of 4 with one other in the Kestria sector at 38.0% in 2025, in the second quarter. That is level with the group median of 38.0%, and 1.8 percentage points short of the upper quartile (39.8%).\n"},
 		{"single-member group", `
 columns: [intl@2025]
 institutions:
@@ -286,5 +305,46 @@ block: {style: detail, topics: [change], indicators: [intl], years: [2023, 2025]
 	want := "International staff share: Arlen University reports no international staff share for 2023, so its movement since then cannot be given.\n"
 	if got != want {
 		t.Fatalf("got\n%s\nwant\n%s", got, want)
+	}
+}
+
+// TestQuarterClaimAtPrintedPrecision: 38.0 lies below the unrounded
+// median 38.02 but prints as it (one declared decimal), so the model puts
+// it in the second quarter and the sentence's claim compares the printed
+// numbers, "38 >= 38", where "value >= median" would be false; the
+// comparison against the upper quartile holds unrounded and keeps its
+// figure keys. Worked by hand (type 7 quartiles of 30, 38, 38.04, 45).
+func TestQuarterClaimAtPrintedPrecision(t *testing.T) {
+	s := parseSituation(t, edgeIndicators+`
+columns: [intl@2025]
+institutions:
+  F: [Kestria, Arlen University, 38.0]
+  A: [Kestria, Bexmoor College, 30]
+  B: [Kestria, Corrin Institute, 38.04]
+  C: [Kestria, Dunmere University, 45]
+groups:
+  - {name: Kestria sector, where: {country: Kestria}}
+block: {style: detail, topics: [position], indicators: [intl]}
+`)
+	c, _, b := s.compose(t)
+	var claims []string
+	for _, blk := range b.Blocks {
+		cb, ok := blk.(*brief.CommentaryBlock)
+		if !ok {
+			continue
+		}
+		for _, p := range c.Blocks[cb] {
+			for _, x := range p.Sentences {
+				for _, cl := range x.Claims {
+					claims = append(claims, cl.String())
+				}
+			}
+		}
+	}
+	all := strings.Join(claims, "\n")
+	for _, want := range []string{"38 >= 38", "value < distribution/Kestria sector/intl//2025/q3"} {
+		if !strings.Contains(all, want) {
+			t.Errorf("no claim %q among:\n%s", want, all)
+		}
 	}
 }

@@ -137,7 +137,7 @@ func (c *composer) positionClaims(g *figures.Group, ind dataset.Indicator, p *fi
 		out = append(out, c.edgeClaims(k(mPercentile), f.Edge)...)
 	default:
 		out = append(out, Claimed(Fig(k(mQuartile)), OpEqual, Num(float64(f.Quartile))))
-		out = append(out, quarterClaims(ind, Fig(k(mValue)), g.Name, ind.Key, p.Year, f.Quartile)...)
+		out = append(out, c.quarterClaims(ind, Fig(k(mValue)), g.Name, ind.Key, p.Year, f.Quartile)...)
 	}
 	if !p.InGroup {
 		out = append(out, Claimed(Fig(k("in_group")), OpEqual, Num(0)))

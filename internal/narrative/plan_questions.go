@@ -120,14 +120,14 @@ func (c *composer) questionOn(sc *scope, g *figures.Group, ind dataset.Indicator
 	switch {
 	case fell && p.Quartile == 4 && farBottom:
 		f.Kind, f.PctFrom, f.FromYear = QuestionFalling, printOrdinalPct(cd.p0.Percentile), printYear(cd.p0.Year)
-		cl := append(quarterClaims(ind, value, g.Name, ind.Key, y, 4), c.percentileChangeClaims(g, ind, cd)...)
+		cl := append(c.quarterClaims(ind, value, g.Name, ind.Key, y, 4), c.percentileChangeClaims(g, ind, cd)...)
 		cl = append(cl, c.notEdgeClaims(pk(y, mPercentile), 4)...)
 		return question{kind: QuestionFalling, ind: ind, fact: f,
 			cites:  append(cites, pk(cd.p0.Year, mPercentile), trendKey(g.Name, ind.Key, id, mPercentileChange)),
 			claims: cl}, true
 	case fell && p.Quartile == 1 && farTop:
 		f.Kind, f.PctFrom, f.FromYear = QuestionSlipping, printOrdinalPct(cd.p0.Percentile), printYear(cd.p0.Year)
-		cl := append(quarterClaims(ind, value, g.Name, ind.Key, y, 1), c.percentileChangeClaims(g, ind, cd)...)
+		cl := append(c.quarterClaims(ind, value, g.Name, ind.Key, y, 1), c.percentileChangeClaims(g, ind, cd)...)
 		cl = append(cl, c.notEdgeClaims(pk(y, mPercentile), 1)...)
 		return question{kind: QuestionSlipping, ind: ind, fact: f,
 			cites:  append(cites, pk(cd.p0.Year, mPercentile), trendKey(g.Name, ind.Key, id, mPercentileChange)),
@@ -139,7 +139,7 @@ func (c *composer) questionOn(sc *scope, g *figures.Group, ind dataset.Indicator
 	case p.Quartile == 4:
 		f.Kind = QuestionBottom
 		return question{kind: QuestionBottom, ind: ind, fact: f, cites: cites,
-			claims: quarterClaims(ind, value, g.Name, ind.Key, y, 4)}, true
+			claims: c.quarterClaims(ind, value, g.Name, ind.Key, y, 4)}, true
 	}
 	return question{}, false
 }

@@ -93,11 +93,11 @@ func (c *composer) quarters(g *figures.Group, ps []placed) (f OverviewFact, name
 		case x.p.Quartile == 1:
 			hi = append(hi, x)
 			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpEqual, Num(1)))
-			claims = append(claims, quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 1)...)
+			claims = append(claims, c.quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 1)...)
 		case x.p.Quartile == 4:
 			lo = append(lo, x)
 			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpEqual, Num(4)))
-			claims = append(claims, quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 4)...)
+			claims = append(claims, c.quarterClaims(x.ind, Fig(k(x, mValue)), g.Name, x.ind.Key, x.p.Year, 4)...)
 		default:
 			f.Middle++
 			claims = append(claims, Claimed(Fig(k(x, mQuartile)), OpNotEqual, Num(1)), Claimed(Fig(k(x, mQuartile)), OpNotEqual, Num(4)))

@@ -4,6 +4,9 @@
 # It writes testdata/figures/fixture_r.csv, keyed like the figures file.
 # ZU01 is outside the ranked population (as the Go test sets it up), so it
 # belongs only to the group with over: all.
+# Ranks and percentiles are taken on the values as written: every value of
+# the fixture has at most its indicator's declared decimals, so these are
+# the ranks at the declared precision that the figures use.
 dir <- "testdata/figures"
 reg <- read.csv(file.path(dir, "register.csv"), stringsAsFactors = FALSE)
 vals <- read.csv(file.path(dir, "values.csv"), stringsAsFactors = FALSE)

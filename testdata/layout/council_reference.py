@@ -7,10 +7,14 @@ independently of peerpack. Write the files first, then run from the repository r
 
 Definitions (README, "Statistics"): rank = 1 + the number of strictly better values; percentile
 rank = 100 x (values worse + half the values tied, itself among them) / n; an institution outside a
-group is placed among its members as one more value. The ranked population: papers summed over
-2023-2025 of at least 600. Money is divided by the country's PPP factor for the year.
+group is placed among its members as one more value. Ranks and percentiles compare values at the
+indicator's declared decimals (README, "Ranks at the declared precision"): each value rounded half
+away from zero on its shortest decimal form (Python's repr, the digits as written), with Python's
+decimal module. The ranked population: papers summed over 2023-2025 of at least 600. Money is
+divided by the country's PPP factor for the year.
 """
 import sys
+from decimal import ROUND_HALF_UP, Decimal
 
 import pandas as pd
 
@@ -50,9 +54,29 @@ for ind in ["academic_staff", "students", "total_income", "papers"]:
         print(f"scale/{i}/{ind},{v[i]!r}")
     print(f"scale/median/{ind},{v[chosen].dropna().median()!r}")
 
+
+
+def declared_decimals(ind):
+    # the "decimals:" line of the indicator's entry in indicators.yaml
+    key = None
+    for line in open(f"{d}/indicators.yaml"):
+        line = line.strip()
+        if line.startswith("- key:"):
+            key = line.split(":", 1)[1].strip()
+        elif key == ind and line.startswith("decimals:"):
+            return int(line.split(":", 1)[1])
+    raise SystemExit(f"no decimals for {ind} in indicators.yaml")
+
+
+def printed(s, places):
+    # ROUND_HALF_UP in the decimal module rounds half away from zero
+    q = Decimal(1).scaleb(-places)
+    return s.map(lambda x: x if pd.isna(x) else float(Decimal(repr(x)).quantize(q, rounding=ROUND_HALF_UP)))
+
+
 lower = {"students_per_academic"}
 for ind in ["intl_staff_share", "students_per_academic", "completion_rate"]:
-    v = value(ind, year)
+    v = printed(value(ind, year), declared_decimals(ind))
     for name, members in [("Chosen peers", chosen), ("Kestrian sector", sector)]:
         vals = v[[m for m in members if m != focus]].dropna()
         x = v[focus]

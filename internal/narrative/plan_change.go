@@ -246,6 +246,16 @@ func (c *composer) change(sc *scope, g *figures.Group, ind dataset.Indicator) []
 			mcl = append(mcl, Claimed(Fig(k), OpLess, Num(NoiseIQRShare)))
 		}
 	}
+	if mf.MedianFrom == mf.MedianTo {
+		// "stayed at 3.6%": both medians lie within half a unit of the
+		// last printed decimal of the one value printed (widened by a
+		// hair, as 3.6 - 0.05 is not exactly 3.55 in binary).
+		p := format.Round(cd.d1.Median, ind.Decimals)
+		h := 0.5 * math.Pow(10, -float64(ind.Decimals)) * (1 + 1e-9)
+		for _, m := range []Operand{Fig(distKey(g.Name, ind.Key, cd.d0.Year, mMedian)), Fig(distKey(g.Name, ind.Key, cd.d1.Year, mMedian))} {
+			mcl = append(mcl, Claimed(m, OpGreaterEq, Num(p-h)), Claimed(m, OpLessEq, Num(p+h)))
+		}
+	}
 	if cd.hasPct && !f.Resized {
 		mcl = append(mcl, c.percentileChangeClaims(g, ind, cd)...)
 	}

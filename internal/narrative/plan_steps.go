@@ -62,6 +62,11 @@ func (c *composer) oneYear(g *figures.Group, ind dataset.Indicator, pct bool) []
 	}
 	f := StepFact{Seed: trendKey(g.Name, ind.Key, id, shareM).String(), FromYear: printYear(from), ToYear: printYear(to),
 		Percentile: pct, Better: ind.Better, Rise: step.Value > 0, All: share.Value >= 1, Overshoot: share.Value > 1}
+	if f.Overshoot && !pct && printAmount(ind, step.Value) == printAmount(ind, t.Change) {
+		// "and more ... the other years took some of it back" cannot be
+		// read off a step that prints as the whole change: say "all".
+		f.Overshoot = false
+	}
 	cites := []figures.Key{posKey(g.Name, ind.Key, id, from, mValue), posKey(g.Name, ind.Key, id, to, mValue)}
 	if !pct {
 		f.Amount = printAmount(ind, step.Value)

@@ -29,7 +29,10 @@ func Round(v float64, decimals int) float64 {
 		}
 		return v
 	}
-	r, _ := strconv.ParseFloat(roundString(math.Abs(v), clampDecimals(decimals)), 64)
+	r, ok := roundNear(math.Abs(v), clampDecimals(decimals))
+	if !ok {
+		r, _ = strconv.ParseFloat(roundString(math.Abs(v), clampDecimals(decimals)), 64)
+	}
 	if r == 0 {
 		return 0 // no negative zero
 	}
@@ -53,6 +56,33 @@ func atPrecision(v float64, decimals int) bool {
 	p := pow10[decimals]
 	r := math.Round(v * p)
 	return math.Abs(r) < MaxExact && r/p == v
+}
+
+// roundNear rounds a non-negative a to the decimals without formatting,
+// and reports false when it cannot be sure of giving what roundString
+// gives. Let D be a's shortest decimal form and x = a·10^d as computed:
+// |D − a| ≤ a·2^-53 (D reads back as a, so it lies within half an ulp),
+// and the product adds at most x·2^-53, so x is within x·2^-52 of D·10^d.
+// Only when x's fraction lies that close to one half can the two
+// disagree on rounding up; there (with a sixteenfold margin) the digit
+// rounding decides. Elsewhere the whole number r is the same, and r/10^d,
+// r below 2^52 and 10^d exact, is correctly rounded as parsing is.
+// TestRoundFastPathAgrees checks it bit for bit against the digits.
+func roundNear(a float64, decimals int) (float64, bool) {
+	p := pow10[decimals]
+	x := a * p
+	if !(x < 1<<52) {
+		return 0, false
+	}
+	f := math.Floor(x)
+	frac := x - f // exact: f and x share their leading bits
+	if math.Abs(frac-0.5) <= x*0x1p-48 {
+		return 0, false
+	}
+	if frac > 0.5 {
+		f++
+	}
+	return f / p, true
 }
 
 // roundString rounds a non-negative v half up at the decimals on its

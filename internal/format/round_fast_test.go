@@ -37,6 +37,18 @@ func TestRoundFastPathAgrees(t *testing.T) {
 		vs = append(vs, v, math.Nextafter(v, math.Inf(1)), math.Nextafter(v, math.Inf(-1)),
 			rng.NormFloat64()*math.Pow(10, float64(rng.IntN(12)-4)))
 	}
+	// half-way cases as written (…5 one place past the decimals) and
+	// their neighbours, where the binary value lies either side of the half
+	for range 40000 {
+		d := 1 + rng.IntN(9)
+		whole := rng.Int64N(int64(1) << uint(1+rng.IntN(50)))
+		s := strconv.FormatInt(whole, 10) + "5"
+		for len(s) <= d {
+			s = "0" + s
+		}
+		v, _ := strconv.ParseFloat(s[:len(s)-d]+"."+s[len(s)-d:], 64)
+		vs = append(vs, v, math.Nextafter(v, math.Inf(1)), math.Nextafter(v, math.Inf(-1)))
+	}
 	vs = append(vs, 0, math.Copysign(0, -1), 2.675, -1234.5, 1.005, 0.1+0.2, MaxExact-1, MaxExact, MaxExact+2, 1e300, 5e-324)
 	for _, v := range vs {
 		for d := 0; d <= 9; d++ {

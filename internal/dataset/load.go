@@ -4,10 +4,13 @@ import (
 	"errors"
 	"io/fs"
 	"math"
+	"path"
+	"strings"
 
 	"peerpack/internal/brief"
 	"peerpack/internal/diag"
 	"peerpack/internal/limits"
+	"peerpack/internal/tabular"
 )
 
 // loader carries the state of one Load.
@@ -21,6 +24,28 @@ type loader struct {
 	// data holds the brief's data paths, tidied (see tidyPath).
 	data brief.DataPaths
 	lim  limits.Limits
+	// fetched is the first values file, read ahead.
+	fetched *fetched
+}
+
+// fetched is a file read ahead of its turn.
+type fetched struct {
+	name string
+	done chan struct{}
+	data []byte
+	err  error
+}
+
+// isCSVPath reports a path tabular reads as CSV (no sheet).
+func isCSVPath(p string) bool {
+	if strings.Contains(p, "#") {
+		return false
+	}
+	switch strings.ToLower(path.Ext(p)) {
+	case ".csv", ".txt", "":
+		return true
+	}
+	return false
 }
 
 type stagedNote struct {
@@ -130,6 +155,20 @@ func (l *loader) load() *Dataset {
 	}
 	if !ok {
 		return nil
+	}
+	// The first values file is read while the dictionary and register are
+	// parsed: at world size it is most of the input, and reading it is
+	// mostly the kernel handing out memory.
+	if len(data.Values) > 0 && isCSVPath(data.Values[0]) {
+		f := &fetched{name: data.Values[0], done: make(chan struct{})}
+		l.fetched = f
+		go func() {
+			defer close(f.done)
+			f.data, f.err = tabular.ReadFileWith(l.fsys, f.name, l.lim)
+		}()
+		// Loading may stop before the values are read: never leave the
+		// read running behind a returned error.
+		defer func() { <-f.done }()
 	}
 	dict, derived := l.dictionary(data.Dictionary)
 	reg := l.register(data.Register)

@@ -80,7 +80,16 @@ func (v *valuesReader) addf(file string, c tabular.Cell, format string, args ...
 const maxProblems = 200
 
 func (v *valuesReader) read(name string) {
-	r, err := tabular.OpenWith(v.l.fsys, name, v.l.lim)
+	var r tabular.RowReader
+	var err error
+	if f := v.l.fetched; f != nil && f.name == name {
+		<-f.done
+		r, err = tabular.OpenRead(name, f.data, f.err, v.l.lim)
+		// read once: the bytes go with the reader
+		f.data, v.l.fetched = nil, nil
+	} else {
+		r, err = tabular.OpenWith(v.l.fsys, name, v.l.lim)
+	}
 	if err != nil {
 		v.l.probs.Add(err)
 		return

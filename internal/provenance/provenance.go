@@ -12,6 +12,7 @@
 package provenance
 
 import (
+	"errors"
 	"fmt"
 	"hash"
 	"hash/crc32"
@@ -40,6 +41,8 @@ type Recorder struct {
 	fsys  fs.FS
 	mu    sync.Mutex
 	files map[string]File
+	// pending are checksums of recorded files still being computed.
+	pending sync.WaitGroup
 }
 
 // New wraps fsys.
@@ -61,8 +64,25 @@ func (r *Recorder) Stat(name string) (fs.FileInfo, error) { return fs.Stat(r.fsy
 // mean" hints) works as on the FS it wraps.
 func (r *Recorder) ReadDir(name string) ([]fs.DirEntry, error) { return fs.ReadDir(r.fsys, name) }
 
+// Record records a file read whole by other means than reading it in
+// order through Open (in pieces at once, for speed): data are its bytes,
+// which the caller must not change. The checksum is computed on another
+// goroutine, while the caller goes on to parse the bytes; Files waits
+// for it.
+func (r *Recorder) Record(name string, data []byte) {
+	r.pending.Add(1)
+	go func() {
+		defer r.pending.Done()
+		f := File{Name: name, Size: int64(len(data)), CRC32C: crc32.Checksum(data, castagnoli)}
+		r.mu.Lock()
+		r.files[name] = f
+		r.mu.Unlock()
+	}()
+}
+
 // Files lists the files read to their end, by name.
 func (r *Recorder) Files() []File {
+	r.pending.Wait()
 	r.mu.Lock()
 	defer r.mu.Unlock()
 	out := make([]File, 0, len(r.files))
@@ -122,7 +142,7 @@ func (f *file) Read(p []byte) (int, error) {
 func (f *file) ReadAt(p []byte, off int64) (int, error) {
 	ra, ok := f.File.(io.ReaderAt)
 	if !ok {
-		return 0, fmt.Errorf("%s: ReadAt not supported", f.name)
+		return 0, fmt.Errorf("%s: ReadAt: %w", f.name, errors.ErrUnsupported)
 	}
 	f.bad = true
 	return ra.ReadAt(p, off)

@@ -15,7 +15,9 @@ import (
 	"io"
 	"io/fs"
 	"path"
+	"runtime"
 	"strings"
+	"sync"
 
 	"peerpack/internal/diag"
 	"peerpack/internal/limits"
@@ -71,11 +73,29 @@ func Open(fsys fs.FS, name string) (RowReader, error) {
 // Going over a limit stops the file with a message that names the limit
 // and the --limit override.
 func OpenWith(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
+	return open(name, lim, func(file string) ([]byte, error) { return readFile(fsys, file, lim) })
+}
+
+// OpenRead is OpenWith for a file whose bytes (or the problem reading
+// them) ReadFileWith has already given, so that a large file can be read
+// while other files are parsed.
+func OpenRead(name string, data []byte, readErr error, lim limits.Limits) (RowReader, error) {
+	return open(name, lim, func(string) ([]byte, error) { return data, readErr })
+}
+
+// ReadFileWith reads the file a CSV path names, with OpenWith's checks of
+// kind and size, for OpenRead.
+func ReadFileWith(fsys fs.FS, name string, lim limits.Limits) ([]byte, error) {
+	file, _, _ := strings.Cut(name, "#")
+	return readFile(fsys, file, lim.Or())
+}
+
+func open(name string, lim limits.Limits, read func(file string) ([]byte, error)) (RowReader, error) {
 	lim = lim.Or()
 	file, sheet, _ := strings.Cut(name, "#")
 	switch strings.ToLower(path.Ext(file)) {
 	case ".xlsx", ".xlsm":
-		data, err := readFile(fsys, file, lim)
+		data, err := read(file)
 		if err != nil {
 			return nil, err
 		}
@@ -88,7 +108,7 @@ func OpenWith(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
 		if sheet != "" {
 			return nil, diag.At(name, 0, 0, "only an XLSX workbook has sheets; remove %q from the path", "#"+sheet)
 		}
-		data, err := readFile(fsys, file, lim)
+		data, err := read(file)
 		if err != nil {
 			return nil, err
 		}
@@ -169,6 +189,17 @@ func readFile(fsys fs.FS, name string, lim limits.Limits) ([]byte, error) {
 		}
 		size = st.Size()
 	}
+	if ra, ok := f.(io.ReaderAt); ok && size >= parallelReadBytes && runtime.GOMAXPROCS(0) > 1 {
+		if data, err, ok := readPieces(fsys, name, ra, size, max); ok {
+			if err != nil {
+				return nil, diag.At(name, 0, 0, "cannot read the file: %s", describeOpenErr(err))
+			}
+			if int64(len(data)) > max {
+				return nil, tooLarge(name, int64(len(data)), lim)
+			}
+			return data, nil
+		}
+	}
 	// Read into a buffer of the stated size (plus one byte to see the end)
 	// rather than growing one by doubling: a 170 MB values file would
 	// otherwise be copied and cleared several times over.
@@ -225,3 +256,78 @@ func HeaderIndex(header []Cell, name string) int {
 
 // Where formats a cell position for messages ("line 12, column 3").
 func (c Cell) Where() string { return fmt.Sprintf("line %d, column %d", c.Line, c.Col) }
+
+// parallelReadBytes is the size from which a file is read in pieces, one
+// per processor.
+var parallelReadBytes int64 = 32 << 20
+
+// A Recorder is told of a file read out of order (in pieces), so that it
+// can record it as if it had been read from start to end: the provenance
+// recorder checksums it.
+type Recorder interface {
+	Record(name string, data []byte)
+}
+
+// readPieces reads a large file in one piece per processor at once. On
+// this kind of machine the cost of reading a file that fits in the page
+// cache is mostly the kernel handing out and clearing fresh memory for
+// the buffer, which happens on whichever processor first writes a page:
+// pieces spread it. It reports ok false, having read nothing, when the
+// file cannot be read at an offset, so the caller reads it in order. A
+// file that grew since its size was taken is read on to its end (up to
+// max + 1 bytes); one that shrank is an error, since its pieces no longer
+// meet.
+func readPieces(fsys fs.FS, name string, ra io.ReaderAt, size, max int64) (data []byte, err error, ok bool) {
+	n := int64(runtime.GOMAXPROCS(0))
+	data = make([]byte, size)
+	adviseHugePages(data)
+	errs := make([]error, n)
+	var wg sync.WaitGroup
+	for i := range n {
+		from, to := size*i/n, size*(i+1)/n
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			_, errs[i] = ra.ReadAt(data[from:to], from)
+		}()
+	}
+	wg.Wait()
+	for _, e := range errs {
+		switch {
+		case e == nil:
+		case errors.Is(e, io.EOF):
+			return nil, errors.New("the file became shorter while it was read; run again once it is written"), true
+		default:
+			if errs[0] != nil && !errors.Is(errs[0], io.EOF) && isUnsupported(errs[0]) {
+				return nil, nil, false
+			}
+			return nil, e, true
+		}
+	}
+	// Anything past the stated size.
+	for off := size; ; {
+		var buf [64 << 10]byte
+		k, e := ra.ReadAt(buf[:], off)
+		data = append(data, buf[:k]...)
+		off += int64(k)
+		if errors.Is(e, io.EOF) || k == 0 {
+			break
+		}
+		if e != nil {
+			return nil, e, true
+		}
+		if off > max {
+			break
+		}
+	}
+	if rec, ok := fsys.(Recorder); ok {
+		rec.Record(name, data)
+	}
+	return data, nil, true
+}
+
+// isUnsupported reports an error of a file that cannot be read at an
+// offset at all.
+func isUnsupported(err error) bool {
+	return errors.Is(err, errors.ErrUnsupported)
+}

@@ -3,6 +3,7 @@ package figures
 import (
 	"bufio"
 	"io"
+	"math"
 	"strconv"
 	"unicode"
 	"unicode/utf8"
@@ -36,15 +37,24 @@ func WriteCSV(w io.Writer, m *Model) error {
 	if _, err := bw.Write(b); err != nil {
 		return err
 	}
+	// Rows come in key order, so most share their section, group,
+	// indicator and institution with the row before: those four fields
+	// are quoted once per run and copied after.
+	var prefix []byte
+	var ps, pg, pi, pn string
 	for r := range m.Rows() {
-		b = appendCSVField(b[:0], r.Section)
-		b = append(b, ',')
-		b = appendCSVField(b, r.Group)
-		b = append(b, ',')
-		b = appendCSVField(b, r.Indicator)
-		b = append(b, ',')
-		b = appendCSVField(b, r.Institution)
-		b = append(b, ',')
+		if prefix == nil || r.Section != ps || r.Group != pg || r.Indicator != pi || r.Institution != pn {
+			ps, pg, pi, pn = r.Section, r.Group, r.Indicator, r.Institution
+			prefix = appendCSVField(prefix[:0], r.Section)
+			prefix = append(prefix, ',')
+			prefix = appendCSVField(prefix, r.Group)
+			prefix = append(prefix, ',')
+			prefix = appendCSVField(prefix, r.Indicator)
+			prefix = append(prefix, ',')
+			prefix = appendCSVField(prefix, r.Institution)
+			prefix = append(prefix, ',')
+		}
+		b = append(b[:0], prefix...)
 		if r.Year != 0 {
 			b = strconv.AppendInt(b, int64(r.Year), 10)
 		}
@@ -56,7 +66,7 @@ func WriteCSV(w io.Writer, m *Model) error {
 		} else {
 			// Shortest 'g' form: digits, sign, point and exponent only,
 			// never a character that needs quoting.
-			b = strconv.AppendFloat(b, r.Value, 'g', -1, 64)
+			b = appendShortest(b, r.Value)
 		}
 		b = append(b, '\n')
 		if _, err := bw.Write(b); err != nil {
@@ -64,6 +74,17 @@ func WriteCSV(w io.Writer, m *Model) error {
 		}
 	}
 	return bw.Flush()
+}
+
+// appendShortest appends strconv's shortest 'g' form of v. Whole
+// numbers below a million (counts, ranks, quarters, flags: most of the
+// file's values) print there as plain integers, which AppendInt writes
+// without the general digit search (TestAppendShortest).
+func appendShortest(b []byte, v float64) []byte {
+	if v == math.Trunc(v) && math.Abs(v) < 1e6 && (v != 0 || !math.Signbit(v)) {
+		return strconv.AppendInt(b, int64(v), 10)
+	}
+	return strconv.AppendFloat(b, v, 'g', -1, 64)
 }
 
 // appendCSVField appends one field, quoted as encoding/csv quotes it with

@@ -3,6 +3,7 @@ package figures
 import (
 	"bytes"
 	"encoding/csv"
+	"math"
 	"strconv"
 	"testing"
 )
@@ -48,5 +49,20 @@ func TestWriteCSVQuotesAsEncodingCSV(t *testing.T) {
 			}
 		}
 		t.Fatalf("%d lines, encoding/csv gives %d", len(gl), len(wl))
+	}
+}
+
+// TestAppendShortest: the integer shortcut writes what strconv's
+// shortest 'g' form writes, on whole numbers either side of a million,
+// negative zero, fractions, infinities and NaN.
+func TestAppendShortest(t *testing.T) {
+	vs := []float64{0, math.Copysign(0, -1), 1, -1, 7, 10, 999999, -999999, 1e6, -1e6, 1e6 - 0.5, 123456.5, 0.1, 1e-5, 1e21, math.Inf(1), math.Inf(-1), math.NaN(), 5e-324}
+	for i := -2000; i <= 2000; i++ {
+		vs = append(vs, float64(i), float64(i)*499.75, float64(i)*517)
+	}
+	for _, v := range vs {
+		if got, want := string(appendShortest(nil, v)), strconv.FormatFloat(v, 'g', -1, 64); got != want {
+			t.Fatalf("appendShortest(%v) = %q, strconv gives %q", v, got, want)
+		}
 	}
 }

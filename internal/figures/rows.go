@@ -203,8 +203,13 @@ func distributionRows(f rowSink, d *Distribution, floor int) bool {
 // outlierRow yields one outlier of a distribution: its value.
 func (m *Model) outlierRow(f rowSink, d *Distribution, inst int) bool {
 	col := m.Data.Column(m.Data.Dictionary.Index(d.Indicator), d.Year)
+	return m.outlierValueRow(f, d, inst, col[inst])
+}
+
+// outlierValueRow is outlierRow with the value already read.
+func (m *Model) outlierValueRow(f rowSink, d *Distribution, inst int, v float64) bool {
 	k := Key{Section: SectionDistribution, Group: d.Group, Indicator: d.Indicator, Institution: m.InstitutionID(inst), Year: d.Year, Measure: "outlier"}
-	return emitNum(f, k, col[inst])
+	return emitNum(f, k, v)
 }
 
 // positionRows yields a position's rows.
@@ -472,7 +477,9 @@ func (m *Model) streamDistributions(f rowSink, r *ranks) bool {
 	})
 	type outlier struct {
 		rank int32
+		year int
 		inst int
+		v    float64
 		d    *Distribution
 	}
 	var outs []outlier
@@ -486,15 +493,21 @@ func (m *Model) streamDistributions(f rowSink, r *ranks) bool {
 			if !distributionRows(f, d, m.Floor) {
 				return false
 			}
-			for _, i := range d.Outliers {
-				outs = append(outs, outlier{r.inst[i], i, d})
+			if len(d.Outliers) > 0 {
+				col := m.Data.Column(m.Data.Dictionary.Index(d.Indicator), d.Year)
+				for _, i := range d.Outliers {
+					outs = append(outs, outlier{r.inst[i], d.Year, i, col[i], d})
+				}
 			}
 		}
-		slices.SortStableFunc(outs, func(a, b outlier) int {
-			return cmp.Or(cmp.Compare(a.rank, b.rank), cmp.Compare(a.d.Year, b.d.Year))
+		// (rank, year) is unique within one (group, indicator): an
+		// institution is an outlier of a year's distribution once. So an
+		// unstable sort gives the one order.
+		slices.SortFunc(outs, func(a, b outlier) int {
+			return cmp.Or(cmp.Compare(a.rank, b.rank), cmp.Compare(a.year, b.year))
 		})
 		for _, o := range outs {
-			if !m.outlierRow(f, o.d, o.inst) {
+			if !m.outlierValueRow(f, o.d, o.inst, o.v) {
 				return false
 			}
 		}

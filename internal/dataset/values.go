@@ -203,6 +203,15 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 
 // plainYear is the year of a cell that year accepts without a problem.
 func plainYear(text string) (int, bool) {
+	// Four digits, the year as nearly every file writes it, read
+	// directly; anything else as before.
+	if len(text) == 4 && isDigit(text[0]) && isDigit(text[1]) && isDigit(text[2]) && isDigit(text[3]) {
+		y := int(text[0]-'0')*1000 + int(text[1]-'0')*100 + int(text[2]-'0')*10 + int(text[3]-'0')
+		if y < MinYear || y > MaxYear {
+			return 0, false
+		}
+		return y, true
+	}
 	s := strings.TrimSpace(text)
 	y, err := strconv.Atoi(s)
 	if err != nil {
@@ -606,3 +615,5 @@ func (v *valuesReader) reportUnknown() {
 // maxListedUnknown is how many unknown ids (and keys) are listed one by
 // one, with a suggestion each, before the rest are summed up.
 const maxListedUnknown = 20
+
+func isDigit(c byte) bool { return c >= '0' && c <= '9' }

@@ -66,21 +66,42 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 	}()
 	lastInst, lastInd := 0, 0
 	insts, inds := v.reg.Institutions, v.dict.Indicators
+	nf := len(r.Header())
+	fields, cols := make([]string, nf), make([]int, nf)
+	var row []tabular.Cell
 	for {
-		row, err := r.Next()
-		if errors.Is(err, io.EOF) {
-			break
-		}
-		if err != nil {
-			p.rows = append(p.rows, parsedRow{kind: rowProblem, ref: int32(len(p.problems))})
-			p.problems = append(p.problems, err)
-			continue
+		// Most lines are simple (NextSimple); the others, and a line
+		// the worker hands over whole, are read as cells.
+		line, simple := r.NextSimple(fields, cols)
+		if !simple {
+			var err error
+			row, err = r.Next()
+			if errors.Is(err, io.EOF) {
+				break
+			}
+			if err != nil {
+				p.rows = append(p.rows, parsedRow{kind: rowProblem, ref: int32(len(p.problems))})
+				p.problems = append(p.problems, err)
+				continue
+			}
+			for i, c := range row {
+				fields[i], cols[i] = c.Text, c.Col
+			}
+			line = row[c.vc].Line
 		}
 		whole := func() {
 			p.rows = append(p.rows, parsedRow{kind: rowWhole, ref: int32(len(p.whole))})
-			p.whole = append(p.whole, append([]tabular.Cell(nil), row...))
+			cells := make([]tabular.Cell, nf)
+			if simple {
+				for i := range cells {
+					cells[i] = tabular.Cell{Text: fields[i], Line: line, Col: cols[i]}
+				}
+			} else {
+				copy(cells, row)
+			}
+			p.whole = append(p.whole, cells)
 		}
-		id := strings.TrimSpace(row[c.ic].Text)
+		id := strings.TrimSpace(fields[c.ic])
 		inst := lastInst
 		if inst >= len(insts) || insts[inst].ID != id {
 			if inst = v.reg.Index(id); inst < 0 {
@@ -89,7 +110,7 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 			}
 			lastInst = inst
 		}
-		key := strings.TrimSpace(row[c.kc].Text)
+		key := strings.TrimSpace(fields[c.kc])
 		ind := -1
 		for _, k := range [2]int{lastInd + 1, lastInd} {
 			if k < len(inds) && inds[k].Key == key {
@@ -105,13 +126,12 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 			continue
 		}
 		lastInd = ind
-		year, ok := plainYear(row[c.yc].Text)
+		year, ok := plainYear(fields[c.yc])
 		if !ok {
 			whole()
 			continue
 		}
-		cell := row[c.vc]
-		x, empty, err := tabular.ParseNumber(cell.Text)
+		x, empty, err := tabular.ParseNumber(fields[c.vc])
 		switch {
 		case err != nil:
 			whole()
@@ -123,7 +143,7 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 			continue
 		}
 		p.rows = append(p.rows, parsedRow{x: x, inst: int32(inst), ind: int16(ind), year: int16(year),
-			line: int32(cell.Line), col: int32(cell.Col), kind: rowPlain})
+			line: int32(line), col: int32(cols[c.vc]), kind: rowPlain})
 	}
 	p.failed = r.Failed()
 	return p

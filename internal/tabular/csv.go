@@ -40,6 +40,9 @@ type CSVReader struct {
 	// ascii is set when the data is also all ASCII, where a character
 	// column is a byte offset.
 	plain, ascii bool
+	// simple is set on parts that are also free of carriage returns,
+	// where NextSimple reads most lines.
+	simple bool
 }
 
 // NewCSV checks the encoding of data, reads its header and returns a reader

@@ -50,8 +50,8 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 	// has (every record ends at one, so there are at most this many
 	// records), and is it all ASCII.
 	type scan struct {
-		quote, ascii  bool
-		lines, breaks int
+		quote, ascii, nocr bool
+		lines, breaks      int
 	}
 	scans := make([]scan, len(cuts)-1)
 	var wg sync.WaitGroup
@@ -73,6 +73,7 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 				scans[i].lines += cr - strings.Count(part, "\r\n")
 			}
 			scans[i].ascii = isASCII(part)
+			scans[i].nocr = cr == 0
 		}()
 	}
 	wg.Wait()
@@ -93,7 +94,7 @@ func (r *CSVReader) Split(n int) []*CSVReader {
 		p.data = rest[cuts[i]:cuts[i+1]]
 		p.pos, p.line, p.col = 0, line, 1
 		p.row, p.buf = nil, nil
-		p.plain, p.ascii = true, scans[i].ascii
+		p.plain, p.ascii, p.simple = true, scans[i].ascii, scans[i].ascii && scans[i].nocr
 		parts[i] = &p
 		line += scans[i].lines
 	}
@@ -107,3 +108,51 @@ func (r *CSVReader) Failed() bool { return r.failed }
 
 // Unread is the number of bytes the reader has not read yet.
 func (r *CSVReader) Unread() int { return len(r.data) - r.pos }
+
+// NextSimple reads the next row as Next would when it is a simple line of
+// a part Split made whose data are ASCII without carriage returns: a line
+// (not empty) of exactly len(fields) fields that is no longer than the
+// cell limit. It sets fields to the fields' text and cols to their
+// columns (1-based; a byte offset in ASCII) and returns the line number
+// and true. Otherwise it reads nothing and returns false, and Next reads
+// the row, with its problems. It gives the rows Next gives, faster: one
+// pass over the line, no cells.
+func (r *CSVReader) NextSimple(fields []string, cols []int) (int, bool) {
+	d := r.data
+	start := r.pos
+	if !r.simple || r.done || start >= len(d) || d[start] == '\n' || r.rows >= r.lim.Rows || len(fields) != len(r.header) {
+		return 0, false
+	}
+	end := strings.IndexByte(d[start:], '\n')
+	next := 0
+	if end < 0 {
+		end = len(d)
+	} else {
+		end += start
+		next = end + 1
+	}
+	if int64(end-start) > r.lim.CellBytes {
+		return 0, false
+	}
+	n, at := len(fields), start
+	for k := 0; k < n-1; k++ {
+		j := strings.IndexByte(d[at:end], ',')
+		if j < 0 {
+			return 0, false
+		}
+		fields[k], cols[k] = d[at:at+j], 1+at-start
+		at += j + 1
+	}
+	if strings.IndexByte(d[at:end], ',') >= 0 {
+		return 0, false
+	}
+	fields[n-1], cols[n-1] = d[at:end], 1+at-start
+	line := r.line
+	r.rows++
+	if next == 0 {
+		r.pos, r.col = end, 1+end-start
+	} else {
+		r.pos, r.line, r.col = next, r.line+1, 1
+	}
+	return line, true
+}

@@ -35,6 +35,46 @@ func readAll(rs ...*CSVReader) []string {
 	return out
 }
 
+// readAllSimple is readAll taking each row through NextSimple where it
+// reads one, as the values loader does, and through Next otherwise.
+func readAllSimple(rs ...*CSVReader) []string {
+	out, _ := readCountSimple(rs...)
+	return out
+}
+
+// readCountSimple is readAllSimple that also counts the rows NextSimple
+// read.
+func readCountSimple(rs ...*CSVReader) (out []string, simple int) {
+	for _, r := range rs {
+		n := len(r.Header())
+		fields, cols := make([]string, n), make([]int, n)
+		for {
+			if line, ok := r.NextSimple(fields, cols); ok {
+				row := make([]Cell, n)
+				for i := range row {
+					row[i] = Cell{Text: fields[i], Line: line, Col: cols[i]}
+				}
+				out = append(out, fmt.Sprintf("%+v", row))
+				simple++
+				continue
+			}
+			row, err := r.Next()
+			if errors.Is(err, io.EOF) {
+				break
+			}
+			if err != nil {
+				out = append(out, "error: "+err.Error())
+				continue
+			}
+			out = append(out, fmt.Sprintf("%+v", row))
+		}
+		if r.Failed() {
+			break
+		}
+	}
+	return out, simple
+}
+
 // Reading the parts of a split in order gives exactly what the whole
 // reader gives (the reference: the whole reader, tested on RFC 4180's own
 // examples in csv_test.go), whatever the line ends, empty lines, multi-byte
@@ -44,10 +84,13 @@ func TestSplitReadsAsTheWhole(t *testing.T) {
 	rng := rand.New(rand.NewPCG(4180, 2))
 	words := []string{"KE001", "2024", "fnci", "1.25", "", "Vårdø", "ł€😀", "x y"}
 	ends := []string{"\n", "\r\n", "\r"}
-	lim := limits.Default()
-	lim.CellBytes = 12
-	lim.Columns = 5
+	simple := 0
 	for trial := 0; trial < 300; trial++ {
+		lim := limits.Default()
+		lim.Columns = 5
+		if trial%2 == 0 {
+			lim.CellBytes = 12
+		}
 		var sb strings.Builder
 		sb.WriteString("institution,year,indicator,value")
 		end := ends[trial%3]
@@ -71,7 +114,11 @@ func TestSplitReadsAsTheWhole(t *testing.T) {
 				if f > 0 {
 					sb.WriteByte(',')
 				}
-				sb.WriteString(words[rng.IntN(len(words))])
+				w := words[rng.IntN(len(words))]
+				if trial%4 != 1 && !isASCII(w) {
+					w = "KE002" // ASCII data, where NextSimple reads
+				}
+				sb.WriteString(w)
 			}
 			if rng.IntN(8) > 0 {
 				sb.WriteString(end)
@@ -96,13 +143,22 @@ func TestSplitReadsAsTheWhole(t *testing.T) {
 			if strings.Join(got, "\n") != strings.Join(want, "\n") {
 				t.Fatalf("trial %d, %d parts of %q:\n got %q\nwant %q", trial, n, data, got, want)
 			}
+			r, _ = NewCSVWith("v.csv", data, lim)
+			got, k := readCountSimple(r.Split(n)...)
+			simple += k
+			if strings.Join(got, "\n") != strings.Join(want, "\n") {
+				t.Fatalf("trial %d, %d parts of %q read by NextSimple:\n got %q\nwant %q", trial, n, data, got, want)
+			}
 		}
+	}
+	if simple < 1000 {
+		t.Errorf("NextSimple read only %d rows of the trials", simple)
 	}
 	quoted, _ := NewCSV("q.csv", []byte("a,b\n\"x\ny\",1\n"))
 	if quoted.Split(2) != nil {
 		t.Error("Split cut a file with quoted fields")
 	}
-	lim = limits.Default()
+	lim := limits.Default()
 	lim.Rows = 3
 	many, _ := NewCSVWith("m.csv", []byte("a,b\n1,2\n3,4\n5,6\n7,8\n"), lim)
 	if many.Split(2) != nil {
@@ -126,8 +182,10 @@ func FuzzSplit(f *testing.F) {
 	}
 	f.Fuzz(func(t *testing.T, data []byte, n uint8) {
 		lim := limits.Default()
-		lim.CellBytes = 6
 		lim.Columns = 4
+		if n%2 == 0 {
+			lim.CellBytes = 6
+		}
 		whole, err := NewCSVWith("f.csv", data, lim)
 		if err != nil {
 			return
@@ -141,6 +199,11 @@ func FuzzSplit(f *testing.F) {
 		got := readAll(parts...)
 		if strings.Join(got, "\n") != strings.Join(want, "\n") {
 			t.Fatalf("%q in parts:\n got %q\nwant %q", data, got, want)
+		}
+		r, _ = NewCSVWith("f.csv", data, lim)
+		got = readAllSimple(r.Split(int(n%8) + 2)...)
+		if strings.Join(got, "\n") != strings.Join(want, "\n") {
+			t.Fatalf("%q in parts read by NextSimple:\n got %q\nwant %q", data, got, want)
 		}
 	})
 }

@@ -27,7 +27,7 @@ func plainYearGeneral(text string) (int, bool) {
 func TestPlainYearShortcut(t *testing.T) {
 	texts := []string{"", " 2020", "2020 ", "2020.0", "+2020", "-2020", "20200", "202", "2e3", "0x7E4", "١٢٣٤"}
 	for y := 0; y <= 9999; y++ {
-		texts = append(texts, strconv.Itoa(y), strconv.Itoa(y+10000)[1:])
+		texts = append(texts, strconv.Itoa(y), strconv.Itoa(y + 10000)[1:])
 	}
 	for _, s := range texts {
 		gy, gok := plainYear(s)

@@ -101,7 +101,7 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 			}
 			p.whole = append(p.whole, cells)
 		}
-		id := strings.TrimSpace(fields[c.ic])
+		id := trimSpace(fields[c.ic])
 		inst := lastInst
 		if inst >= len(insts) || insts[inst].ID != id {
 			if inst = v.reg.Index(id); inst < 0 {
@@ -110,7 +110,7 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 			}
 			lastInst = inst
 		}
-		key := strings.TrimSpace(fields[c.kc])
+		key := trimSpace(fields[c.kc])
 		ind := -1
 		for _, k := range [2]int{lastInd + 1, lastInd} {
 			if k < len(inds) && inds[k].Key == key {
@@ -253,4 +253,13 @@ func (v *valuesReader) readLongParts(parts []*tabular.CSVReader, file string, fi
 		}
 	}
 	return rows
+}
+
+// trimSpace is strings.TrimSpace, quicker for the usual field that
+// starts and ends with a printable ASCII character.
+func trimSpace(s string) string {
+	if n := len(s); n > 0 && s[0] > ' ' && s[0] < 0x7f && s[n-1] > ' ' && s[n-1] < 0x7f {
+		return s
+	}
+	return strings.TrimSpace(s)
 }

@@ -316,8 +316,8 @@ func Pack(in *Inputs, created time.Time, version string) (p *Packed, err error) 
 // model, which nothing changes after, so a writer of the figures model
 // reads what the pack shows. pack returns after alongside has.
 //
-// draft leaves the page streams uncompressed: for check, which lays the
-// pack out only to prove that it builds and throws the bytes away.
+// draft lays the pack out without writing its PDF (Packed.PDF is nil):
+// for check, which lays the pack out only to prove that it builds.
 func pack(in *Inputs, created time.Time, version string, alongside func(), draft bool) (p *Packed, err error) {
 	defer func() {
 		if r := recover(); r != nil {

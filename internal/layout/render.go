@@ -44,9 +44,11 @@ type Input struct {
 	// generic one is given). Both go into "About these figures".
 	Sources []provenance.File
 	Rebuild string
-	// Draft leaves the page streams uncompressed (check lays a pack out
-	// to prove it builds and discards the bytes; compression is a fifth
-	// of the layout's time). The pages are the same.
+	// Draft lays the pack out in full, charts drawn, but does not write
+	// the PDF file: RenderFigures returns no bytes. check lays a pack out
+	// to prove it builds and would discard them; writing them (fonts
+	// subset, pages compressed, the file assembled) reads nothing from
+	// the brief or the data that laying out has not used already.
 	Draft bool
 
 	// plans holds the charts planned by an earlier pass of the same
@@ -127,6 +129,9 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	}
 	if want := rec.pages + rec.contentsPages - 1; second.doc.PageNo() != want {
 		return nil, nil, fmt.Errorf("internal error: the two layout passes disagree on the page count (%d, then %d)", want, second.doc.PageNo())
+	}
+	if in.Draft {
+		return nil, second.figures, nil
 	}
 	out, err = second.doc.Bytes()
 	if err != nil {

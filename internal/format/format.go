@@ -23,15 +23,18 @@ func Round(v float64, decimals int) float64 {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
 		return v
 	}
-	if atPrecision(v, clampDecimals(decimals)) {
-		if v == 0 {
-			return 0 // no negative zero
-		}
-		return v
-	}
-	r, ok := roundNear(math.Abs(v), clampDecimals(decimals))
+	d, a := clampDecimals(decimals), math.Abs(v)
+	// By arithmetic where that is sure to give the digit rounding's
+	// result (a value already at its decimals included); else a value
+	// already at its decimals beyond roundNear's range is itself; else
+	// by digits.
+	r, ok := roundNear(a, d)
 	if !ok {
-		r, _ = strconv.ParseFloat(roundString(math.Abs(v), clampDecimals(decimals)), 64)
+		if atPrecision(a, d) {
+			r = a
+		} else {
+			r, _ = strconv.ParseFloat(roundString(a, d), 64)
+		}
 	}
 	if r == 0 {
 		return 0 // no negative zero

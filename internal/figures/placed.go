@@ -82,11 +82,12 @@ func (m *Model) placedColumn(k, year int) []float64 {
 // returns col itself when no value changes.
 func roundColumn(ind dataset.Indicator, col []float64) []float64 {
 	var out []float64
+	dec := ind.Decimals
 	for i, v := range col {
 		if math.IsNaN(v) {
 			continue
 		}
-		r := placedValue(ind, v)
+		r := format.Round(v, dec) // placedValue, without copying ind per value
 		if r == v && out == nil {
 			continue
 		}

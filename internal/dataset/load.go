@@ -2,6 +2,7 @@ package dataset
 
 import (
 	"errors"
+	"io"
 	"io/fs"
 	"math"
 	"path"
@@ -28,11 +29,11 @@ type loader struct {
 	fetched *fetched
 }
 
-// fetched is a file read ahead of its turn.
+// fetched is a file opened ahead of its turn.
 type fetched struct {
 	name string
 	done chan struct{}
-	data []byte
+	r    tabular.RowReader
 	err  error
 }
 
@@ -156,19 +157,24 @@ func (l *loader) load() *Dataset {
 	if !ok {
 		return nil
 	}
-	// The first values file is read while the dictionary and register are
-	// parsed: at world size it is most of the input, and reading it is
-	// mostly the kernel handing out memory.
+	// The first values file is opened, and its first chunks read, while
+	// the dictionary and register are parsed: at world size it is most of
+	// the input (a large file is read as a stream, tabular.OpenStream).
 	if len(data.Values) > 0 && isCSVPath(data.Values[0]) {
 		f := &fetched{name: data.Values[0], done: make(chan struct{})}
 		l.fetched = f
 		go func() {
 			defer close(f.done)
-			f.data, f.err = tabular.ReadFileWith(l.fsys, f.name, l.lim)
+			f.r, f.err = tabular.OpenStream(l.fsys, f.name, l.lim)
 		}()
 		// Loading may stop before the values are read: never leave the
-		// read running behind a returned error.
-		defer func() { <-f.done }()
+		// file open behind a returned error.
+		defer func() {
+			<-f.done
+			if c, ok := f.r.(io.Closer); ok && l.fetched == f {
+				c.Close()
+			}
+		}()
 	}
 	dict, derived := l.dictionary(data.Dictionary)
 	reg := l.register(data.Register)

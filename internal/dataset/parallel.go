@@ -92,12 +92,16 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 		whole := func() {
 			p.rows = append(p.rows, parsedRow{kind: rowWhole, ref: int32(len(p.whole))})
 			cells := make([]tabular.Cell, nf)
+			// Copies: a streamed part's bytes are reused once it is read.
 			if simple {
 				for i := range cells {
-					cells[i] = tabular.Cell{Text: fields[i], Line: line, Col: cols[i]}
+					cells[i] = tabular.Cell{Text: strings.Clone(fields[i]), Line: line, Col: cols[i]}
 				}
 			} else {
-				copy(cells, row)
+				for i, cell := range row {
+					cell.Text = strings.Clone(cell.Text)
+					cells[i] = cell
+				}
 			}
 			p.whole = append(p.whole, cells)
 		}
@@ -149,31 +153,83 @@ func (v *valuesReader) parsePart(r *tabular.CSVReader, c longColumns, buf []pars
 	return p
 }
 
+// partSource gives the parts of a long file in file order: the parts of
+// a whole file split at once, or the chunks of a stream.
+type partSource interface {
+	// next gives the next part, or io.EOF, or the problem that ends
+	// the file; a rest part is read in turn after the rows before it
+	// are counted (tabular.Stream).
+	next() (p *tabular.CSVReader, rest bool, err error)
+	// release says a part's rows (and cells) are done with.
+	release(p *tabular.CSVReader)
+	// stop ends the reading early: next then gives io.EOF.
+	stop()
+}
+
+// splitParts is a partSource over parts made by Split.
+type splitParts struct{ parts []*tabular.CSVReader }
+
+func (s *splitParts) next() (*tabular.CSVReader, bool, error) {
+	if len(s.parts) == 0 {
+		return nil, false, io.EOF
+	}
+	p := s.parts[0]
+	s.parts = s.parts[1:]
+	return p, false, nil
+}
+
+func (s *splitParts) release(*tabular.CSVReader) {}
+func (s *splitParts) stop()                       {}
+
+// streamParts is a partSource over a stream's chunks.
+type streamParts struct{ s *tabular.Stream }
+
+func (s streamParts) next() (*tabular.CSVReader, bool, error) { return s.s.Part() }
+func (s streamParts) release(p *tabular.CSVReader)            { s.s.Release(p) }
+func (s streamParts) stop()                                    { s.s.Close() }
+
+// pending is a part on its way: its parse, or a rest part or a problem
+// for the reader to handle in turn.
+type pending struct {
+	src    *tabular.CSVReader
+	parsed chan *parsedPart
+	rest   bool
+	err    error
+}
+
 // readLongParts parses the parts on every processor and takes their rows
 // in file order, as readLong's loop does. At most a few parts wait at a
 // time, so memory stays bounded whatever the size of the file.
-func (v *valuesReader) readLongParts(parts []*tabular.CSVReader, file string, fileIdx int, c longColumns) int {
+func (v *valuesReader) readLongParts(src partSource, file string, fileIdx int, c longColumns) int {
 	workers := runtime.GOMAXPROCS(0)
-	results := make([]chan *parsedPart, len(parts))
-	for i := range results {
-		results[i] = make(chan *parsedPart, 1)
-	}
-	next := make(chan int)
-	window := make(chan struct{}, 2*workers)
+	order := make(chan pending, 2*workers)
+	jobs := make(chan pending)
 	done := make(chan struct{})
 	// Row buffers of parts already taken are handed back to the workers.
 	free := make(chan []parsedRow, 3*workers)
 	go func() {
-		defer close(next)
-		for i := range parts {
+		defer close(order)
+		defer close(jobs)
+		for {
+			p, rest, err := src.next()
+			if err == io.EOF {
+				return
+			}
+			it := pending{src: p, rest: rest, err: err}
+			if err == nil && !rest {
+				it.parsed = make(chan *parsedPart, 1)
+				select {
+				case jobs <- it:
+				case <-done:
+					return
+				}
+			}
 			select {
-			case window <- struct{}{}:
+			case order <- it:
 			case <-done:
 				return
 			}
-			select {
-			case next <- i:
-			case <-done:
+			if err != nil || rest {
 				return
 			}
 		}
@@ -183,18 +239,21 @@ func (v *valuesReader) readLongParts(parts []*tabular.CSVReader, file string, fi
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for i := range next {
+			for it := range jobs {
 				var buf []parsedRow
 				select {
 				case buf = <-free:
 				default:
 				}
-				results[i] <- v.parsePart(parts[i], c, buf)
+				it.parsed <- v.parsePart(it.src, c, buf)
 			}
 		}()
 	}
 	defer func() {
 		close(done)
+		src.stop()
+		for range order { // let the feeder see done
+		}
 		wg.Wait()
 	}()
 	// The staged columns by year and indicator, once store has made them:
@@ -207,9 +266,25 @@ func (v *valuesReader) readLongParts(parts []*tabular.CSVReader, file string, fi
 	}
 	var byYear [MaxYear - MinYear + 1][]column
 	rows := 0
-	for i := range parts {
-		p := <-results[i]
-		<-window
+	var read int64 // rows the parts have read, for a rest part's limit
+	for it := range order {
+		if it.err != nil {
+			v.l.probs.Add(it.err)
+			return rows
+		}
+		var p *parsedPart
+		if it.rest {
+			// The rest of a stream: read here, in turn.
+			it.src.SetRowsBefore(read)
+			p = v.parsePart(it.src, c, nil)
+		} else {
+			p = <-it.parsed
+		}
+		if it.rest {
+			read = it.src.RowsRead()
+		} else {
+			read += it.src.RowsRead()
+		}
 		for _, pr := range p.rows {
 			if pr.kind == rowProblem {
 				v.l.probs.Add(p.problems[pr.ref])
@@ -244,6 +319,7 @@ func (v *valuesReader) readLongParts(parts []*tabular.CSVReader, file string, fi
 				cols[pr.ind] = column{v.st.vals[sl][pr.ind], v.st.where[sl][pr.ind]}
 			}
 		}
+		src.release(it.src)
 		if p.failed {
 			break
 		}

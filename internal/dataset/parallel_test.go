@@ -8,10 +8,13 @@ import (
 	"runtime"
 	"strings"
 	"testing"
+
+	"peerpack/internal/tabular"
 )
 
-// The parallel reading of a long values file must give exactly what
-// reading it row by row gives (the reference here: the row-by-row reader,
+// The parallel reading of a long values file, whole or streamed in chunks
+// (and a stream read row by row), must give exactly what reading it whole
+// row by row gives (the reference here: the row-by-row reader,
 // whose messages and positions the catalogue tests pin down): the same
 // values bit for bit, the same report and the same problems in the same
 // order, over rows the workers settle and rows with every kind of
@@ -26,37 +29,48 @@ func TestParallelLongReadingMatchesRowByRow(t *testing.T) {
 			brief := strings.ReplaceAll(parallelBrief, "\n", "\n")
 			prev := runtime.GOMAXPROCS(1)
 			d1, r1, err1 := load(t, brief, files)
-			runtime.GOMAXPROCS(4)
-			d4, r4, err4 := load(t, brief, files)
-			runtime.GOMAXPROCS(prev)
-			name := fmt.Sprintf("line end %q, problems %v", end, withProblems)
-			if fmt.Sprint(err1) != fmt.Sprint(err4) {
-				t.Fatalf("%s: problems differ\nrow by row: %v\nparallel:   %v", name, err1, err4)
-			}
-			if withProblems && err1 == nil {
-				t.Fatalf("%s: the problems were not found", name)
-			}
-			if d1 == nil || d4 == nil {
-				if (d1 == nil) != (d4 == nil) {
-					t.Fatalf("%s: one reading gave no dataset", name)
+			for _, way := range []string{"parallel", "streamed", "streamed row by row"} {
+				runtime.GOMAXPROCS(4)
+				if way == "streamed row by row" {
+					runtime.GOMAXPROCS(1)
 				}
-				continue
-			}
-			for k := range d1.Dictionary.Indicators {
-				for _, y := range d1.Years {
-					a, b := d1.Column(k, y), d4.Column(k, y)
-					for i := range a {
-						if math.Float64bits(a[i]) != math.Float64bits(b[i]) {
-							t.Fatalf("%s: indicator %d, %d, institution %d: %v row by row, %v in parallel", name, k, y, i, a[i], b[i])
+				sb, sc := tabular.StreamBytes, tabular.StreamChunkBytes
+				if way != "parallel" {
+					// a stream of chunks of about 3,000 bytes
+					tabular.StreamBytes, tabular.StreamChunkBytes = 1, 3000
+				}
+				d4, r4, err4 := load(t, brief, files)
+				tabular.StreamBytes, tabular.StreamChunkBytes = sb, sc
+				runtime.GOMAXPROCS(prev)
+				name := fmt.Sprintf("line end %q, problems %v, %s", end, withProblems, way)
+				if fmt.Sprint(err1) != fmt.Sprint(err4) {
+					t.Fatalf("%s: problems differ\nrow by row: %v\nparallel:   %v", name, err1, err4)
+				}
+				if withProblems && err1 == nil {
+					t.Fatalf("%s: the problems were not found", name)
+				}
+				if d1 == nil || d4 == nil {
+					if (d1 == nil) != (d4 == nil) {
+						t.Fatalf("%s: one reading gave no dataset", name)
+					}
+					continue
+				}
+				for k := range d1.Dictionary.Indicators {
+					for _, y := range d1.Years {
+						a, b := d1.Column(k, y), d4.Column(k, y)
+						for i := range a {
+							if math.Float64bits(a[i]) != math.Float64bits(b[i]) {
+								t.Fatalf("%s: indicator %d, %d, institution %d: %v row by row, %v in parallel", name, k, y, i, a[i], b[i])
+							}
 						}
 					}
 				}
-			}
-			var w1, w4 bytes.Buffer
-			r1.Write(&w1)
-			r4.Write(&w4)
-			if w1.String() != w4.String() {
-				t.Fatalf("%s: reports differ\n%s\n---\n%s", name, w1.String(), w4.String())
+				var w1, w4 bytes.Buffer
+				r1.Write(&w1)
+				r4.Write(&w4)
+				if w1.String() != w4.String() {
+					t.Fatalf("%s: reports differ\n%s\n---\n%s", name, w1.String(), w4.String())
+				}
 			}
 		}
 	}

@@ -84,15 +84,18 @@ func (v *valuesReader) read(name string) {
 	var err error
 	if f := v.l.fetched; f != nil && f.name == name {
 		<-f.done
-		r, err = tabular.OpenRead(name, f.data, f.err, v.l.lim)
-		// read once: the bytes go with the reader
-		f.data, v.l.fetched = nil, nil
+		r, err = f.r, f.err
+		f.r, v.l.fetched = nil, nil // read once
 	} else {
 		r, err = tabular.OpenWith(v.l.fsys, name, v.l.lim)
 	}
 	if err != nil {
 		v.l.probs.Add(err)
 		return
+	}
+	if c, ok := r.(io.Closer); ok {
+		// A stream stops reading ahead when its rows are not all read.
+		defer c.Close()
 	}
 	fileIdx := len(v.st.files)
 	v.st.files = append(v.st.files, r.File())
@@ -157,7 +160,7 @@ func (v *valuesReader) institution(file string, c tabular.Cell) int {
 		return -1
 	}
 	id = strings.Clone(id)
-	v.unknownI[id] = &unknownName{first: c, file: file, count: 1}
+	v.unknownI[id] = &unknownName{first: lasting(c), file: file, count: 1}
 	v.order = append(v.order, "i:"+id)
 	return -1
 }
@@ -176,7 +179,7 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 				u.count++
 			} else {
 				key = strings.Clone(key)
-				v.derivedK[key] = &unknownName{first: c, file: file, count: 1}
+				v.derivedK[key] = &unknownName{first: lasting(c), file: file, count: 1}
 				v.order = append(v.order, "d:"+key)
 			}
 			return -1
@@ -196,7 +199,7 @@ func (v *valuesReader) indicator(file string, c tabular.Cell) int {
 		return -1
 	}
 	key = strings.Clone(key)
-	v.unknownK[key] = &unknownName{first: c, file: file, count: 1}
+	v.unknownK[key] = &unknownName{first: lasting(c), file: file, count: 1}
 	v.order = append(v.order, "k:"+key)
 	return -1
 }
@@ -394,10 +397,16 @@ func (v *valuesReader) readLong(r tabular.RowReader, fileIdx int, col map[string
 		}
 	}
 	cols := longColumns{ic: ic, yc: yc, kc: kc, vc: vc, nc: nc, hasNote: hasNote}
-	if cr, ok := r.(*tabular.CSVReader); ok && !hasNote && runtime.GOMAXPROCS(0) > 1 && cr.Unread() >= parallelBytes &&
-		len(v.dict.Indicators) <= math.MaxInt16 {
-		if parts := cr.Split(cr.Unread() / partBytes); parts != nil {
-			return v.readLongParts(parts, file, fileIdx, cols)
+	if !hasNote && runtime.GOMAXPROCS(0) > 1 && len(v.dict.Indicators) <= math.MaxInt16 {
+		switch r := r.(type) {
+		case *tabular.Stream:
+			return v.readLongParts(streamParts{r}, file, fileIdx, cols)
+		case *tabular.CSVReader:
+			if r.Unread() >= parallelBytes {
+				if parts := r.Split(r.Unread() / partBytes); parts != nil {
+					return v.readLongParts(&splitParts{parts}, file, fileIdx, cols)
+				}
+			}
 		}
 	}
 	rows := 0
@@ -527,7 +536,7 @@ func (v *valuesReader) full(file string, c tabular.Cell) bool {
 		return false
 	}
 	if v.otherRows == 0 {
-		v.otherFirst, v.otherFile = c, file
+		v.otherFirst, v.otherFile = lasting(c), file
 	}
 	v.otherRows++
 	return true
@@ -617,3 +626,10 @@ func (v *valuesReader) reportUnknown() {
 const maxListedUnknown = 20
 
 func isDigit(c byte) bool { return c >= '0' && c <= '9' }
+
+// lasting is a cell whose text no longer refers into the file's bytes,
+// which a streamed file reuses (tabular.Stream), for keeping past its row.
+func lasting(c tabular.Cell) tabular.Cell {
+	c.Text = strings.Clone(c.Text)
+	return c
+}

@@ -20,6 +20,7 @@ import (
 	"io/fs"
 	"slices"
 	"sync"
+	"sync/atomic"
 )
 
 var castagnoli = crc32.MakeTable(crc32.Castagnoli)
@@ -118,17 +119,17 @@ type file struct {
 	name string
 	h    hash.Hash32
 	n    int64
-	bad  bool // read out of order (ReadAt, Seek): no checksum
+	bad  atomic.Bool // read out of order (ReadAt, Seek): no checksum; ReadAt may run on several goroutines at once
 	done bool
 }
 
 func (f *file) Read(p []byte) (int, error) {
 	n, err := f.File.Read(p)
-	if n > 0 && !f.bad {
+	if n > 0 && !f.bad.Load() {
 		f.h.Write(p[:n])
 		f.n += int64(n)
 	}
-	if err == io.EOF && !f.bad && !f.done {
+	if err == io.EOF && !f.bad.Load() && !f.done {
 		f.done = true
 		f.r.mu.Lock()
 		f.r.files[f.name] = File{Name: f.name, Size: f.n, CRC32C: f.h.Sum32()}
@@ -144,7 +145,7 @@ func (f *file) ReadAt(p []byte, off int64) (int, error) {
 	if !ok {
 		return 0, fmt.Errorf("%s: ReadAt: %w", f.name, errors.ErrUnsupported)
 	}
-	f.bad = true
+	f.bad.Store(true)
 	return ra.ReadAt(p, off)
 }
 
@@ -154,7 +155,7 @@ func (f *file) Seek(off int64, whence int) (int64, error) {
 		return 0, fmt.Errorf("%s: Seek not supported", f.name)
 	}
 	if !(off == 0 && whence == io.SeekCurrent) {
-		f.bad = true
+		f.bad.Store(true)
 	}
 	return s.Seek(off, whence)
 }

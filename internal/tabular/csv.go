@@ -43,6 +43,8 @@ type CSVReader struct {
 	// simple is set on parts that are also free of carriage returns,
 	// where NextSimple reads most lines.
 	simple bool
+	// release is the chunk a streamed part reads (Stream.Release).
+	release []byte
 }
 
 // NewCSV checks the encoding of data, reads its header and returns a reader
@@ -86,6 +88,11 @@ func NewCSVWith(file string, data []byte, lim limits.Limits) (*CSVReader, error)
 // or above on its own is almost always Latin-1 (ISO 8859-1) or
 // Windows-1252 text, so the message shows the character it would be.
 func encodingProblem(file string, data []byte) error {
+	return encodingProblemAt(file, data, 1)
+}
+
+// encodingProblemAt is encodingProblem for data starting at line first.
+func encodingProblemAt(file string, data []byte, first int) error {
 	off := 0
 	for off < len(data) {
 		r, n := utf8.DecodeRune(data[off:])
@@ -95,7 +102,7 @@ func encodingProblem(file string, data []byte) error {
 		off += n
 	}
 	lineStart := bytes.LastIndexByte(data[:off], '\n') + 1
-	line := 1 + bytes.Count(data[:off], []byte("\n"))
+	line := first + bytes.Count(data[:off], []byte("\n"))
 	col := 1 + utf8.RuneCount(data[lineStart:off])
 	b := data[off]
 	guess := ""

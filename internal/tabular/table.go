@@ -76,13 +76,6 @@ func OpenWith(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
 	return open(name, lim, func(file string) ([]byte, error) { return readFile(fsys, file, lim) })
 }
 
-// OpenRead is OpenWith for a file whose bytes (or the problem reading
-// them) ReadFileWith has already given, so that a large file can be read
-// while other files are parsed.
-func OpenRead(name string, data []byte, readErr error, lim limits.Limits) (RowReader, error) {
-	return open(name, lim, func(string) ([]byte, error) { return data, readErr })
-}
-
 // ReadFileWith reads the file a CSV path names, with OpenWith's checks of
 // kind and size, for OpenRead.
 func ReadFileWith(fsys fs.FS, name string, lim limits.Limits) ([]byte, error) {

@@ -179,14 +179,14 @@ func (s *splitParts) next() (*tabular.CSVReader, bool, error) {
 }
 
 func (s *splitParts) release(*tabular.CSVReader) {}
-func (s *splitParts) stop()                       {}
+func (s *splitParts) stop()                      {}
 
 // streamParts is a partSource over a stream's chunks.
 type streamParts struct{ s *tabular.Stream }
 
 func (s streamParts) next() (*tabular.CSVReader, bool, error) { return s.s.Part() }
 func (s streamParts) release(p *tabular.CSVReader)            { s.s.Release(p) }
-func (s streamParts) stop()                                    { s.s.Close() }
+func (s streamParts) stop()                                   { s.s.Close() }
 
 // pending is a part on its way: its parse, or a rest part or a problem
 // for the reader to handle in turn.

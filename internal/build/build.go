@@ -28,6 +28,7 @@ import (
 	"peerpack/internal/dataset"
 	"peerpack/internal/diag"
 	"peerpack/internal/figures"
+	"peerpack/internal/heaphint"
 	"peerpack/internal/format"
 	"peerpack/internal/layout"
 	"peerpack/internal/limits"
@@ -128,6 +129,10 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		// Front matter problems make loading the data pointless.
 		return nil, probs.Err()
 	}
+	// Advise huge pages for the heap before it grows (heaphint): about
+	// three times the values files' size, and at least what any pack
+	// takes.
+	heaphint.Reserve(3 * valuesBytes(src.FS, b))
 	rec := provenance.New(src.FS)
 	// The report's data summary is for check alone: CheckBuild computes
 	// it beside the pack, a build never.
@@ -159,6 +164,19 @@ func LoadWith(src Source, override func(*brief.Brief), lim limits.Limits) (*Inpu
 		return nil, probs.Err()
 	}
 	return &Inputs{Brief: b, Data: d, Report: rep, Figures: m, FS: src.FS, Sources: rec.Files(), Rebuild: src.Rebuild}, nil
+}
+
+// valuesBytes is the size of the values files the brief names (0 for
+// any it cannot see; loading reports those).
+func valuesBytes(fsys fs.FS, b *brief.Brief) int64 {
+	var n int64
+	for _, v := range b.Data.Values {
+		file, _, _ := strings.Cut(v, "#")
+		if fi, err := fs.Stat(fsys, file); err == nil && fi.Mode().IsRegular() {
+			n += fi.Size()
+		}
+	}
+	return n
 }
 
 // readBrief checks the brief's kind and size before reading it (a named

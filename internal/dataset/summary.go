@@ -296,14 +296,24 @@ func (l *loader) jumps(d *Dataset, ind int, note func(string, float64, func() Su
 	for inst := range d.Register.Institutions {
 		series = series[:0]
 		sorted = sorted[:0]
+		lo, hi := math.Inf(1), 0.0
 		for y := range d.Years {
 			v := d.cols[ind*len(d.Years)+y][inst]
 			series = append(series, v)
 			if !math.IsNaN(v) && v > 0 {
 				sorted = append(sorted, v)
+				lo, hi = min(lo, v), max(hi, v)
 			}
 		}
 		if len(sorted) < 3 {
+			continue
+		}
+		// Every median of the others lies between the smallest and the
+		// largest value, so when those two are within JumpFactor every
+		// ratio is (rounded division is monotonic; the mean of two
+		// middle values cannot overflow below MaxFloat64/2): most
+		// institutions need no sort.
+		if hi <= math.MaxFloat64/2 && hi/lo <= JumpFactor && 1/(lo/hi) <= JumpFactor {
 			continue
 		}
 		slices.Sort(sorted)

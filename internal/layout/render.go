@@ -45,7 +45,8 @@ type Input struct {
 	Sources []provenance.File
 	Rebuild string
 	// Draft lays the pack out in full, charts drawn, but does not write
-	// the PDF file: RenderFigures returns no bytes. check lays a pack out
+	// the PDF file (nor copy the drawn charts into its pages):
+	// RenderFigures returns no bytes. check lays a pack out
 	// to prove it builds and would discard them; writing them (fonts
 	// subset, pages compressed, the file assembled) reads nothing from
 	// the brief or the data that laying out has not used already.

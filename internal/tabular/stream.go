@@ -172,12 +172,14 @@ func (s *Stream) produce(f fs.File, rd *chunkReader, hr *CSVReader, first []byte
 				return
 			}
 			buf = chunk
-			if !utf8.Valid(chunk) {
-				send(streamItem{err: encodingProblemAt(s.file, chunk, line)})
-				return
-			}
 		}
 		part, lines, nb, ok := s.part(unsafeString(chunk), line)
+		// ASCII is UTF-8; other text is checked (the first chunk was, by
+		// NewCSVWith).
+		if ok && part != nil && !part.ascii && !utf8.Valid(chunk) {
+			send(streamItem{err: encodingProblemAt(s.file, chunk, line)})
+			return
+		}
 		if !ok || breaks+nb+1 > s.lim.Rows {
 			// The rest of the file is read whole, in turn.
 			data, err := rd.rest(chunk)

@@ -242,8 +242,7 @@ func (m *Model) column(g *Group, k int, buf, pbuf []float64) (columnResult, []fl
 		dist := &Distribution{Group: g.Name, Indicator: ind.Key, Year: year}
 		// Mean and SD first, in register order, so their last digits do not
 		// depend on how selection reorders the values.
-		dist.Mean, dist.SD = stats.MeanSD(vals)
-		dist.Skewness = stats.Skewness(vals)
+		dist.Mean, dist.SD, dist.Skewness = stats.MeanSDSkewness(vals)
 		for j, inst := range m.Named {
 			targets[j] = pcol[inst]
 		}

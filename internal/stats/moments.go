@@ -93,6 +93,42 @@ func Skewness(x []float64) float64 {
 	return math.Sqrt(nf*(nf-1)) / (nf - 2) * g1
 }
 
+// MeanSDSkewness is MeanSD and Skewness of the same values at once: one
+// mean, and one pass for both sums of powers. Every operation is the one
+// the two functions do, in the same order, so the results are the same
+// bit for bit (TestMeanSDSkewnessSameBits).
+func MeanSDSkewness(x []float64) (mean, sd, skew float64) {
+	n := len(x)
+	mean = Mean(x)
+	if n < 2 {
+		return mean, math.NaN(), math.NaN()
+	}
+	ss, c, m3 := 0.0, 0.0, 0.0
+	for _, v := range x {
+		d := v - mean
+		dd := d * d
+		ss += dd
+		c += d
+		m3 += dd * d
+	}
+	variance := (ss - c*c/float64(n)) / float64(n-1)
+	if variance < 0 {
+		variance = 0
+	}
+	sd = math.Sqrt(variance)
+	if n < 3 {
+		return mean, sd, math.NaN()
+	}
+	m2 := ss / float64(n)
+	m3 /= float64(n)
+	if m2 == 0 {
+		return mean, sd, math.NaN()
+	}
+	g1 := m3 / math.Pow(m2, 1.5)
+	nf := float64(n)
+	return mean, sd, math.Sqrt(nf*(nf-1)) / (nf - 2) * g1
+}
+
 // SkewCaution: an absolute sample skewness above 2 makes z-scores and
 // means poor summaries of an indicator (a threshold commonly used in
 // composite-indicator audits, from memory).

@@ -180,6 +180,18 @@ func (m *Model) compute() error {
 		return failure
 	}
 
+	// Sized once: growing maps of this many entries rehashes them over
+	// and over.
+	nd, np, nt := 0, 0, 0
+	for _, res := range results {
+		nd, np, nt = nd+len(res.dists), np+len(res.poss), nt+len(res.trends)
+	}
+	if len(m.dist)+len(m.pos)+len(m.trend)+len(m.gtrend) == 0 { // a fresh model, as Compute makes
+		m.dist = make(map[distKey]*Distribution, nd)
+		m.pos = make(map[posKey]*Position, np)
+		m.trend = make(map[trendKey]*Trend, nt)
+		m.gtrend = make(map[gtrendKey]*GroupTrend, len(results))
+	}
 	for _, res := range results {
 		for _, d := range res.dists {
 			m.dist[distKey{d.Group, d.Indicator, d.Year}] = d

@@ -52,8 +52,7 @@ type Stream struct {
 
 	// reading side
 	cur      *CSVReader // serial reading: the part being read
-	curItem  streamItem
-	rows     int64 // rows read so far by Next
+	rows     int64      // rows read so far by Next
 	finished bool
 	failed   bool
 }

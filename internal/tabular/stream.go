@@ -17,10 +17,11 @@ import (
 // stream of chunks instead of whole: a world-sized values file (180 MB)
 // is then never held at once, and no memory is handed out for it beyond
 // a few chunks, which on a virtual machine costs more than parsing.
-var StreamBytes int64 = 32 << 20
+var StreamBytes int64 = 4 << 20
 
-// StreamChunkBytes is the size of one chunk, and so about the size of a
-// part (tests make it small).
+// StreamChunkBytes is the largest chunk, and so about the size of a
+// part (tests make it small); a smaller file is cut in at least eight
+// chunks of 256 KiB or more, so that every processor has parts to parse.
 var StreamChunkBytes = 2 << 20
 
 // A Stream reads a large CSV file chunk by chunk, each chunk cut just
@@ -85,11 +86,15 @@ func OpenStream(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
 	}
 	s := &Stream{file: name, lim: lim}
 	rd := &chunkReader{f: f, name: name, lim: lim}
-	first, err := rd.next(make([]byte, 0, StreamChunkBytes))
+	chunk := StreamChunkBytes
+	if c := st.Size() / 8; c < int64(chunk) {
+		chunk = int(min(max(c, 256<<10), int64(chunk)))
+	}
+	first, err := rd.next(make([]byte, 0, chunk))
 	// The first chunk holds the whole header line (after any empty lines).
 	for err == nil && !holdsHeader(first) && !rd.eof {
 		var more []byte
-		more, err = rd.next(make([]byte, 0, StreamChunkBytes))
+		more, err = rd.next(make([]byte, 0, chunk))
 		first = append(first, more...)
 	}
 	if err == io.EOF && len(first) > 0 {
@@ -129,7 +134,7 @@ func OpenStream(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
 	s.stop = make(chan struct{})
 	s.ended = make(chan struct{})
 	for range n {
-		s.free <- make([]byte, 0, StreamChunkBytes)
+		s.free <- make([]byte, 0, chunk)
 	}
 	go s.produce(f, rd, hr, first)
 	return s, nil

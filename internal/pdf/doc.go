@@ -10,7 +10,6 @@
 package pdf
 
 import (
-	"bytes"
 	"fmt"
 	"image/color"
 	"strings"
@@ -69,7 +68,9 @@ func New(opt Options) *Doc {
 		UnitStr:        "mm",
 		Size:           fpdf.SizeType{Wd: opt.Paper.Width, Ht: opt.Paper.Height},
 	})
-	f.SetCompression(!opt.NoCompression)
+	// Streams are compressed when the document is written (Bytes,
+	// deflateStreams), not by fpdf.
+	f.SetCompression(false)
 	f.SetMargins(opt.Margins.Left, opt.Margins.Top, opt.Margins.Right)
 	// Page breaks are the layout's decision, never fpdf's.
 	f.SetAutoPageBreak(false, opt.Margins.Bottom)
@@ -172,13 +173,42 @@ func (d *Doc) Bytes() ([]byte, error) {
 	if err := d.f.Error(); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
-	var buf bytes.Buffer
-	if err := d.f.Output(&buf); err != nil {
+	// fpdf hands its whole buffer over in one Write: keep it rather than
+	// copy it (fpdf writes nothing more once the document is closed).
+	var whole keepWriter
+	if err := d.f.Output(&whole); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
-	out, err := finishStructure(tagSubsets(buf.Bytes()))
+	raw := whole.b
+	if !d.opt.NoCompression {
+		var err error
+		if raw, err = deflateStreams(raw); err != nil {
+			return nil, fmt.Errorf("the PDF's pages could not be compressed: %w", err)
+		}
+	}
+	out, err := finishStructure(tagSubsets(raw))
 	if err != nil {
 		return nil, fmt.Errorf("the PDF's structure could not be completed: %w", err)
 	}
 	return out, nil
+}
+
+// keepWriter keeps what it is given: the slice itself from a single
+// Write, a copy once a second one comes.
+type keepWriter struct {
+	b      []byte
+	copied bool
+}
+
+func (k *keepWriter) Write(p []byte) (int, error) {
+	switch {
+	case k.b == nil:
+		k.b = p
+	case !k.copied:
+		k.b = append(append(make([]byte, 0, len(k.b)+len(p)), k.b...), p...)
+		k.copied = true
+	default:
+		k.b = append(k.b, p...)
+	}
+	return len(p), nil
 }

@@ -32,6 +32,16 @@ type Canvas struct {
 	font   Font // the document's font before the canvas opened
 	// rec, when set, receives the drawing instead of the document (Record).
 	rec *Recording
+	// colourOps are the colour operators of the two colours set last,
+	// latest first: charts alternate a mark's fill and outline, and
+	// formatting the six numbers every time was a visible share of
+	// drawing a scatter.
+	colourOps [2]colourOp
+}
+
+type colourOp struct {
+	rgb color.NRGBA // alpha zero: the operators do not carry it
+	op  string
 }
 
 type canvasState struct {
@@ -223,13 +233,29 @@ func (c *Canvas) SetColor(clr color.Color) {
 	n := color.NRGBAModel.Convert(clr).(color.NRGBA)
 	st := c.top()
 	st.stroke, st.fill = n, n
-	rgb := num(float64(n.R)/255) + " " + num(float64(n.G)/255) + " " + num(float64(n.B)/255)
-	c.raw(rgb + " RG " + rgb + " rg")
+	c.raw(c.colourOp(n))
 	a := math.Round(float64(n.A)/255*1000) / 1000
 	if a != st.alpha {
 		st.alpha = a
 		c.onDoc(func(d *Doc) { d.f.SetAlpha(a, "Normal") })
 	}
+}
+
+// colourOp returns "r g b RG r g b rg" for n's colour.
+func (c *Canvas) colourOp(n color.NRGBA) string {
+	n.A = 0
+	for i, k := range c.colourOps {
+		if k.op != "" && k.rgb == n {
+			if i > 0 {
+				c.colourOps[0], c.colourOps[1] = k, c.colourOps[0]
+			}
+			return k.op
+		}
+	}
+	rgb := num(float64(n.R)/255) + " " + num(float64(n.G)/255) + " " + num(float64(n.B)/255)
+	k := colourOp{rgb: n, op: rgb + " RG " + rgb + " rg"}
+	c.colourOps[1], c.colourOps[0] = c.colourOps[0], k
+	return k.op
 }
 
 // Rotate implements vg.Canvas (radians, anticlockwise).

@@ -154,3 +154,42 @@ func TestRecordingReplaysByteForByte(t *testing.T) {
 		}
 	}
 }
+
+// The colour operators a canvas keeps are those it would format afresh,
+// whatever the order colours come in.
+func TestColourOpsKeptAsFormatted(t *testing.T) {
+	plain := func(n color.NRGBA) string {
+		rgb := num(float64(n.R)/255) + " " + num(float64(n.G)/255) + " " + num(float64(n.B)/255)
+		return rgb + " RG " + rgb + " rg"
+	}
+	cols := []color.NRGBA{{0, 114, 178, 255}, {230, 159, 0, 255}, {0, 114, 178, 128}, {0, 0, 0, 0}, {255, 255, 255, 255}, {0, 0, 0, 255}, {1, 2, 3, 4}}
+	c := Record(10, 10)
+	for i := range 200 {
+		n := cols[(i*i+i/3)%len(cols)]
+		if got, want := c.colourOp(n), plain(n); got != want {
+			t.Fatalf("step %d, %v: %q, formatted afresh %q", i, n, got, want)
+		}
+	}
+}
+
+// BenchmarkCanvasMarks records 640 scatter marks, each filled in one
+// colour and outlined in another, as a scatter chart draws them.
+func BenchmarkCanvasMarks(b *testing.B) {
+	fill, edge := color.NRGBA{0, 114, 178, 230}, color.NRGBA{0, 80, 125, 255}
+	for b.Loop() {
+		c := Record(170, 100)
+		for i := range 640 {
+			x, y := vg.Length(i%400), vg.Length(i/4)
+			var p vg.Path
+			p.Move(vg.Point{X: x + 2, Y: y})
+			p.Arc(vg.Point{X: x, Y: y}, 2, 0, 2*math.Pi)
+			p.Close()
+			c.SetColor(fill)
+			c.Fill(p)
+			c.SetColor(edge)
+			c.SetLineWidth(0.6)
+			c.Stroke(p)
+		}
+		c.Close()
+	}
+}

@@ -37,6 +37,11 @@ type Canvas struct {
 	// formatting the six numbers every time was a visible share of
 	// drawing a scatter.
 	colourOps [2]colourOp
+	// lastPath and lastOps are the path written last and its operators
+	// before the painting one: a mark is filled, then outlined along the
+	// same path, and the second time its numbers need no formatting.
+	lastPath vg.Path
+	lastOps  []byte
 }
 
 type colourOp struct {
@@ -327,6 +332,10 @@ func (w *pathWriter) op(s string) {
 }
 
 func (c *Canvas) path(p vg.Path, op string) {
+	if c.lastOps != nil && samePath(p, c.lastPath) {
+		c.paint(append(append(c.buf[:0], c.lastOps...), op...))
+		return
+	}
 	w := &pathWriter{b: c.buf[:0]}
 	var cur, start vg.Point
 	open := false
@@ -378,13 +387,50 @@ func (c *Canvas) path(p vg.Path, op string) {
 	if !open {
 		return
 	}
-	w.b = append(w.b, op...)
-	c.buf = w.b
+	c.lastOps = append(c.lastOps[:0], w.b...)
+	c.lastPath = clonePath(c.lastPath[:0], p)
+	c.paint(append(w.b, op...))
+}
+
+// paint writes one path's operators, the painting one last.
+func (c *Canvas) paint(b []byte) {
+	c.buf = b
 	if c.rec != nil {
-		c.rec.pending = append(append(c.rec.pending, w.b...), '\n') // as raw, without a string
+		c.rec.pending = append(append(c.rec.pending, b...), '\n') // as raw, without a string
 		return
 	}
-	c.raw(string(w.b))
+	c.raw(string(b))
+}
+
+// samePath reports whether a and b have the same components.
+func samePath(a, b vg.Path) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		x, y := &a[i], &b[i]
+		if x.Type != y.Type || x.Pos != y.Pos || x.Radius != y.Radius || x.Start != y.Start || x.Angle != y.Angle || len(x.Control) != len(y.Control) {
+			return false
+		}
+		for j := range x.Control {
+			if x.Control[j] != y.Control[j] {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// clonePath appends a deep copy of p to dst (the caller may change p's
+// control points later).
+func clonePath(dst, p vg.Path) vg.Path {
+	for _, comp := range p {
+		if comp.Control != nil {
+			comp.Control = append([]vg.Point(nil), comp.Control...)
+		}
+		dst = append(dst, comp)
+	}
+	return dst
 }
 
 func lineOrMove(open bool) string {

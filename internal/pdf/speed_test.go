@@ -193,3 +193,55 @@ func BenchmarkCanvasMarks(b *testing.B) {
 		c.Close()
 	}
 }
+
+// A path drawn again (a mark filled, then outlined) writes the operators
+// it wrote the first time, and a path changed in place after drawing is
+// formatted afresh.
+func TestRepeatedPathAsFormatted(t *testing.T) {
+	draw := func(keep bool) ([]byte, int) {
+		c := Record(100, 100)
+		hits := 0
+		ctrl := []vg.Point{{X: 1, Y: 2}, {X: 3, Y: 4}}
+		var shared vg.Path
+		shared.Move(vg.Point{X: 0, Y: 0})
+		shared = append(shared, vg.PathComp{Type: vg.CurveComp, Pos: vg.Point{X: 5, Y: 5}, Control: ctrl})
+		for i := range 60 {
+			var p vg.Path
+			switch i % 4 {
+			case 0, 1:
+				p.Move(vg.Point{X: vg.Length(i / 4), Y: 1})
+				p.Arc(vg.Point{X: vg.Length(i/4) - 2, Y: 1}, 2, 0, 2*math.Pi)
+				p.Close()
+			case 2:
+				p = shared
+			case 3:
+				ctrl[1].X += 0.5 // the shared path changes in place
+				p = shared
+			}
+			if !keep {
+				c.lastOps = nil
+			} else if c.lastOps != nil && samePath(p, c.lastPath) {
+				hits++
+			}
+			if i%2 == 0 {
+				c.Fill(p)
+			} else {
+				c.Stroke(p)
+			}
+		}
+		c.Close()
+		var all []byte
+		for _, op := range c.Recording().ops {
+			all = append(all, op.raw...)
+		}
+		return all, hits
+	}
+	kept, hits := draw(true)
+	fresh, _ := draw(false)
+	if !bytes.Equal(kept, fresh) || !bytes.Contains(kept, []byte(" c h S")) {
+		t.Errorf("operators differ when paths are kept:\n%s\nformatted afresh:\n%s", kept, fresh)
+	}
+	if hits != 15 {
+		t.Errorf("%d paths reused, want 15 (each arc mark's outline)", hits)
+	}
+}

@@ -68,9 +68,7 @@ func New(opt Options) *Doc {
 		UnitStr:        "mm",
 		Size:           fpdf.SizeType{Wd: opt.Paper.Width, Ht: opt.Paper.Height},
 	})
-	// Streams are compressed when the document is written (Bytes,
-	// deflateStreams), not by fpdf.
-	f.SetCompression(false)
+	f.SetCompression(!opt.NoCompression)
 	f.SetMargins(opt.Margins.Left, opt.Margins.Top, opt.Margins.Right)
 	// Page breaks are the layout's decision, never fpdf's.
 	f.SetAutoPageBreak(false, opt.Margins.Bottom)
@@ -179,14 +177,7 @@ func (d *Doc) Bytes() ([]byte, error) {
 	if err := d.f.Output(&whole); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
-	raw := whole.b
-	if !d.opt.NoCompression {
-		var err error
-		if raw, err = deflateStreams(raw); err != nil {
-			return nil, fmt.Errorf("the PDF's pages could not be compressed: %w", err)
-		}
-	}
-	out, err := finishStructure(tagSubsets(raw))
+	out, err := finishStructure(tagSubsets(whole.b))
 	if err != nil {
 		return nil, fmt.Errorf("the PDF's structure could not be completed: %w", err)
 	}

@@ -245,3 +245,18 @@ func TestRepeatedPathAsFormatted(t *testing.T) {
 		t.Errorf("%d paths reused, want 15 (each arc mark's outline)", hits)
 	}
 }
+
+// keepWriter holds exactly what was written, in one Write or several.
+func TestKeepWriterKeepsEveryWrite(t *testing.T) {
+	for _, parts := range [][]string{{"%PDF-1.4 one write"}, {"a", "bc", "", "def"}, {}} {
+		var k keepWriter
+		for _, p := range parts {
+			if n, err := k.Write([]byte(p)); n != len(p) || err != nil {
+				t.Fatalf("Write(%q) = %d, %v", p, n, err)
+			}
+		}
+		if got, want := string(k.b), strings.Join(parts, ""); got != want {
+			t.Errorf("kept %q, want %q", got, want)
+		}
+	}
+}

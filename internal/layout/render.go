@@ -50,10 +50,13 @@ type Input struct {
 	Draft bool
 
 	// plans holds the charts planned by an earlier pass of the same
-	// render (nil: plan afresh); predraw the final pass's charts being
-	// drawn ahead of it (nil: draw in line).
+	// render (nil: plan afresh); predraw the charts being drawn ahead of
+	// the final pass (nil: draw in line).
 	plans   *chartPlans
 	predraw *predraw
+	// feedPredraw hands each chart to predraw as the pass sizes it (the
+	// first measuring pass).
+	feedPredraw bool
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief
@@ -78,7 +81,14 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	// Every pass sets the same charts from the same model: plan each once
 	// (charts.New, and the measuring each chart caches by width).
 	in.plans = &chartPlans{byBlock: map[*brief.ChartBlock]chartPlan{}}
-	first, err := pass(in, nil, nil)
+	// The charts are drawn ahead of the final pass, which sets the text,
+	// on the other processors: from the moment the first measuring pass
+	// sizes each one.
+	in.predraw = newPredraw(in.plans)
+	defer in.predraw.finish()
+	feeding := in
+	feeding.feedPredraw = true
+	first, err := pass(feeding, nil, nil)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -116,10 +126,9 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	}
 	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
-	// The charts are drawn ahead of the final pass, which sets the text,
-	// on the other processors.
-	in.predraw = startPredraw(first.sized, in.plans)
-	defer in.predraw.finish()
+	// Charts a later measuring pass set at another size are drawn ahead
+	// at the size the final pass will use.
+	in.predraw.addSized(first.sized)
 	second, err := pass(in, rec, plan)
 	in.predraw.finish()
 	if err != nil {

@@ -53,6 +53,9 @@ type Doc struct {
 	plain    map[int]bool
 	images   int
 	canvasOn bool
+	// footerDone: the last page's footer is drawn (deflatePages), so
+	// fpdf's Close must not draw it again.
+	footerDone bool
 }
 
 // New starts an empty document.
@@ -109,6 +112,9 @@ func New(opt Options) *Doc {
 		}
 	}, false)
 	f.SetFooterFunc(func() {
+		if d.footerDone {
+			return
+		}
 		if d.footer != nil && !d.plain[f.PageNo()] {
 			d.footer(d, f.PageNo())
 		}
@@ -171,13 +177,29 @@ func (d *Doc) Bytes() ([]byte, error) {
 	if err := d.f.Error(); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
+	// The pages are compressed here, on every processor, rather than by
+	// fpdf page after page (deflate.go).
+	deflated := false
+	if !d.opt.NoCompression {
+		var err error
+		if deflated, err = d.deflatePages(); err != nil {
+			return nil, fmt.Errorf("the PDF's pages could not be compressed: %w", err)
+		}
+	}
 	// fpdf hands its whole buffer over in one Write: keep it rather than
 	// copy it (fpdf writes nothing more once the document is closed).
 	var whole keepWriter
 	if err := d.f.Output(&whole); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
-	out, err := finishStructure(tagSubsets(whole.b))
+	raw := whole.b
+	if deflated {
+		var err error
+		if raw, err = markDeflated(raw); err != nil {
+			return nil, fmt.Errorf("the PDF's compressed pages could not be marked: %w", err)
+		}
+	}
+	out, err := finishStructure(tagSubsets(raw))
 	if err != nil {
 		return nil, fmt.Errorf("the PDF's structure could not be completed: %w", err)
 	}

@@ -8,6 +8,7 @@ import (
 
 	"peerpack/internal/brief"
 	"peerpack/internal/narrative"
+	"peerpack/internal/pdf"
 )
 
 // With two processors the brief's charts are drawn ahead of the final
@@ -97,4 +98,35 @@ func TestChartsDrawnAheadThroughRuntPasses(t *testing.T) {
 		return
 	}
 	t.Fatal("no paragraph count made the section end on a runt page; the test no longer exercises the passes")
+}
+
+// The final pass's document is made ahead with the faces the first pass
+// registered; should one of them go unused in the final pass (here a face
+// the fixture never sets, added on purpose), the final pass is laid out
+// again on a fresh document, so the file never embeds a font more than
+// the pack uses and stays the one made on one processor.
+func TestPreparedDocumentNeverAddsAFont(t *testing.T) {
+	in := fixtureInput(t, 120)
+	render := func(procs int) []byte {
+		prev := runtime.GOMAXPROCS(procs)
+		defer runtime.GOMAXPROCS(prev)
+		out, err := Render(in)
+		if err != nil {
+			t.Fatalf("GOMAXPROCS=%d: %v", procs, err)
+		}
+		return out
+	}
+	one := render(1)
+	if two := render(2); !bytes.Equal(one, two) {
+		t.Fatal("the pack laid out on a prepared document differs from the one made on one processor")
+	}
+	extra := pdf.Font{Family: pdf.Mono, Style: pdf.Bold}
+	testExtraFace = &extra
+	defer func() { testExtraFace = nil }()
+	if two := render(2); !bytes.Equal(one, two) {
+		t.Fatal("a face prepared but unused changed the pack")
+	}
+	if bytes.Contains(one, []byte("+liberationmonoB")) {
+		t.Fatal("the fixture sets bold mono text; choose another unused face")
+	}
 }

@@ -57,6 +57,11 @@ type Input struct {
 	// feedPredraw hands each chart to predraw as the pass sizes it (the
 	// first measuring pass).
 	feedPredraw bool
+	// doc, when set, is the document the pass lays out on (made ahead,
+	// with faces registered); onNewFace hears of each face the pass's
+	// document registers.
+	doc       *pdf.Doc
+	onNewFace func(pdf.Font)
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief
@@ -88,7 +93,31 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	defer in.predraw.finish()
 	feeding := in
 	feeding.feedPredraw = true
+	// The final pass's document is made on another processor meanwhile,
+	// and given each face the first pass registers (parsing a font is
+	// most of the cost of a document's first lines).
+	var faces chan pdf.Font
+	var prepared chan *pdf.Doc
+	if in.predraw != nil {
+		if opts, err := docOptions(in); err == nil {
+			faces, prepared = make(chan pdf.Font, 64), make(chan *pdf.Doc, 1)
+			go func() {
+				d := pdf.New(opts)
+				for f := range faces {
+					d.AddFace(f)
+				}
+				if testExtraFace != nil {
+					d.AddFace(*testExtraFace)
+				}
+				prepared <- d
+			}()
+			feeding.onNewFace = func(f pdf.Font) { faces <- f }
+		}
+	}
 	first, err := pass(feeding, nil, nil)
+	if faces != nil {
+		close(faces)
+	}
 	if err != nil {
 		return nil, nil, err
 	}
@@ -129,7 +158,17 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	// Charts a later measuring pass set at another size are drawn ahead
 	// at the size the final pass will use.
 	in.predraw.addSized(first.sized)
-	second, err := pass(in, rec, plan)
+	final := in
+	if prepared != nil {
+		final.doc = <-prepared
+	}
+	second, err := pass(final, rec, plan)
+	if err == nil && final.doc != nil && len(second.doc.UnusedFaces()) > 0 {
+		// fpdf embeds every registered face: a face the first pass used
+		// and the final one did not would be one more font in the file,
+		// so the final pass is laid out again on a fresh document.
+		second, err = pass(in, rec, plan)
+	}
 	in.predraw.finish()
 	if err != nil {
 		return nil, nil, err
@@ -144,32 +183,25 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	return out, second.figures, nil
 }
 
+// testExtraFace, when a test sets it, is registered in the final pass's
+// prepared document as if the first pass had used it.
+var testExtraFace *pdf.Font
+
 // pass runs one layout pass; known is nil in the first. plan, which may
 // be nil, tightens sections that would end on a runt page.
 func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 	b := in.Brief
-	paper, err := pdf.PaperByName(b.Theme.Paper)
+	opts, err := docOptions(in)
 	if err != nil {
-		p := b.PosOf("theme.paper")
-		return nil, diag.At(b.File, p.Line, p.Column, "%v", err)
+		return nil, err
 	}
-	margins := pdf.DefaultMargins
-	if mg := b.Theme.Margins; mg != nil {
-		margins = pdf.Margins{Top: orDefault(mg.Top, margins.Top), Bottom: orDefault(mg.Bottom, margins.Bottom), Left: orDefault(mg.Left, margins.Left), Right: orDefault(mg.Right, margins.Right)}
-		if err := checkMargins(b, paper, margins); err != nil {
-			return nil, err
-		}
+	doc := in.doc
+	if doc == nil {
+		doc = pdf.New(opts)
 	}
-	producer := "peerpack"
-	if in.Version != "" {
-		producer += " " + in.Version
+	if in.onNewFace != nil {
+		doc.OnNewFace(in.onNewFace)
 	}
-	doc := pdf.New(pdf.Options{
-		Paper: paper, Margins: margins,
-		Title: b.Title, Author: author(b), Subject: subject(in), Keywords: b.Keywords,
-		Creator: producer, Producer: producer, Lang: b.Language, Created: in.Created,
-		NoCompression: in.Draft,
-	})
 	w := &writer{
 		in: in, b: b, m: in.Model, com: in.Commentary, doc: doc, st: newStyle(b.Theme.Font, b.Theme.Accent),
 		src: b.Body, known: known, measuring: known == nil, colGap: 8, cols: 1,
@@ -191,6 +223,33 @@ func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 		return nil, fmt.Errorf("the PDF could not be laid out: %v", err)
 	}
 	return w, w.problems.Err()
+}
+
+// docOptions are the document settings every pass uses.
+func docOptions(in Input) (pdf.Options, error) {
+	b := in.Brief
+	paper, err := pdf.PaperByName(b.Theme.Paper)
+	if err != nil {
+		p := b.PosOf("theme.paper")
+		return pdf.Options{}, diag.At(b.File, p.Line, p.Column, "%v", err)
+	}
+	margins := pdf.DefaultMargins
+	if mg := b.Theme.Margins; mg != nil {
+		margins = pdf.Margins{Top: orDefault(mg.Top, margins.Top), Bottom: orDefault(mg.Bottom, margins.Bottom), Left: orDefault(mg.Left, margins.Left), Right: orDefault(mg.Right, margins.Right)}
+		if err := checkMargins(b, paper, margins); err != nil {
+			return pdf.Options{}, err
+		}
+	}
+	producer := "peerpack"
+	if in.Version != "" {
+		producer += " " + in.Version
+	}
+	return pdf.Options{
+		Paper: paper, Margins: margins,
+		Title: b.Title, Author: author(b), Subject: subject(in), Keywords: b.Keywords,
+		Creator: producer, Producer: producer, Lang: b.Language, Created: in.Created,
+		NoCompression: in.Draft,
+	}, nil
 }
 
 func orDefault(v, d float64) float64 {

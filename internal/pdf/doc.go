@@ -46,6 +46,10 @@ type Doc struct {
 	f        *fpdf.Fpdf
 	opt      Options
 	fonts    map[Font]bool // registered family+style (size 0)
+	// used are the faces SetFont selected; onNewFace, when set, hears of
+	// each face SetFont registers (Faces, AddFace).
+	used      map[Font]bool
+	onNewFace func(Font)
 	cur      Font
 	text     color.RGBA
 	header   Furniture
@@ -105,7 +109,7 @@ func New(opt Options) *Doc {
 		f.SetLang(opt.Lang)
 	}
 	f.SetDisplayMode("fullpage", "continuous")
-	d := &Doc{f: f, opt: opt, fonts: map[Font]bool{}, plain: map[int]bool{}}
+	d := &Doc{f: f, opt: opt, fonts: map[Font]bool{}, used: map[Font]bool{}, plain: map[int]bool{}}
 	f.SetHeaderFuncMode(func() {
 		if d.header != nil && !d.plain[f.PageNo()] {
 			d.header(d, f.PageNo())

@@ -260,3 +260,27 @@ func TestKeepWriterKeepsEveryWrite(t *testing.T) {
 		}
 	}
 }
+
+// A face added ahead is listed as unused until SetFont selects it; one
+// reaching the file unused would be embedded all the same.
+func TestUnusedFaces(t *testing.T) {
+	d := New(Options{})
+	d.AddPage()
+	if u := d.UnusedFaces(); len(u) != 0 {
+		t.Fatalf("fresh document: %v unused", u)
+	}
+	var heard []Font
+	d.OnNewFace(func(f Font) { heard = append(heard, f) })
+	d.AddFace(Font{Family: Serif, Style: Bold, Size: 12})
+	if u := d.UnusedFaces(); len(u) != 1 || u[0] != (Font{Family: Serif, Style: Bold}) {
+		t.Fatalf("after AddFace: %v unused", u)
+	}
+	d.SetFont(Font{Family: Serif, Style: Bold, Size: 9})
+	d.SetFont(Font{Family: Sans, Style: Italic, Size: 9})
+	if u := d.UnusedFaces(); len(u) != 0 {
+		t.Errorf("after SetFont: %v unused", u)
+	}
+	if len(heard) != 1 || heard[0] != (Font{Family: Sans, Style: Italic}) {
+		t.Errorf("OnNewFace heard %v, want only the face SetFont registered", heard)
+	}
+}

@@ -43,20 +43,20 @@ type Furniture func(d *Doc, page int)
 
 // Doc is a pack document under construction.
 type Doc struct {
-	f        *fpdf.Fpdf
-	opt      Options
-	fonts    map[Font]bool // registered family+style (size 0)
+	f     *fpdf.Fpdf
+	opt   Options
+	fonts map[Font]bool // registered family+style (size 0)
 	// used are the faces SetFont selected; onNewFace, when set, hears of
 	// each face SetFont registers (Faces, AddFace).
 	used      map[Font]bool
 	onNewFace func(Font)
-	cur      Font
-	text     color.RGBA
-	header   Furniture
-	footer   Furniture
-	plain    map[int]bool
-	images   int
-	canvasOn bool
+	cur       Font
+	text      color.RGBA
+	header    Furniture
+	footer    Furniture
+	plain     map[int]bool
+	images    int
+	canvasOn  bool
 	// footerDone: the last page's footer is drawn (deflatePages), so
 	// fpdf's Close must not draw it again.
 	footerDone bool

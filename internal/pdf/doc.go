@@ -47,7 +47,7 @@ type Doc struct {
 	opt   Options
 	fonts map[Font]bool // registered family+style (size 0)
 	// used are the faces SetFont selected; onNewFace, when set, hears of
-	// each face SetFont registers (Faces, AddFace).
+	// each face SetFont registers (AddFace, UnusedFaces).
 	used      map[Font]bool
 	onNewFace func(Font)
 	cur       Font

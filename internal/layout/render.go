@@ -15,6 +15,7 @@ import (
 	"fmt"
 	"io/fs"
 	"peerpack/internal/provenance"
+	"sync"
 	"time"
 
 	"github.com/yuin/goldmark/ast"
@@ -98,26 +99,35 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	// most of the cost of a document's first lines).
 	var faces chan pdf.Font
 	var prepared chan *pdf.Doc
+	endFaces := func() {}
+	defer func() { endFaces() }() // also when a pass panics
 	if in.predraw != nil {
 		if opts, err := docOptions(in); err == nil {
 			faces, prepared = make(chan pdf.Font, 64), make(chan *pdf.Doc, 1)
 			go func() {
-				d := pdf.New(opts)
+				var d *pdf.Doc
+				defer func() {
+					if recover() != nil {
+						d = nil // the final pass makes its own document
+						for range faces {
+						}
+					}
+					prepared <- d
+				}()
+				d = pdf.New(opts)
 				for f := range faces {
 					d.AddFace(f)
 				}
 				if testExtraFace != nil {
 					d.AddFace(*testExtraFace)
 				}
-				prepared <- d
 			}()
 			feeding.onNewFace = func(f pdf.Font) { faces <- f }
+			endFaces = sync.OnceFunc(func() { close(faces) })
 		}
 	}
 	first, err := pass(feeding, nil, nil)
-	if faces != nil {
-		close(faces)
-	}
+	endFaces()
 	if err != nil {
 		return nil, nil, err
 	}
@@ -160,7 +170,7 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	in.predraw.addSized(first.sized)
 	final := in
 	if prepared != nil {
-		final.doc = <-prepared
+		final.doc = <-prepared // nil if it could not be made
 	}
 	second, err := pass(final, rec, plan)
 	if err == nil && final.doc != nil && len(second.doc.UnusedFaces()) > 0 {

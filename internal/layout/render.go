@@ -46,8 +46,8 @@ type Input struct {
 	Sources []provenance.File
 	Rebuild string
 	// Draft leaves the page streams uncompressed (check lays a pack out
-	// to prove it builds and discards the bytes; compression is a fifth
-	// of the layout's time). The pages are the same.
+	// to prove it builds and discards the bytes, so compressing them
+	// would be wasted). The pages are the same.
 	Draft bool
 
 	// plans holds the charts planned by an earlier pass of the same

@@ -4,7 +4,6 @@ import (
 	"image/color"
 
 	xfont "golang.org/x/image/font"
-	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
@@ -131,7 +130,7 @@ func (th Theme) text(size float64, bold bool, c color.Color) text.Style {
 		Font:    th.font(size, bold),
 		XAlign:  draw.XLeft,
 		YAlign:  draw.YBottom,
-		Handler: plot.DefaultTextHandler,
+		Handler: chartText,
 	}
 }
 

@@ -86,7 +86,13 @@ func (w *writer) planChart(cb *brief.ChartBlock) (charts.Chart, error) {
 		return charts.New(w.m, cb, w.chartTheme())
 	}
 	if p, ok := ps.byBlock[cb]; ok {
-		if !w.measuring {
+		// A worker may be drawing it (handed over by the first measuring
+		// pass): let it finish before the chart is asked anything. A
+		// measuring pass drops a drawing not yet started rather than make
+		// it in line.
+		if w.measuring {
+			w.in.predraw.hold(cb)
+		} else {
 			w.in.predraw.settle(cb)
 		}
 		return p.ch, p.err
@@ -205,7 +211,11 @@ func (w *writer) setCharts(row []placed, half bool) {
 		}
 		y = top + titleH
 		if w.measuring {
-			w.sized = append(w.sized, sizedChart{spec: p.spec, ch: p.ch, width: width, height: heights[i]})
+			s := sizedChart{spec: p.spec, ch: p.ch, width: width, height: heights[i]}
+			w.sized = append(w.sized, s)
+			if w.in.feedPredraw {
+				w.in.predraw.add(s)
+			}
 		} else {
 			if err := w.drawChart(p, x, y, width, heights[i]); err != nil {
 				w.chartProblem(p.spec, err)

@@ -15,6 +15,7 @@ import (
 	"fmt"
 	"io/fs"
 	"peerpack/internal/provenance"
+	"sync"
 	"time"
 
 	"github.com/yuin/goldmark/ast"
@@ -53,10 +54,18 @@ type Input struct {
 	Draft bool
 
 	// plans holds the charts planned by an earlier pass of the same
-	// render (nil: plan afresh); predraw the final pass's charts being
-	// drawn ahead of it (nil: draw in line).
+	// render (nil: plan afresh); predraw the charts being drawn ahead of
+	// the final pass (nil: draw in line).
 	plans   *chartPlans
 	predraw *predraw
+	// feedPredraw hands each chart to predraw as the pass sizes it (the
+	// first measuring pass).
+	feedPredraw bool
+	// doc, when set, is the document the pass lays out on (made ahead,
+	// with faces registered); onNewFace hears of each face the pass's
+	// document registers.
+	doc       *pdf.Doc
+	onNewFace func(pdf.Font)
 }
 
 // Render lays out the pack and returns the PDF. Problems in the brief
@@ -81,7 +90,47 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	// Every pass sets the same charts from the same model: plan each once
 	// (charts.New, and the measuring each chart caches by width).
 	in.plans = &chartPlans{byBlock: map[*brief.ChartBlock]chartPlan{}}
-	first, err := pass(in, nil, nil)
+	// The charts are drawn ahead of the final pass, which sets the text,
+	// on the other processors: from the moment the first measuring pass
+	// sizes each one.
+	in.predraw = newPredraw(in.plans)
+	defer in.predraw.finish()
+	feeding := in
+	feeding.feedPredraw = true
+	// The final pass's document is made on another processor meanwhile,
+	// and given each face the first pass registers (parsing a font is
+	// most of the cost of a document's first lines).
+	var faces chan pdf.Font
+	var prepared chan *pdf.Doc
+	endFaces := func() {}
+	defer func() { endFaces() }() // also when a pass panics
+	if in.predraw != nil {
+		if opts, err := docOptions(in); err == nil {
+			faces, prepared = make(chan pdf.Font, 64), make(chan *pdf.Doc, 1)
+			go func() {
+				var d *pdf.Doc
+				defer func() {
+					if recover() != nil {
+						d = nil // the final pass makes its own document
+						for range faces {
+						}
+					}
+					prepared <- d
+				}()
+				d = pdf.New(opts)
+				for f := range faces {
+					d.AddFace(f)
+				}
+				if testExtraFace != nil {
+					d.AddFace(*testExtraFace)
+				}
+			}()
+			feeding.onNewFace = func(f pdf.Font) { faces <- f }
+			endFaces = sync.OnceFunc(func() { close(faces) })
+		}
+	}
+	first, err := pass(feeding, nil, nil)
+	endFaces()
 	if err != nil {
 		return nil, nil, err
 	}
@@ -119,11 +168,20 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	}
 	rec := &passRecord{headings: first.headings, pages: first.doc.PageNo(),
 		contentsPages: contentsPageCount(first.headings, first.doc.ContentTop(), first.doc.ContentBottom())}
-	// The charts are drawn ahead of the final pass, which sets the text,
-	// on the other processors.
-	in.predraw = startPredraw(first.sized, in.plans)
-	defer in.predraw.finish()
-	second, err := pass(in, rec, plan)
+	// Charts a later measuring pass set at another size are drawn ahead
+	// at the size the final pass will use.
+	in.predraw.addSized(first.sized)
+	final := in
+	if prepared != nil {
+		final.doc = <-prepared // nil if it could not be made
+	}
+	second, err := pass(final, rec, plan)
+	if err == nil && !in.Draft && final.doc != nil && len(second.doc.UnusedFaces()) > 0 {
+		// fpdf embeds every registered face: a face the first pass used
+		// and the final one did not would be one more font in the file,
+		// so the final pass is laid out again on a fresh document.
+		second, err = pass(in, rec, plan)
+	}
 	in.predraw.finish()
 	if err != nil {
 		return nil, nil, err
@@ -141,32 +199,25 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	return out, second.figures, nil
 }
 
+// testExtraFace, when a test sets it, is registered in the final pass's
+// prepared document as if the first pass had used it.
+var testExtraFace *pdf.Font
+
 // pass runs one layout pass; known is nil in the first. plan, which may
 // be nil, tightens sections that would end on a runt page.
 func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 	b := in.Brief
-	paper, err := pdf.PaperByName(b.Theme.Paper)
+	opts, err := docOptions(in)
 	if err != nil {
-		p := b.PosOf("theme.paper")
-		return nil, diag.At(b.File, p.Line, p.Column, "%v", err)
+		return nil, err
 	}
-	margins := pdf.DefaultMargins
-	if mg := b.Theme.Margins; mg != nil {
-		margins = pdf.Margins{Top: orDefault(mg.Top, margins.Top), Bottom: orDefault(mg.Bottom, margins.Bottom), Left: orDefault(mg.Left, margins.Left), Right: orDefault(mg.Right, margins.Right)}
-		if err := checkMargins(b, paper, margins); err != nil {
-			return nil, err
-		}
+	doc := in.doc
+	if doc == nil {
+		doc = pdf.New(opts)
 	}
-	producer := "peerpack"
-	if in.Version != "" {
-		producer += " " + in.Version
+	if in.onNewFace != nil {
+		doc.OnNewFace(in.onNewFace)
 	}
-	doc := pdf.New(pdf.Options{
-		Paper: paper, Margins: margins,
-		Title: b.Title, Author: author(b), Subject: subject(in), Keywords: b.Keywords,
-		Creator: producer, Producer: producer, Lang: b.Language, Created: in.Created,
-		NoCompression: in.Draft,
-	})
 	w := &writer{
 		in: in, b: b, m: in.Model, com: in.Commentary, doc: doc, st: newStyle(b.Theme.Font, b.Theme.Accent),
 		src: b.Body, known: known, measuring: known == nil, colGap: 8, cols: 1,
@@ -188,6 +239,33 @@ func pass(in Input, known *passRecord, plan *fitPlan) (*writer, error) {
 		return nil, fmt.Errorf("the PDF could not be laid out: %v", err)
 	}
 	return w, w.problems.Err()
+}
+
+// docOptions are the document settings every pass uses.
+func docOptions(in Input) (pdf.Options, error) {
+	b := in.Brief
+	paper, err := pdf.PaperByName(b.Theme.Paper)
+	if err != nil {
+		p := b.PosOf("theme.paper")
+		return pdf.Options{}, diag.At(b.File, p.Line, p.Column, "%v", err)
+	}
+	margins := pdf.DefaultMargins
+	if mg := b.Theme.Margins; mg != nil {
+		margins = pdf.Margins{Top: orDefault(mg.Top, margins.Top), Bottom: orDefault(mg.Bottom, margins.Bottom), Left: orDefault(mg.Left, margins.Left), Right: orDefault(mg.Right, margins.Right)}
+		if err := checkMargins(b, paper, margins); err != nil {
+			return pdf.Options{}, err
+		}
+	}
+	producer := "peerpack"
+	if in.Version != "" {
+		producer += " " + in.Version
+	}
+	return pdf.Options{
+		Paper: paper, Margins: margins,
+		Title: b.Title, Author: author(b), Subject: subject(in), Keywords: b.Keywords,
+		Creator: producer, Producer: producer, Lang: b.Language, Created: in.Created,
+		NoCompression: in.Draft,
+	}, nil
 }
 
 func orDefault(v, d float64) float64 {

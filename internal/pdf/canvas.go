@@ -32,6 +32,21 @@ type Canvas struct {
 	font   Font // the document's font before the canvas opened
 	// rec, when set, receives the drawing instead of the document (Record).
 	rec *Recording
+	// colourOps are the colour operators of the two colours set last,
+	// latest first: charts alternate a mark's fill and outline, and
+	// formatting the six numbers every time was a visible share of
+	// drawing a scatter.
+	colourOps [2]colourOp
+	// lastPath and lastOps are the path written last and its operators
+	// before the painting one: a mark is filled, then outlined along the
+	// same path, and the second time its numbers need no formatting.
+	lastPath vg.Path
+	lastOps  []byte
+}
+
+type colourOp struct {
+	rgb color.NRGBA // alpha zero: the operators do not carry it
+	op  string
 }
 
 type canvasState struct {
@@ -223,13 +238,29 @@ func (c *Canvas) SetColor(clr color.Color) {
 	n := color.NRGBAModel.Convert(clr).(color.NRGBA)
 	st := c.top()
 	st.stroke, st.fill = n, n
-	rgb := num(float64(n.R)/255) + " " + num(float64(n.G)/255) + " " + num(float64(n.B)/255)
-	c.raw(rgb + " RG " + rgb + " rg")
+	c.raw(c.colourOp(n))
 	a := math.Round(float64(n.A)/255*1000) / 1000
 	if a != st.alpha {
 		st.alpha = a
 		c.onDoc(func(d *Doc) { d.f.SetAlpha(a, "Normal") })
 	}
+}
+
+// colourOp returns "r g b RG r g b rg" for n's colour.
+func (c *Canvas) colourOp(n color.NRGBA) string {
+	n.A = 0
+	for i, k := range c.colourOps {
+		if k.op != "" && k.rgb == n {
+			if i > 0 {
+				c.colourOps[0], c.colourOps[1] = k, c.colourOps[0]
+			}
+			return k.op
+		}
+	}
+	rgb := num(float64(n.R)/255) + " " + num(float64(n.G)/255) + " " + num(float64(n.B)/255)
+	k := colourOp{rgb: n, op: rgb + " RG " + rgb + " rg"}
+	c.colourOps[1], c.colourOps[0] = c.colourOps[0], k
+	return k.op
 }
 
 // Rotate implements vg.Canvas (radians, anticlockwise).
@@ -301,6 +332,10 @@ func (w *pathWriter) op(s string) {
 }
 
 func (c *Canvas) path(p vg.Path, op string) {
+	if c.lastOps != nil && samePath(p, c.lastPath) {
+		c.paint(append(append(c.buf[:0], c.lastOps...), op...))
+		return
+	}
 	w := &pathWriter{b: c.buf[:0]}
 	var cur, start vg.Point
 	open := false
@@ -352,13 +387,50 @@ func (c *Canvas) path(p vg.Path, op string) {
 	if !open {
 		return
 	}
-	w.b = append(w.b, op...)
-	c.buf = w.b
+	c.lastOps = append(c.lastOps[:0], w.b...)
+	c.lastPath = clonePath(c.lastPath[:0], p)
+	c.paint(append(w.b, op...))
+}
+
+// paint writes one path's operators, the painting one last.
+func (c *Canvas) paint(b []byte) {
+	c.buf = b
 	if c.rec != nil {
-		c.rec.pending = append(append(c.rec.pending, w.b...), '\n') // as raw, without a string
+		c.rec.pending = append(append(c.rec.pending, b...), '\n') // as raw, without a string
 		return
 	}
-	c.raw(string(w.b))
+	c.raw(string(b))
+}
+
+// samePath reports whether a and b have the same components.
+func samePath(a, b vg.Path) bool {
+	if len(a) != len(b) {
+		return false
+	}
+	for i := range a {
+		x, y := &a[i], &b[i]
+		if x.Type != y.Type || x.Pos != y.Pos || x.Radius != y.Radius || x.Start != y.Start || x.Angle != y.Angle || len(x.Control) != len(y.Control) {
+			return false
+		}
+		for j := range x.Control {
+			if x.Control[j] != y.Control[j] {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// clonePath appends a deep copy of p to dst (the caller may change p's
+// control points later).
+func clonePath(dst, p vg.Path) vg.Path {
+	for _, comp := range p {
+		if comp.Control != nil {
+			comp.Control = append([]vg.Point(nil), comp.Control...)
+		}
+		dst = append(dst, comp)
+	}
+	return dst
 }
 
 func lineOrMove(open bool) string {

@@ -10,7 +10,6 @@
 package pdf
 
 import (
-	"bytes"
 	"fmt"
 	"image/color"
 	"strings"
@@ -44,16 +43,23 @@ type Furniture func(d *Doc, page int)
 
 // Doc is a pack document under construction.
 type Doc struct {
-	f        *fpdf.Fpdf
-	opt      Options
-	fonts    map[Font]bool // registered family+style (size 0)
-	cur      Font
-	text     color.RGBA
-	header   Furniture
-	footer   Furniture
-	plain    map[int]bool
-	images   int
-	canvasOn bool
+	f     *fpdf.Fpdf
+	opt   Options
+	fonts map[Font]bool // registered family+style (size 0)
+	// used are the faces SetFont selected; onNewFace, when set, hears of
+	// each face SetFont registers (AddFace, UnusedFaces).
+	used      map[Font]bool
+	onNewFace func(Font)
+	cur       Font
+	text      color.RGBA
+	header    Furniture
+	footer    Furniture
+	plain     map[int]bool
+	images    int
+	canvasOn  bool
+	// footerDone: the last page's footer is drawn (deflatePages), so
+	// fpdf's Close must not draw it again.
+	footerDone bool
 }
 
 // New starts an empty document.
@@ -103,13 +109,16 @@ func New(opt Options) *Doc {
 		f.SetLang(opt.Lang)
 	}
 	f.SetDisplayMode("fullpage", "continuous")
-	d := &Doc{f: f, opt: opt, fonts: map[Font]bool{}, plain: map[int]bool{}}
+	d := &Doc{f: f, opt: opt, fonts: map[Font]bool{}, used: map[Font]bool{}, plain: map[int]bool{}}
 	f.SetHeaderFuncMode(func() {
 		if d.header != nil && !d.plain[f.PageNo()] {
 			d.header(d, f.PageNo())
 		}
 	}, false)
 	f.SetFooterFunc(func() {
+		if d.footerDone {
+			return
+		}
 		if d.footer != nil && !d.plain[f.PageNo()] {
 			d.footer(d, f.PageNo())
 		}
@@ -172,13 +181,51 @@ func (d *Doc) Bytes() ([]byte, error) {
 	if err := d.f.Error(); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
-	var buf bytes.Buffer
-	if err := d.f.Output(&buf); err != nil {
+	// The pages are compressed here, on every processor, rather than by
+	// fpdf page after page (deflate.go).
+	deflated := false
+	if !d.opt.NoCompression {
+		var err error
+		if deflated, err = d.deflatePages(); err != nil {
+			return nil, fmt.Errorf("the PDF's pages could not be compressed: %w", err)
+		}
+	}
+	// fpdf hands its whole buffer over in one Write: keep it rather than
+	// copy it (fpdf writes nothing more once the document is closed).
+	var whole keepWriter
+	if err := d.f.Output(&whole); err != nil {
 		return nil, fmt.Errorf("the PDF could not be written: %w", err)
 	}
-	out, err := finishStructure(tagSubsets(buf.Bytes()))
+	raw := whole.b
+	if deflated {
+		var err error
+		if raw, err = markDeflated(raw); err != nil {
+			return nil, fmt.Errorf("the PDF's compressed pages could not be marked: %w", err)
+		}
+	}
+	out, err := finishStructure(tagSubsets(raw))
 	if err != nil {
 		return nil, fmt.Errorf("the PDF's structure could not be completed: %w", err)
 	}
 	return out, nil
+}
+
+// keepWriter keeps what it is given: the slice itself from a single
+// Write, a copy once a second one comes.
+type keepWriter struct {
+	b      []byte
+	copied bool
+}
+
+func (k *keepWriter) Write(p []byte) (int, error) {
+	switch {
+	case k.b == nil:
+		k.b = p
+	case !k.copied:
+		k.b = append(append(make([]byte, 0, len(k.b)+len(p)), k.b...), p...)
+		k.copied = true
+	default:
+		k.b = append(k.b, p...)
+	}
+	return len(p), nil
 }

@@ -19,6 +19,16 @@ import (
 
 func sampleDoc(t testing.TB, paper Paper) []byte {
 	t.Helper()
+	out, err := sampleDocument(t, paper).Bytes()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return out
+}
+
+// sampleDocument is sampleDoc's document before it is written.
+func sampleDocument(t testing.TB, paper Paper) *Doc {
+	t.Helper()
 	d := New(Options{
 		Paper: paper, Title: "Position of Université de Saint-Éluard", Author: "Planning Office",
 		Subject: "Peer comparison", Keywords: []string{"peers", "benchmark"}, Lang: "en-GB",
@@ -55,11 +65,7 @@ func sampleDoc(t testing.TB, paper Paper) []byte {
 	p.Draw(draw.New(c))
 	c.Close()
 	d.Text(20, 140, "after the chart")
-	out, err := d.Bytes()
-	if err != nil {
-		t.Fatal(err)
-	}
-	return out
+	return d
 }
 
 func TestDocumentPassesValidators(t *testing.T) {

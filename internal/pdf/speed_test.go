@@ -154,3 +154,133 @@ func TestRecordingReplaysByteForByte(t *testing.T) {
 		}
 	}
 }
+
+// The colour operators a canvas keeps are those it would format afresh,
+// whatever the order colours come in.
+func TestColourOpsKeptAsFormatted(t *testing.T) {
+	plain := func(n color.NRGBA) string {
+		rgb := num(float64(n.R)/255) + " " + num(float64(n.G)/255) + " " + num(float64(n.B)/255)
+		return rgb + " RG " + rgb + " rg"
+	}
+	cols := []color.NRGBA{{0, 114, 178, 255}, {230, 159, 0, 255}, {0, 114, 178, 128}, {0, 0, 0, 0}, {255, 255, 255, 255}, {0, 0, 0, 255}, {1, 2, 3, 4}}
+	c := Record(10, 10)
+	for i := range 200 {
+		n := cols[(i*i+i/3)%len(cols)]
+		if got, want := c.colourOp(n), plain(n); got != want {
+			t.Fatalf("step %d, %v: %q, formatted afresh %q", i, n, got, want)
+		}
+	}
+}
+
+// BenchmarkCanvasMarks records 640 scatter marks, each filled in one
+// colour and outlined in another, as a scatter chart draws them.
+func BenchmarkCanvasMarks(b *testing.B) {
+	fill, edge := color.NRGBA{0, 114, 178, 230}, color.NRGBA{0, 80, 125, 255}
+	for b.Loop() {
+		c := Record(170, 100)
+		for i := range 640 {
+			x, y := vg.Length(i%400), vg.Length(i/4)
+			var p vg.Path
+			p.Move(vg.Point{X: x + 2, Y: y})
+			p.Arc(vg.Point{X: x, Y: y}, 2, 0, 2*math.Pi)
+			p.Close()
+			c.SetColor(fill)
+			c.Fill(p)
+			c.SetColor(edge)
+			c.SetLineWidth(0.6)
+			c.Stroke(p)
+		}
+		c.Close()
+	}
+}
+
+// A path drawn again (a mark filled, then outlined) writes the operators
+// it wrote the first time, and a path changed in place after drawing is
+// formatted afresh.
+func TestRepeatedPathAsFormatted(t *testing.T) {
+	draw := func(keep bool) ([]byte, int) {
+		c := Record(100, 100)
+		hits := 0
+		ctrl := []vg.Point{{X: 1, Y: 2}, {X: 3, Y: 4}}
+		var shared vg.Path
+		shared.Move(vg.Point{X: 0, Y: 0})
+		shared = append(shared, vg.PathComp{Type: vg.CurveComp, Pos: vg.Point{X: 5, Y: 5}, Control: ctrl})
+		for i := range 60 {
+			var p vg.Path
+			switch i % 4 {
+			case 0, 1:
+				p.Move(vg.Point{X: vg.Length(i / 4), Y: 1})
+				p.Arc(vg.Point{X: vg.Length(i/4) - 2, Y: 1}, 2, 0, 2*math.Pi)
+				p.Close()
+			case 2:
+				p = shared
+			case 3:
+				ctrl[1].X += 0.5 // the shared path changes in place
+				p = shared
+			}
+			if !keep {
+				c.lastOps = nil
+			} else if c.lastOps != nil && samePath(p, c.lastPath) {
+				hits++
+			}
+			if i%2 == 0 {
+				c.Fill(p)
+			} else {
+				c.Stroke(p)
+			}
+		}
+		c.Close()
+		var all []byte
+		for _, op := range c.Recording().ops {
+			all = append(all, op.raw...)
+		}
+		return all, hits
+	}
+	kept, hits := draw(true)
+	fresh, _ := draw(false)
+	if !bytes.Equal(kept, fresh) || !bytes.Contains(kept, []byte(" c h S")) {
+		t.Errorf("operators differ when paths are kept:\n%s\nformatted afresh:\n%s", kept, fresh)
+	}
+	if hits != 15 {
+		t.Errorf("%d paths reused, want 15 (each arc mark's outline)", hits)
+	}
+}
+
+// keepWriter holds exactly what was written, in one Write or several.
+func TestKeepWriterKeepsEveryWrite(t *testing.T) {
+	for _, parts := range [][]string{{"%PDF-1.4 one write"}, {"a", "bc", "", "def"}, {}} {
+		var k keepWriter
+		for _, p := range parts {
+			if n, err := k.Write([]byte(p)); n != len(p) || err != nil {
+				t.Fatalf("Write(%q) = %d, %v", p, n, err)
+			}
+		}
+		if got, want := string(k.b), strings.Join(parts, ""); got != want {
+			t.Errorf("kept %q, want %q", got, want)
+		}
+	}
+}
+
+// A face added ahead is listed as unused until SetFont selects it; one
+// reaching the file unused would be embedded all the same.
+func TestUnusedFaces(t *testing.T) {
+	d := New(Options{})
+	d.AddPage()
+	if u := d.UnusedFaces(); len(u) != 0 {
+		t.Fatalf("fresh document: %v unused", u)
+	}
+	var heard []Font
+	d.OnNewFace(func(f Font) { heard = append(heard, f) })
+	d.AddFace(Font{Family: Serif, Style: Bold, Size: 12})
+	if u := d.UnusedFaces(); len(u) != 1 || u[0] != (Font{Family: Serif, Style: Bold}) {
+		t.Fatalf("after AddFace: %v unused", u)
+	}
+	d.SetFont(Font{Family: Serif, Style: Bold, Size: 9})
+	d.SetFont(Font{Family: Sans, Style: Italic, Size: 9})
+	if u := d.UnusedFaces(); len(u) != 0 {
+		t.Errorf("after SetFont: %v unused", u)
+	}
+	if len(heard) != 1 || heard[0] != (Font{Family: Sans, Style: Italic}) {
+		t.Errorf("OnNewFace heard %v, want only the face SetFont registered", heard)
+	}
+}

@@ -14,11 +14,46 @@ func (d *Doc) SetFont(f Font) {
 	f = normalise(f)
 	key := Font{Family: f.Family, Style: f.Style}
 	if !d.fonts[key] {
-		d.f.AddUTF8FontFromBytes(fpdfFamily(f.Family), string(f.Style), fontBytes(f.Family, f.Style))
-		d.fonts[key] = true
+		d.addFace(key)
+		if d.onNewFace != nil {
+			d.onNewFace(key)
+		}
 	}
+	d.used[key] = true
 	d.f.SetFont(fpdfFamily(f.Family), string(f.Style), f.Size)
 	d.cur = f
+}
+
+func (d *Doc) addFace(key Font) {
+	d.f.AddUTF8FontFromBytes(fpdfFamily(key.Family), string(key.Style), fontBytes(key.Family, key.Style))
+	d.fonts[key] = true
+}
+
+// AddFace registers a face (family and style; the size is ignored)
+// without selecting it, so that a later SetFont finds it ready: a
+// document for a later layout pass can be given, on another goroutine,
+// the faces an earlier pass registered. fpdf embeds every registered
+// face, so a document is written only when UnusedFaces is empty.
+func (d *Doc) AddFace(f Font) {
+	f = normalise(f)
+	key := Font{Family: f.Family, Style: f.Style}
+	if !d.fonts[key] {
+		d.addFace(key)
+	}
+}
+
+// OnNewFace calls fn with each face SetFont registers from now on.
+func (d *Doc) OnNewFace(fn func(Font)) { d.onNewFace = fn }
+
+// UnusedFaces lists the faces registered (AddFace) but never selected.
+func (d *Doc) UnusedFaces() []Font {
+	var out []Font
+	for k := range d.fonts {
+		if !d.used[k] {
+			out = append(out, k)
+		}
+	}
+	return out
 }
 
 // CurrentFont is the face last selected.

@@ -93,18 +93,24 @@ func readXref(pdf []byte) (offs []int, xrefAt int, err error) {
 // cross-reference offset and startxref by the bytes inserted before it.
 func applyEdits(pdf []byte, edits []edit, offs []int, xrefAt int, objs [][]byte) ([]byte, error) {
 	sort.Slice(edits, func(i, j int) bool { return edits[i].at < edits[j].at })
+	// moved[k] is how far the edits before edits[k] move what follows them.
+	moved := make([]int, len(edits)+1)
+	grow := 0
+	for i, e := range edits {
+		moved[i+1] = moved[i] + len(e.repl) - e.n
+		grow += len(e.repl) - e.n
+	}
 	shift := func(p int) int {
-		d := 0
-		for _, e := range edits {
-			if e.at >= p {
-				break
-			}
-			d += len(e.repl) - e.n
-		}
-		return p + d
+		k := sort.Search(len(edits), func(i int) bool { return edits[i].at >= p })
+		return p + moved[k]
+	}
+	size := len(offs) + len(objs)
+	extra := 0
+	for _, o := range objs {
+		extra += len(o) + 32
 	}
 	var out bytes.Buffer
-	out.Grow(len(pdf) + 16*len(edits))
+	out.Grow(len(pdf) + grow + extra + 20*len(objs) + 64)
 	prev := 0
 	for _, e := range edits {
 		if e.at < prev || e.at > xrefAt {
@@ -122,17 +128,16 @@ func applyEdits(pdf []byte, edits []edit, offs []int, xrefAt int, objs [][]byte)
 	}
 	// The table itself: same layout, offsets moved.
 	newXref := out.Len()
-	size := len(offs) + len(objs)
 	out.WriteString("xref\n0 " + strconv.Itoa(size) + "\n")
 	for _, o := range offs {
 		if o < 0 {
 			out.WriteString("0000000000 65535 f \n")
 			continue
 		}
-		fmt.Fprintf(&out, "%010d 00000 n \n", shift(o))
+		writeXrefEntry(&out, shift(o))
 	}
 	for _, o := range added {
-		fmt.Fprintf(&out, "%010d 00000 n \n", o)
+		writeXrefEntry(&out, o)
 	}
 	tr := bytes.Index(pdf[xrefAt:], []byte("trailer"))
 	if tr < 0 {
@@ -148,4 +153,15 @@ func applyEdits(pdf []byte, edits []edit, offs []int, xrefAt int, objs [][]byte)
 	out.Write(bytes.Replace(t, oldSize, []byte("/Size "+strconv.Itoa(size)), 1))
 	out.WriteString("startxref\n" + strconv.Itoa(newXref) + "\n%%EOF\n")
 	return out.Bytes(), nil
+}
+
+// writeXrefEntry writes an in-use entry, "%010d 00000 n \n".
+func writeXrefEntry(out *bytes.Buffer, off int) {
+	var b [20]byte
+	copy(b[10:], " 00000 n \n")
+	for i := 9; i >= 0; i-- {
+		b[i] = byte('0' + off%10)
+		off /= 10
+	}
+	out.Write(b[:])
 }

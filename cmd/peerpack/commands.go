@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bufio"
 	"context"
 	"fmt"
 	iofs "io/fs"
@@ -169,8 +170,10 @@ func runCheck(ctx context.Context, e *env, args []string) int {
 		code := reportError(e, err)
 		if in != nil && in.Report != nil {
 			// What did load, below the problems it refers back to.
-			fmt.Fprintln(e.stderr)
-			in.Report.Write(e.stderr)
+			bw := bufio.NewWriter(e.stderr) // many small writes
+			fmt.Fprintln(bw)
+			in.Report.Write(bw)
+			bw.Flush()
 		}
 		return code
 	}

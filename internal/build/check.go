@@ -1,6 +1,7 @@
 package build
 
 import (
+	"bufio"
 	"fmt"
 	"io"
 	"math"
@@ -32,7 +33,12 @@ func CheckBuild(in *Inputs, version string) error {
 // WriteCheckReport prints what `peerpack check` shows for loaded inputs:
 // the dataset summary, then each comparison group's size and coverage in
 // the brief's year, read from the figures model.
-func WriteCheckReport(w io.Writer, in *Inputs) {
+func WriteCheckReport(out io.Writer, in *Inputs) {
+	// Tens of thousands of small writes (a coverage row per group,
+	// indicator and year): one system call each on a terminal or pipe
+	// without the buffer.
+	w := bufio.NewWriterSize(out, 64<<10)
+	defer w.Flush()
 	m := in.Figures
 	in.Report.Groups = groupCoverage(in.Brief, m)
 	in.Report.Write(w)

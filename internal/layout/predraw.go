@@ -36,6 +36,8 @@ type predraw struct {
 	// replayed counts the charts set from their recordings (for tests).
 	replayed atomic.Int64
 	plans    *chartPlans
+	// discard: charts drawn for a draft keep nothing (predrawn.discard).
+	discard bool
 	// bySpec is used by the layout's goroutine alone.
 	bySpec map[*brief.ChartBlock][]*predrawn
 
@@ -53,6 +55,9 @@ type predrawn struct {
 	once sync.Once
 	rec  *pdf.Recording
 	err  error
+	// discard: the pack is a draft (check), never written; the chart
+	// is drawn only to prove it can be.
+	discard bool
 	// skipped: a measuring pass needed the chart before any worker
 	// started it, so it is not drawn at all (set inside once, by hold,
 	// on the layout's goroutine, which alone reads it).
@@ -63,6 +68,9 @@ type predrawn struct {
 // in-line drawing gives.
 func (p *predrawn) draw() {
 	c := pdf.Record(p.width, p.height)
+	if p.discard {
+		c = pdf.RecordDiscarding(p.width, p.height)
+	}
 	defer func() {
 		c.Close()
 		if r := recover(); r != nil {
@@ -129,7 +137,7 @@ func (pd *predraw) add(s sizedChart) {
 			return
 		}
 	}
-	it := &predrawn{sizedChart: s}
+	it := &predrawn{sizedChart: s, discard: pd.discard}
 	pd.bySpec[s.spec] = append(pd.bySpec[s.spec], it)
 	pd.mu.Lock()
 	pd.items = append(pd.items, it)

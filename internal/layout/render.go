@@ -94,6 +94,9 @@ func RenderFigures(in Input) (out []byte, figs []Figure, err error) {
 	// on the other processors: from the moment the first measuring pass
 	// sizes each one.
 	in.predraw = newPredraw(in.plans)
+	if in.predraw != nil {
+		in.predraw.discard = in.Draft
+	}
 	defer in.predraw.finish()
 	feeding := in
 	feeding.feedPredraw = true

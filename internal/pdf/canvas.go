@@ -102,6 +102,9 @@ func (c *Canvas) Close() {
 
 func (c *Canvas) raw(s string) {
 	if c.rec != nil {
+		if c.rec.discard {
+			return
+		}
 		c.rec.pending = append(append(c.rec.pending, s...), '\n') // as fpdf's out writes it
 		return
 	}
@@ -127,6 +130,8 @@ type Recording struct {
 	w, h    float64 // mm
 	ops     []recOp
 	pending []byte
+	// discard drops the content written (RecordDiscarding).
+	discard bool
 }
 
 // recOp is either content written as is (lines ending in a newline) or a
@@ -149,6 +154,15 @@ func (r *Recording) flush() {
 func Record(w, h float64) *Canvas {
 	c := &Canvas{w: vg.Length(w * PointsPerMM), h: vg.Length(h * PointsPerMM), rec: &Recording{w: w, h: h}}
 	c.stack = []canvasState{{stroke: color.NRGBA{A: 255}, fill: color.NRGBA{A: 255}, alpha: 1, width: 1}}
+	return c
+}
+
+// RecordDiscarding is Record for a drawing that is made only to prove it
+// can be made (check): everything is drawn and formatted as Record does,
+// but the content written is dropped, not kept.
+func RecordDiscarding(w, h float64) *Canvas {
+	c := Record(w, h)
+	c.rec.discard = true
 	return c
 }
 
@@ -396,6 +410,9 @@ func (c *Canvas) path(p vg.Path, op string) {
 func (c *Canvas) paint(b []byte) {
 	c.buf = b
 	if c.rec != nil {
+		if c.rec.discard {
+			return
+		}
 		c.rec.pending = append(append(c.rec.pending, b...), '\n') // as raw, without a string
 		return
 	}

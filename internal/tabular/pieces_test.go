@@ -43,7 +43,7 @@ func TestReadPiecesSameBytesAndChecksum(t *testing.T) {
 			t.Fatal(err)
 		}
 		rec := provenance.New(os.DirFS(dir))
-		got, err := ReadFileWith(rec, name, limits.Default())
+		got, err := readFile(rec, name, limits.Default())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -108,18 +108,18 @@ func TestReadPiecesGrownFile(t *testing.T) {
 	withPieces(t)
 	data := bytes.Repeat([]byte("0123456789\n"), 20000)
 	g := &grownFS{data: data, stat: 1000}
-	got, err := ReadFileWith(g, "f.csv", limits.Default())
+	got, err := readFile(g, "f.csv", limits.Default())
 	if err != nil || !bytes.Equal(got, data) || !bytes.Equal(g.saved, data) {
 		t.Fatalf("grown file: %d bytes, %v; recorded %d", len(got), err, len(g.saved))
 	}
 	lim := limits.Default()
 	lim.FileBytes = 5000
-	if _, err := ReadFileWith(g, "f.csv", lim); err == nil {
+	if _, err := readFile(g, "f.csv", lim); err == nil {
 		t.Fatal("a file grown past the limit was read")
 	}
 	// A file that cannot be read at an offset is read in order.
 	g2 := &grownFS{data: data, stat: int64(len(data)), noAt: true}
-	got, err = ReadFileWith(g2, "f.csv", limits.Default())
+	got, err = readFile(g2, "f.csv", limits.Default())
 	if err != nil || !bytes.Equal(got, data) || g2.saved != nil {
 		t.Fatalf("sequential file: %d bytes, %v, recorded %d", len(got), err, len(g2.saved))
 	}

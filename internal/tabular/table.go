@@ -76,13 +76,6 @@ func OpenWith(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
 	return open(name, lim, func(file string) ([]byte, error) { return readFile(fsys, file, lim) })
 }
 
-// ReadFileWith reads the file a CSV path names, with OpenWith's checks of
-// kind and size, for OpenRead.
-func ReadFileWith(fsys fs.FS, name string, lim limits.Limits) ([]byte, error) {
-	file, _, _ := strings.Cut(name, "#")
-	return readFile(fsys, file, lim.Or())
-}
-
 func open(name string, lim limits.Limits, read func(file string) ([]byte, error)) (RowReader, error) {
 	lim = lim.Or()
 	file, sheet, _ := strings.Cut(name, "#")

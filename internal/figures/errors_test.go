@@ -2,6 +2,7 @@ package figures
 
 import (
 	"errors"
+	"fmt"
 	"strings"
 	"testing"
 
@@ -93,5 +94,21 @@ func TestComputeCollectsAllProblems(t *testing.T) {
 func TestComputeNilInputs(t *testing.T) {
 	if _, err := Compute(nil, nil); err == nil {
 		t.Fatal("nil inputs must be an error, not a panic")
+	}
+}
+
+// TestUnknownGroupListIsShort: the groups a wrong name could have meant
+// are listed whole when few, and the first ten and a count when many (an
+// each group over 120 systems would otherwise list 120 names).
+func TestUnknownGroupListIsShort(t *testing.T) {
+	var many []string
+	for i := 1; i <= 120; i++ {
+		many = append(many, fmt.Sprintf("System %03d", i))
+	}
+	if got := quotedSome(many, 10); !strings.HasSuffix(got, `"System 010" and 110 more`) || strings.Contains(got, "System 011") {
+		t.Errorf("120 names: %s", got)
+	}
+	if got, want := quotedSome(many[:12], 10), quoted(many[:12]); got != want {
+		t.Errorf("12 names: %s, want all: %s", got, want)
 	}
 }

@@ -1,6 +1,7 @@
 package figures
 
 import (
+	"fmt"
 	"strconv"
 	"strings"
 
@@ -17,6 +18,16 @@ func quoted(list []string) string {
 		q[i] = strconv.Quote(s)
 	}
 	return strings.Join(q, ", ")
+}
+
+// quotedSome is quoted for the first max names of a long list, then how
+// many more: an each group over a register of 120 countries names 120
+// groups, which no message should list whole.
+func quotedSome(list []string, max int) string {
+	if len(list) <= max+2 {
+		return quoted(list)
+	}
+	return quoted(list[:max]) + fmt.Sprintf(" and %d more", len(list)-max)
 }
 
 // runningLabel is an indicator's label as a definition reads it (the

@@ -144,7 +144,7 @@ func checkBlocks(d *dataset.Dataset, b *brief.Brief, groups []*Group, emptied ma
 				msg += fmt.Sprintf("; did you mean %q?", s)
 			}
 			if len(list) > 0 {
-				msg += fmt.Sprintf(" (groups are %s)", quoted(list))
+				msg += fmt.Sprintf(" (groups are %s)", quotedSome(list, 10))
 			}
 			probs.Addf(b.File, p.Line, p.Column, "%s", msg)
 		}

@@ -5,8 +5,6 @@ import (
 	"io"
 	"io/fs"
 	"math"
-	"path"
-	"strings"
 
 	"peerpack/internal/brief"
 	"peerpack/internal/diag"
@@ -35,18 +33,6 @@ type fetched struct {
 	done chan struct{}
 	r    tabular.RowReader
 	err  error
-}
-
-// isCSVPath reports a path tabular reads as CSV (no sheet).
-func isCSVPath(p string) bool {
-	if strings.Contains(p, "#") {
-		return false
-	}
-	switch strings.ToLower(path.Ext(p)) {
-	case ".csv", ".txt", "":
-		return true
-	}
-	return false
 }
 
 type stagedNote struct {
@@ -160,7 +146,7 @@ func (l *loader) load() *Dataset {
 	// The first values file is opened, and its first chunks read, while
 	// the dictionary and register are parsed: at world size it is most of
 	// the input (a large file is read as a stream, tabular.OpenStream).
-	if len(data.Values) > 0 && isCSVPath(data.Values[0]) {
+	if len(data.Values) > 0 {
 		f := &fetched{name: data.Values[0], done: make(chan struct{})}
 		l.fetched = f
 		go func() {

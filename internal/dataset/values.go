@@ -87,7 +87,7 @@ func (v *valuesReader) read(name string) {
 		r, err = f.r, f.err
 		f.r, v.l.fetched = nil, nil // read once
 	} else {
-		r, err = tabular.OpenWith(v.l.fsys, name, v.l.lim)
+		r, err = tabular.OpenStream(v.l.fsys, name, v.l.lim)
 	}
 	if err != nil {
 		v.l.probs.Add(err)

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"io"
 	"io/fs"
+	"path"
 	"runtime"
 	"strings"
 	"unicode/utf8"
@@ -66,11 +67,22 @@ type streamItem struct {
 	err  error
 }
 
-// OpenStream opens a CSV file to read as a stream. When the file is
-// small, or its first chunk holds a double quote, it is read whole and
-// the reader returned is an ordinary *CSVReader; otherwise a *Stream.
+// OpenStream opens a CSV file to read as a stream. Anything OpenWith
+// reads otherwise (a workbook, a sheet, an unknown extension) is left to
+// OpenWith; a small CSV file, or one whose first chunk holds a double
+// quote, is read whole and the reader returned is an ordinary
+// *CSVReader; otherwise a *Stream.
 func OpenStream(fsys fs.FS, name string, lim limits.Limits) (RowReader, error) {
 	lim = lim.Or()
+	switch strings.ToLower(path.Ext(name)) {
+	case ".csv", ".txt", "":
+		if !strings.Contains(name, "#") {
+			break
+		}
+		fallthrough
+	default:
+		return OpenWith(fsys, name, lim)
+	}
 	f, err := fsys.Open(name)
 	if err != nil {
 		return nil, openProblem(name, err)
@@ -250,7 +262,7 @@ func (s *Stream) Next() ([]Cell, error) {
 			return nil, io.EOF
 		}
 		if s.cur == nil {
-			p, rest, err := s.Part()
+			p, _, err := s.Part() // a rest part is read in turn here anyway
 			if err == io.EOF {
 				s.finished = true
 				return nil, io.EOF
@@ -259,7 +271,6 @@ func (s *Stream) Next() ([]Cell, error) {
 				s.finished, s.failed = true, true
 				return nil, err
 			}
-			_ = rest // read in turn here anyway
 			p.rows = s.rows
 			s.cur = p
 		}
